@@ -1,0 +1,80 @@
+/**
+ * The contract between the case engine and the rest of gridproof: what a loaded, derived and
+ * compiled manufactured-solution case offers. Other parts (campaign, protocol requests, reports)
+ * use only these types.
+ *
+ * @module
+ */
+import type { BoundaryKind, Domain, Problem, Side } from "../reference-solver/mod.ts";
+
+/** A compiled point function: plain JavaScript built from a whitelisted expression tree. */
+export type PointFn = (x: number, y: number) => number;
+
+/** Error norms a case may declare an expected observed order for. */
+export type NormName = "max" | "l2" | "l1";
+
+/** Discretizations a case declares orders for. */
+export type SchemeName = "central" | "upwind";
+
+/** The order a case expects under one discretization. */
+export interface ExpectedOrder {
+  /** Formal order of the scheme (central 2, upwind 1). */
+  formal: number;
+  /** Where theory says the observed order is lower: per norm, the order and the reason. */
+  observed?: Partial<Record<NormName, { order: number; reason: string }>>;
+  /**
+   * true for a case whose exact solution the scheme reproduces to round-off (an exactness check,
+   * not an order check): the verdict asks for errors at round-off level instead of an order.
+   */
+  exact?: boolean;
+}
+
+/** One side's boundary condition of a compiled case, with its derived data as a point function. */
+export interface CaseBoundary {
+  kind: BoundaryKind;
+  /** Robin α (only for robin). */
+  alpha?: number;
+  /** Robin β (only for robin). */
+  beta?: number;
+  /** Boundary data g(x, y): u for dirichlet, ∂u/∂n for neumann, α·u + β·∂u/∂n for robin. */
+  data: PointFn;
+}
+
+/** Readable formulas of a case (mathjs text after simplification). */
+export interface CaseFormulas {
+  a: string;
+  b: string;
+  c: string;
+  d: string;
+  e: string;
+  exact: string;
+  source: string;
+  boundary: Record<Side, string>;
+}
+
+/** A case ready to sample onto any grid. */
+export interface CompiledCase {
+  id: string;
+  title: string;
+  motivation: string;
+  /** Where the case came from: "library" or the path of a user's file. */
+  origin: string;
+  domain: Domain;
+  /** Parameter values in effect (defaults merged with overrides). */
+  parameters: Record<string, number>;
+  expected: Record<SchemeName, ExpectedOrder>;
+  tags: string[];
+  /** Suggested grid sequence (intervals along x on the finest direction; ny follows the aspect). */
+  grids: number[];
+  /** Interior-grid aspect: ny = round(nx · aspect). 1 for square cells on a square. */
+  aspect: number;
+  exact: PointFn;
+  exactDx: PointFn;
+  exactDy: PointFn;
+  coefficients: { a: PointFn; b: PointFn; c: PointFn; d: PointFn; e: PointFn };
+  source: PointFn;
+  boundary: Record<Side, CaseBoundary>;
+  formulas: CaseFormulas;
+  /** Samples the case onto a vertex-centred grid with nx × ny intervals. Checks ellipticity and finiteness. */
+  sample(nx: number, ny: number): Problem;
+}

@@ -1,0 +1,115 @@
+/**
+ * Options and result of a reference-solver solve. Every option has a documented default; unknown
+ * keys are refused by `resolveOptions` with the dotted path of the key.
+ *
+ * @module
+ */
+
+/** Names of the registered smoothers (the same names appear on the command line and in reports). */
+export type SmootherName =
+  | "jacobi"
+  | "gauss-seidel"
+  | "red-black"
+  | "line-x"
+  | "line-y"
+  | "alternating-line";
+
+/** Names of the restriction operators. */
+export type RestrictionName = "injection" | "half-weighting" | "full-weighting";
+
+/** Names of the cycles. `fmg` is full multigrid followed by cycles of `fmgCycle` until converged. */
+export type CycleName = "V" | "W" | "F" | "fmg";
+
+/** How coarse-level operators are built. */
+export type CoarseOperatorName = "rediscretize" | "galerkin";
+
+/** Options of a solve, nested by role. */
+export interface SolveOptions {
+  /** Discretization. */
+  scheme?: {
+    /** First-order upwinding of b·u_x and d·u_y (formal order 1). Default: false (central, order 2). */
+    upwind?: boolean;
+  };
+  cycle?: {
+    /** Cycle type. Default: "V". */
+    type?: CycleName;
+    /** Pre-smoothing sweeps ν1. Default: 2. */
+    pre?: number;
+    /** Post-smoothing sweeps ν2. Default: 1. */
+    post?: number;
+    /** Cycle used on each level during full multigrid and after it (V, W or F). Default: "V". */
+    fmgCycle?: "V" | "W" | "F";
+    /** Cycles per level in full multigrid. Default: 1. */
+    fmgCyclesPerLevel?: number;
+  };
+  smoother?: {
+    /** Default: "red-black". */
+    name?: SmootherName;
+    /** Weight ω of weighted Jacobi. Default: 0.8 (4/5, optimal smoothing for 2-D Poisson). */
+    omega?: number;
+  };
+  transfer?: {
+    /** Default: "full-weighting". Interpolation is always bilinear. */
+    restriction?: RestrictionName;
+  };
+  coarse?: {
+    /** Default: "rediscretize". */
+    operator?: CoarseOperatorName;
+    /** Stop coarsening when the grid has at most this many unknowns, then solve by banded LU. Default: 1089 (33×33). */
+    maxDirectUnknowns?: number;
+    /** Allow coarsening in one direction when only one count is even. Default: true. */
+    semiCoarsening?: boolean;
+  };
+  stop?: {
+    /** Relative residual tolerance ‖r‖₂/‖r₀‖₂. Default: 1e-10. */
+    tolerance?: number;
+    /** Maximum number of cycles. Default: 100. */
+    maxCycles?: number;
+    /** Declare divergence when the residual grows above this multiple of the initial. Default: 1e3. */
+    divergenceFactor?: number;
+  };
+  /** What to do with a singular problem (only Neumann sides, e ≡ 0). Default: "refuse". */
+  singular?: "refuse" | "mean-zero";
+  /** Initial guess (length (nx+1)(ny+1)); default: zero in the interior, Dirichlet values on the boundary. */
+  initialGuess?: Float64Array;
+}
+
+/** Why a solve stopped. */
+export type StopReason = "converged" | "max-cycles" | "diverged" | "stagnated";
+
+/** What a solve returns. It never throws for non-convergence: that is data. */
+export interface SolveResult {
+  /** The discrete solution at every node (x fastest). */
+  solution: Float64Array;
+  converged: boolean;
+  reason: StopReason;
+  /** Number of cycles done (FMG counts as one). */
+  cycles: number;
+  /** ‖r‖₂ before the first cycle and after each cycle (length cycles + 1). */
+  residualHistory: number[];
+  /** (‖r_k‖/‖r_0‖)^(1/k) over all cycles. */
+  averageFactor: number;
+  /** Geometric mean of the last few per-cycle factors (up to 3), the asymptotic convergence factor. */
+  asymptoticFactor: number;
+  /** Wall time of the solve, excluding validation of inputs. */
+  seconds: number;
+  /** Plain JSON record of levels and components. */
+  description: SolverDescription;
+}
+
+/** The `describe()` record stored beside every number. */
+export interface SolverDescription {
+  solver: "gridproof-multigrid";
+  scheme: "central" | "upwind";
+  cycle: string;
+  pre: number;
+  post: number;
+  smoother: Record<string, unknown>;
+  restriction: RestrictionName;
+  interpolation: "bilinear";
+  coarseOperator: CoarseOperatorName;
+  /** Finest first. */
+  levels: { nx: number; ny: number; coarsening: "both" | "x" | "y" | "direct" }[];
+  tolerance: number;
+  maxCycles: number;
+}

@@ -1,0 +1,70 @@
+/**
+ * The problem the reference solver takes: plain typed arrays on a vertex-centred grid, with no
+ * knowledge of cases, expressions or the harness.
+ *
+ * Grid: the rectangle [x0, x1] × [y0, y1] split into nx × ny equal intervals, hx = (x1 − x0)/nx,
+ * hy = (y1 − y0)/ny (hx may differ from hy). Node (i, j), 0 ≤ i ≤ nx, 0 ≤ j ≤ ny, sits at
+ * (x0 + i·hx, y0 + j·hy) and is stored at index `j·(nx + 1) + i` (x fastest).
+ *
+ * Operator: a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f, elliptic where a·c > 0.
+ *
+ * @module
+ */
+
+/** The four sides of the rectangle. West is x = x0, east x = x1, south y = y0, north y = y1. */
+export type Side = "west" | "east" | "south" | "north";
+
+/** All sides, in the order used everywhere (reports, loops, messages). */
+export const SIDES: readonly Side[] = ["west", "east", "south", "north"] as const;
+
+/** The three kinds of boundary condition. */
+export type BoundaryKind = "dirichlet" | "neumann" | "robin";
+
+/**
+ * A boundary condition on one side. `values` holds one number per node along the side, ordered by
+ * increasing coordinate: ny + 1 values on west and east (south to north), nx + 1 values on south and
+ * north (west to east), corners included.
+ *
+ * - dirichlet: u = values
+ * - neumann: ∂u/∂n = values, n the outward unit normal
+ * - robin: alpha·u + beta·∂u/∂n = values (n outward)
+ */
+export type BoundaryCondition =
+  | { kind: "dirichlet"; values: Float64Array }
+  | { kind: "neumann"; values: Float64Array }
+  | { kind: "robin"; alpha: number; beta: number; values: Float64Array };
+
+/** The rectangle. */
+export interface Domain {
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+}
+
+/** A discrete elliptic problem on a vertex-centred grid (see the module doc for the layout). */
+export interface Problem {
+  domain: Domain;
+  /** Number of intervals along x (≥ 2). */
+  nx: number;
+  /** Number of intervals along y (≥ 2). */
+  ny: number;
+  /** Coefficient of u_xx at the nodes, length (nx+1)(ny+1). */
+  a: Float64Array;
+  /** Coefficient of u_x at the nodes. */
+  b: Float64Array;
+  /** Coefficient of u_yy at the nodes. */
+  c: Float64Array;
+  /** Coefficient of u_y at the nodes. */
+  d: Float64Array;
+  /** Coefficient of u at the nodes. */
+  e: Float64Array;
+  /** Right-hand side at the nodes. */
+  f: Float64Array;
+  boundary: Record<Side, BoundaryCondition>;
+}
+
+/** Number of nodes of a problem's grid: (nx + 1)(ny + 1). */
+export function nodeCount(p: { nx: number; ny: number }): number {
+  return (p.nx + 1) * (p.ny + 1);
+}
