@@ -1,0 +1,220 @@
+/**
+ * The one result object of a campaign: configuration, every solve, every analysis figure and
+ * every verdict. Reports are rendered from it alone; it is saved as `result.json` and its JSON
+ * Schema is `harness/result/result.schema.json`. Bump {@link RESULT_VERSION} on any change that
+ * an older reader cannot ignore.
+ *
+ * Numbers that could not be computed are `null` (JSON has no NaN).
+ *
+ * @module
+ */
+
+/** Identifies the format. */
+export const RESULT_FORMAT = "gridproof-result";
+/** Current version of the format. */
+export const RESULT_VERSION = 1;
+
+/** Error norms. `l2` is the discrete area-weighted L2 norm, `l1` likewise. */
+export interface NormSet {
+  max: number;
+  l2: number;
+  l1: number;
+}
+
+/** Where an error norm is measured: every node, interior nodes only, a band of boundary nodes. */
+export type Region = "all" | "interior" | "boundary";
+
+/** Status of a single solve. */
+export type SolveStatus = "ok" | "failed" | "not-applicable";
+
+/** One solve of one case on one grid by one solver. */
+export interface SolveRecord {
+  caseId: string;
+  solver: string;
+  nx: number;
+  ny: number;
+  /** Representative spacing: sqrt(area / cells) (Celik et al. 2008) — equals h on square cells. */
+  h: number;
+  unknowns: number;
+  status: SolveStatus;
+  /** Why the solve failed or does not apply (plain words); absent when ok. */
+  reason?: string;
+  /** Error norms against the exact solution per region (present when ok). */
+  errors?: Record<Region, NormSet>;
+  /** Quantities of interest computed from the discrete solution, by name. */
+  quantities?: Record<string, number>;
+  /** ‖r‖ history as the solver reported it (may be empty for solvers that give none). */
+  residualHistory: number[];
+  iterations: number | null;
+  converged: boolean | null;
+  stopReason?: string;
+  averageFactor: number | null;
+  asymptoticFactor: number | null;
+  /** Wall time of the solve as measured by the harness. */
+  seconds: number;
+  /** The solver's own timing when it reported one. */
+  solverSeconds?: number | null;
+  /** Max-norm difference from the reference solver's discrete solution on the same grid, when both ran. */
+  differenceFromReference?: number | null;
+  /** Last 64 KiB of an external solver's stderr. */
+  stderrTail?: string;
+  /** The solver's describe() record or reported name/version/notes. */
+  description?: Record<string, unknown>;
+}
+
+/** Observed orders of one norm in one region over the grid sequence. */
+export interface OrderRecord {
+  region: Region;
+  norm: keyof NormSet;
+  /** Pairwise orders between successive grids, coarsest pair first (length grids − 1). */
+  pairwise: (number | null)[];
+  /** Least-squares slope of log E against log h over the finest `points` grids. */
+  fitted: { order: number | null; low: number | null; high: number | null; points: number };
+  /** Successive pairwise orders settled (in the asymptotic range). */
+  asymptotic: boolean;
+}
+
+/** Grid-convergence study of one quantity of interest. */
+export interface QuantityRecord {
+  name: string;
+  /** What the quantity is, in words (e.g. "integral of u over the domain"). */
+  label: string;
+  /** The exact value (from the manufactured solution). */
+  exact: number | null;
+  /** Value per grid, coarsest first, aligned with the study's grids. */
+  values: (number | null)[];
+  /** Observed order from the finest three grids (null when not computable). */
+  order: number | null;
+  /** Richardson-extrapolated value from the finest pair at the observed order. */
+  extrapolated: number | null;
+  /** Roache GCI of the finest grid (fraction, not percent) with its safety factor. */
+  gciFine: number | null;
+  /** Roache GCI of the next pair (fraction). */
+  gciCoarse: number | null;
+  safetyFactor: number | null;
+  /** GCI_23 / (r^p · GCI_12): near 1 in the asymptotic range. */
+  asymptoticRatio: number | null;
+  /** Celik et al. (2008) three-grid procedure. */
+  celik: {
+    order: number | null;
+    extrapolated: number | null;
+    relativeError: number | null;
+    extrapolatedRelativeError: number | null;
+    gciFine: number | null;
+    convergence: "monotone" | "oscillatory" | "divergent" | "unknown";
+  } | null;
+  /** Eça & Hoekstra (2014) least-squares estimate (four or more grids). */
+  leastSquares: {
+    fit: string;
+    order: number | null;
+    extrapolated: number | null;
+    uncertainty: number | null;
+    safetyFactor: number | null;
+  } | null;
+  /** Does the finest-grid GCI band |φ1 − φexact| ≤ GCI·|φ1| contain the true error? */
+  covered: boolean | null;
+}
+
+/** Residual behaviour across the grid sequence. */
+export interface ScalingRecord {
+  /** Fitted exponent of iterations against unknowns (≈ 0: grid-independent). */
+  iterationsExponent: number | null;
+  /** Fitted exponent of the average convergence factor against unknowns. */
+  factorExponent: number | null;
+  /** Fitted exponent of solve time against unknowns (≈ 1 for an optimal solver). */
+  timeExponent: number | null;
+  gridIndependent: boolean | null;
+  /** Solves that stagnated, diverged or stopped without converging, as "nx×ny: reason". */
+  problems: string[];
+}
+
+/** Outcome of one criterion. */
+export type VerdictStatus = "pass" | "fail" | "warn" | "not-applicable";
+
+/** One judgement with a reason in plain words a reviewer can act on. */
+export interface Verdict {
+  caseId: string;
+  solver: string;
+  /** e.g. "order", "convergence", "grid-independence", "asymptotic-range", "baseline-order". */
+  criterion: string;
+  status: VerdictStatus;
+  reason: string;
+  /** Numbers behind the judgement (expected, observed, tolerance …). */
+  details?: Record<string, unknown>;
+}
+
+/** The study of one case by one solver over the grid sequence. */
+export interface StudyRecord {
+  caseId: string;
+  solver: string;
+  /** nx of each grid, coarsest first. */
+  grids: number[];
+  /** h of each grid, coarsest first. */
+  h: number[];
+  expectedOrder: number;
+  orderTolerance: number;
+  orders: OrderRecord[];
+  quantities: QuantityRecord[];
+  /** Fraction of GCI bands that contained the true error (null when none computed). */
+  coverage: number | null;
+  scaling: ScalingRecord;
+  verdicts: Verdict[];
+}
+
+/** What a report needs to show about a case. */
+export interface CaseInfo {
+  id: string;
+  title: string;
+  motivation: string;
+  origin: string;
+  domain: { x0: number; x1: number; y0: number; y1: number };
+  parameters: Record<string, number>;
+  tags: string[];
+  expected: Record<string, unknown>;
+  formulas: {
+    a: string;
+    b: string;
+    c: string;
+    d: string;
+    e: string;
+    exact: string;
+    source: string;
+    boundary: Record<string, string>;
+  };
+  boundaryKinds: Record<string, string>;
+}
+
+/** A solver that took part. */
+export interface SolverInfo {
+  name: string;
+  kind: "reference" | "external";
+  /** Command as an argument array (external solvers). */
+  command?: string[];
+  layout: "vertex" | "cell" | "points";
+  scheme: "central" | "upwind";
+  description?: Record<string, unknown>;
+}
+
+/** The whole campaign result. */
+export interface CampaignResult {
+  format: typeof RESULT_FORMAT;
+  version: number;
+  tool: { name: "gridproof"; version: string };
+  createdAt: string;
+  environment: { deno: string; os: string; arch: string; cpus: number; hostname: string };
+  configuration: {
+    cases: string[];
+    grids: number[];
+    jobs: number;
+    orderTolerance: number;
+    requireGridIndependence: boolean;
+    baseline?: string;
+  };
+  cases: CaseInfo[];
+  solvers: SolverInfo[];
+  solves: SolveRecord[];
+  studies: StudyRecord[];
+  /** Verdicts that compare with a saved baseline (not tied to one study's grids). */
+  baselineVerdicts: Verdict[];
+  summary: { pass: number; fail: number; warn: number; notApplicable: number; exitCode: number };
+}
