@@ -77,4 +77,19 @@ export interface CompiledCase {
   formulas: CaseFormulas;
   /** Samples the case onto a vertex-centred grid with nx × ny intervals. Checks ellipticity and finiteness. */
   sample(nx: number, ny: number): Problem;
+  /** How the case follows the manufactured-solution guidance (the case file's `manufactured`). */
+  manufactured: string;
+  /** The same formulas as TeX (mathjs `toTex`). */
+  tex: CaseFormulas;
+  /** Advice for the reference solver (the case file's `solver`), when given. */
+  solver?: { smoother?: string; cycle?: string; maxCycles?: number };
+  /** The grid for a suggested size: nx = n, ny = round(n · aspect). */
+  gridFor(n: number): { nx: number; ny: number };
+  /** The exact solution at every node of an nx × ny grid (x fastest), one fused compiled pass. */
+  sampleExact(nx: number, ny: number): Float64Array;
+  /**
+   * Like {@link CompiledCase.sample}, with the rows split across Deno workers for large grids
+   * (SharedArrayBuffer-backed arrays). Defaults: 2 workers, grids below 2^17 nodes on this thread.
+   */
+  sampleAsync(nx: number, ny: number, options?: { workers?: number; minNodes?: number }): Promise<Problem>;
 }

@@ -20,7 +20,10 @@ export type RestrictionName = "injection" | "half-weighting" | "full-weighting";
 /** Names of the cycles. `fmg` is full multigrid followed by cycles of `fmgCycle` until converged. */
 export type CycleName = "V" | "W" | "F" | "fmg";
 
-/** How coarse-level operators are built. */
+/**
+ * How coarse-level operators are built. Only "rediscretize" is implemented; "galerkin" is refused
+ * by `resolveOptions` with a RangeError (kept in the type so callers' names stay stable).
+ */
 export type CoarseOperatorName = "rediscretize" | "galerkin";
 
 /** Options of a solve, nested by role. */
@@ -57,8 +60,16 @@ export interface SolveOptions {
     operator?: CoarseOperatorName;
     /** Stop coarsening when the grid has at most this many unknowns, then solve by banded LU. Default: 1089 (33×33). */
     maxDirectUnknowns?: number;
-    /** Allow coarsening in one direction when only one count is even. Default: true. */
+    /**
+     * Allow coarsening in one direction: when only one count is even, or when that direction's
+     * mesh width is at most 1/√2 of the other's (see `chooseCoarsening`). Default: true.
+     */
     semiCoarsening?: boolean;
+    /**
+     * Largest number of levels, finest included; the last one is solved by banded LU whatever its
+     * size. `2` gives a two-grid method with an exact coarse solve. Default: 50 (no limit in practice).
+     */
+    maxLevels?: number;
   };
   stop?: {
     /** Relative residual tolerance ‖r‖₂/‖r₀‖₂. Default: 1e-10. */
@@ -95,6 +106,14 @@ export interface SolveResult {
   seconds: number;
   /** Plain JSON record of levels and components. */
   description: SolverDescription;
+  /** Part of `seconds` spent building the levels (operators, smoother and coarse factorizations). */
+  setupSeconds: number;
+  /**
+   * Only with `singular: "mean-zero"`: the constant λ the solve subtracted from the right-hand side
+   * to make the singular system compatible, so that A·u = f − λ holds (λ ≈ 0 for compatible data).
+   * The residual history of such a solve is that of the shifted system.
+   */
+  compatibilityShift?: number;
 }
 
 /** The `describe()` record stored beside every number. */

@@ -5,7 +5,7 @@ Node (i, j) sits at (x0 + i*hx, y0 + j*hy) and is unknown number j*(nx + 1) + i 
 
 - Interior stencil: second-order central differences (or first-order upwinding of b*u_x and
   d*u_y when upwind=True).
-- Dirichlet nodes: identity rows (u = g).
+- Dirichlet nodes: identity rows (u = g). A Robin side with beta = 0 is Dirichlet-like: u = g/alpha.
 - Neumann (du/dn = g, n outward) and Robin (alpha*u + beta*du/dn = g) sides: a ghost node outside
   the side takes its value from the central difference of the boundary condition, and the interior
   stencil is applied at the boundary node; the ghost is then eliminated ("folded") into the row.
@@ -34,6 +34,18 @@ def upwind_forward(coef_first, coef_second):
     return coef_first * coef_second > 0
 
 
+def dirichlet_like(bcside):
+    """True for a Dirichlet side or a Robin side with beta = 0."""
+    return bcside["kind"] == "dirichlet" or (
+        bcside["kind"] == "robin" and float(bcside["beta"]) == 0.0
+    )
+
+
+def _dirichlet_data(bcside):
+    g = np.asarray(bcside["values"], dtype=float)
+    return g / float(bcside["alpha"]) if bcside["kind"] == "robin" else g
+
+
 def dirichlet_values(problem):
     """Returns (mask, values) of the Dirichlet nodes as (ny+1, nx+1) arrays."""
     nx, ny = problem["nx"], problem["ny"]
@@ -41,14 +53,15 @@ def dirichlet_values(problem):
     mask = np.zeros((ny + 1, nx + 1), dtype=bool)
     vals = np.zeros((ny + 1, nx + 1))
     # South/north first, so that west/east overwrite the corners they share (west/east win).
-    for side, row in (("south", 0), ("north", ny)):
-        if bc[side]["kind"] == "dirichlet":
+    for side, row in (("north", ny), ("south", 0)):
+        if dirichlet_like(bc[side]):
             mask[row, :] = True
-            vals[row, :] = bc[side]["values"]
-    for side, col in (("west", 0), ("east", nx)):
-        if bc[side]["kind"] == "dirichlet":
+            vals[row, :] = _dirichlet_data(bc[side])
+    # east before west: at a corner the reference solver takes west, then east, then south, north
+    for side, col in (("east", nx), ("west", 0)):
+        if dirichlet_like(bc[side]):
             mask[:, col] = True
-            vals[:, col] = bc[side]["values"]
+            vals[:, col] = _dirichlet_data(bc[side])
     return mask, vals
 
 
@@ -93,12 +106,8 @@ def assemble(problem, upwind=False, defect=None):
     nx, ny = problem["nx"], problem["ny"]
     hx, hy = (x1 - x0) / nx, (y1 - y0) / ny
     bc = problem["boundary"]
-    for side in SIDES:
-        if bc[side]["kind"] == "robin" and float(bc[side]["beta"]) == 0.0:
-            raise ValueError(
-                f"Robin side {side} has beta = 0, which makes it a Dirichlet side: "
-                "declare it as dirichlet with values g/alpha"
-            )
+    if nx < 2 or ny < 2:
+        raise ValueError(f"grid: the vertex layout needs nx, ny >= 2, got {nx}, {ny}")
     cc, cw, ce, cs, cn = (w.copy() for w in stencil(problem, upwind))
     rhs = problem["f"].astype(float).copy()
 
@@ -111,7 +120,7 @@ def assemble(problem, upwind=False, defect=None):
         ("north", (ny, slice(None)), cn, cs, hy),
     )
     for side, where, ghost_w, mirror_w, h in folds:
-        if bc[side]["kind"] == "dirichlet":
+        if dirichlet_like(bc[side]):
             continue
         alpha, beta = _robin(bc[side])
         g = np.asarray(bc[side]["values"], dtype=float)
@@ -156,7 +165,7 @@ def _seed_one_sided_defect(problem, cc, cw, ce, cs, cn, rhs, hx, hy):
         ("south", (0, slice(None)), cn, hy),
         ("north", (ny, slice(None)), cs, hy),
     ):
-        if bc[side]["kind"] == "dirichlet":
+        if dirichlet_like(bc[side]):
             continue
         alpha, beta = _robin(bc[side])
         # du/dn ~ (u_boundary - u_inside)/h, n outward

@@ -5,12 +5,24 @@
  * @module
  */
 import type { Command } from "commander";
+import { registerReportCommand } from "./report_command.ts";
+import { registerCasesCommand } from "./cases_command.ts";
+import { registerSolveCommand } from "./solve_command.ts";
+import { registerCheckCommand } from "./check_command.ts";
+import { registerRefineCommand } from "./refine_command.ts";
+import { registerProbeCommand } from "./probe_command.ts";
 
 /** Raises the process exit code to at least `code`. */
 export type SetExitCode = (code: number) => void;
 
 /** Registers every command on the program. */
 export function registerCommands(program: Command, setExitCode: SetExitCode): void {
+  registerReportCommand(program, setExitCode);
+  registerCasesCommand(program, setExitCode);
+  registerSolveCommand(program, setExitCode);
+  registerCheckCommand(program, setExitCode);
+  registerRefineCommand(program, setExitCode);
+  registerProbeCommand(program, setExitCode);
   void program;
   void setExitCode;
 }

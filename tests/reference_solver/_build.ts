@@ -60,7 +60,7 @@ export const MIXED: SideSpecs = {
   north: { kind: "neumann" },
 };
 
-/** Node coordinates of the grid (x fastest). */
+/** x coordinate of grid column i. */
 export function nodeX(domain: Domain, nx: number, i: number): number {
   return domain.x0 + i * (domain.x1 - domain.x0) / nx;
 }

@@ -3,10 +3,10 @@
  * data against central finite differences of the value at random points (common practice: an
  * independent check of derived source terms, ../shared/CHECK-VALUES.md).
  */
+import assert from "node:assert/strict";
 import { assertClose } from "../../testing/mod.ts";
-import { CUBIC, expSinCos, type Field, QUADRATIC, SMOOTH } from "./_manufactured.ts";
+import { CUBIC, expSinCos, type Field, QUADRATIC, SMOOTH, VARIABLE } from "./_manufactured.ts";
 import { manufacturedProblem, MIXED } from "./_build.ts";
-import { VARIABLE } from "./_manufactured.ts";
 
 /** A small deterministic generator (LCG) so failures are reproducible. */
 function randomPoints(count: number, seed: number): [number, number][] {
@@ -49,6 +49,10 @@ Deno.test("hand-derived derivatives of the manufactured solutions match central 
     "exp·sin·cos with other parameters",
     () => checkField(expSinCos(-1.1, 3, 1, 2, 0.5), 4),
   );
+  await t.step("a deliberately wrong derivative is caught (the check can fail)", () => {
+    const wrong: Field = { ...SMOOTH, uxx: (x, y) => SMOOTH.uxx(x, y) * (1 + 1e-4) };
+    assert.throws(() => checkField(wrong, 5), /u_xx of/);
+  });
 });
 
 Deno.test("boundary data of a manufactured problem use the outward normal on every side", () => {

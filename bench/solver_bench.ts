@@ -1,0 +1,181 @@
+/**
+ * Speed benchmark of the reference multigrid solver (issue 2, "Speed"), run by `npm run bench`.
+ *
+ * For each n (default 256, 512, 1024, 2048; choose with `--n 256,512`) on the problem of
+ * `bench_problem.ts` it measures, in one run and side by side:
+ * - a Float64Array triad pass a[i] = b[i] + s·c[i] over arrays of (n+1)² doubles (best of 5), the
+ *   memory-bandwidth yardstick;
+ * - a full solve from zero to relative residual 1e-10 with the defaults (V(2,1), red–black,
+ *   full weighting), sampling excluded: solve seconds, setup seconds, cycles, stop reason, average
+ *   convergence factor, seconds per cycle ((solve − setup)/cycles, each cycle including the
+ *   residual norm of the stopping test);
+ * - one FMG pass with one V(2,1) per level: seconds (setup excluded) and the ratio of its max-norm
+ *   error to that of the fully converged solution (fmgErrorRatio);
+ * - peak resident memory so far (VmHWM from /proc/self/status, Linux).
+ * Timed runs are repeated (best of `--repeat`, default 2) because the machine is shared.
+ * Prints a table, or with `--json` one JSON object per line.
+ *
+ * @module
+ */
+import { solve, type SolveResult } from "../reference-solver/mod.ts";
+import { benchProblem } from "./bench_problem.ts";
+
+interface Row {
+  n: number;
+  unknowns: number;
+  triadSeconds: number;
+  solveSeconds: number;
+  setupSeconds: number;
+  cycles: number;
+  stopReason: string;
+  convergenceFactor: number;
+  secondsPerCycle: number;
+  fmgSeconds: number;
+  fmgErrorRatio: number;
+  discretizationError: number;
+  cyclePerTriad: number;
+  fmgPerTriad: number;
+  solvePerTriad: number;
+  peakRssMiB: number;
+}
+
+function triadSeconds(size: number): number {
+  const a = new Float64Array(size), b = new Float64Array(size).fill(1.5);
+  const c = new Float64Array(size).fill(0.25);
+  let best = Infinity;
+  for (let rep = 0; rep < 5; rep++) {
+    const s = 1 + rep * 1e-3;
+    const t0 = performance.now();
+    for (let i = 0; i < size; i++) a[i] = b[i] + s * c[i];
+    best = Math.min(best, (performance.now() - t0) / 1000);
+  }
+  if (!(a[size - 1] > 0)) throw new Error("triad result lost");
+  return best;
+}
+
+function peakRssMiB(): number {
+  try {
+    const status = Deno.readTextFileSync("/proc/self/status");
+    const m = /VmHWM:\s+(\d+)\s+kB/.exec(status);
+    if (m) return Number(m[1]) / 1024;
+  } catch {
+    // not Linux: fall back to the current resident size
+  }
+  return Deno.memoryUsage().rss / 2 ** 20;
+}
+
+function maxError(u: Float64Array, exact: Float64Array): number {
+  let e = 0;
+  for (let k = 0; k < u.length; k++) e = Math.max(e, Math.abs(u[k] - exact[k]));
+  return e;
+}
+
+function best(runs: number, f: () => SolveResult): SolveResult {
+  let out: SolveResult | undefined;
+  for (let r = 0; r < runs; r++) {
+    const res = f();
+    if (out === undefined || res.seconds - res.setupSeconds < out.seconds - out.setupSeconds) {
+      out = res;
+    }
+  }
+  return out!;
+}
+
+function measure(n: number, repeat: number): Row {
+  const { problem, exact } = benchProblem(n);
+  const unknowns = (n + 1) * (n + 1);
+  const triad = triadSeconds(unknowns);
+  const full = best(repeat, () => solve(problem));
+  const err = maxError(full.solution, exact);
+  const fmg = best(
+    repeat,
+    () => solve(problem, { cycle: { type: "fmg" }, stop: { maxCycles: 1 } }),
+  );
+  const fmgSeconds = fmg.seconds - fmg.setupSeconds;
+  const secondsPerCycle = (full.seconds - full.setupSeconds) / full.cycles;
+  return {
+    n,
+    unknowns,
+    triadSeconds: triad,
+    solveSeconds: full.seconds,
+    setupSeconds: full.setupSeconds,
+    cycles: full.cycles,
+    stopReason: full.reason,
+    convergenceFactor: full.averageFactor,
+    secondsPerCycle,
+    fmgSeconds,
+    fmgErrorRatio: maxError(fmg.solution, exact) / err,
+    discretizationError: err,
+    cyclePerTriad: secondsPerCycle / triad,
+    fmgPerTriad: fmgSeconds / triad,
+    solvePerTriad: full.seconds / triad,
+    peakRssMiB: peakRssMiB(),
+  };
+}
+
+function parseArgs(args: string[]): { json: boolean; ns: number[]; repeat: number } {
+  let json = false, ns = [256, 512, 1024, 2048], repeat = 2;
+  for (let k = 0; k < args.length; k++) {
+    const a = args[k];
+    if (a === "--json") json = true;
+    else if (a === "--n") ns = (args[++k] ?? "").split(",").map(Number);
+    else if (a === "--repeat") repeat = Number(args[++k]);
+    else {
+      console.error(`solver_bench: unknown argument ${a}; use --json, --n 256,512, --repeat 2`);
+      Deno.exit(2);
+    }
+  }
+  if (!ns.every((n) => Number.isInteger(n) && n >= 2) || !(repeat >= 1)) {
+    console.error(
+      "solver_bench: --n takes integers ≥ 2 separated by commas; --repeat an integer ≥ 1",
+    );
+    Deno.exit(2);
+  }
+  return { json, ns, repeat };
+}
+
+function main(): void {
+  const { json, ns, repeat } = parseArgs(Deno.args);
+  const head = [
+    "n",
+    "unknowns",
+    "triad s",
+    "s/cycle",
+    "cycle/triad",
+    "factor",
+    "cycles",
+    "stop",
+    "solve s",
+    "setup s",
+    "fmg s",
+    "fmg/triad",
+    "fmg err ratio",
+    "peak MiB",
+  ];
+  if (!json) console.log(head.join(" | "));
+  for (const n of ns) {
+    const r = measure(n, repeat);
+    if (json) {
+      console.log(JSON.stringify(r));
+      continue;
+    }
+    console.log([
+      r.n,
+      r.unknowns,
+      r.triadSeconds.toExponential(2),
+      r.secondsPerCycle.toExponential(3),
+      r.cyclePerTriad.toFixed(1),
+      r.convergenceFactor.toFixed(3),
+      r.cycles,
+      r.stopReason,
+      r.solveSeconds.toFixed(3),
+      r.setupSeconds.toFixed(3),
+      r.fmgSeconds.toFixed(3),
+      r.fmgPerTriad.toFixed(1),
+      r.fmgErrorRatio.toFixed(3),
+      r.peakRssMiB.toFixed(0),
+    ].join(" | "));
+  }
+}
+
+if (import.meta.main) main();

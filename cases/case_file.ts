@@ -1,0 +1,61 @@
+/**
+ * The case file as written on disk (after schema validation), and one problem found in it.
+ *
+ * @module
+ */
+import type { BoundaryKind, Side } from "../reference-solver/mod.ts";
+import type { ExpectedOrder } from "./types.ts";
+
+/** A coefficient or solution: mathjs expression text or a plain number. */
+export type ExpressionText = string | number;
+
+/** One side's condition as written in a case file. */
+export interface SideSpec {
+  kind: BoundaryKind;
+  alpha?: number;
+  beta?: number;
+}
+
+/** A case file's content, field for field (see `cases/case.schema.json` for the meaning of each). */
+export interface CaseFile {
+  $schema?: string;
+  id: string;
+  title: string;
+  motivation: string;
+  manufactured: string;
+  domain: { x0: number; x1: number; y0: number; y1: number };
+  aspect?: number;
+  coefficients: { a: ExpressionText; b: ExpressionText; c: ExpressionText; d: ExpressionText; e: ExpressionText };
+  exact: ExpressionText;
+  boundary: Record<Side, SideSpec>;
+  parameters?: Record<string, number>;
+  expected: { central: ExpectedOrder; upwind?: ExpectedOrder };
+  tags: string[];
+  grids: number[];
+  solver?: { smoother?: string; cycle?: string; maxCycles?: number };
+}
+
+/** One problem in a case file: which file, which field, where, what. */
+export interface CaseProblem {
+  file: string;
+  /** Dotted field path, e.g. `coefficients.a`; empty for the whole document. */
+  field: string;
+  line?: number;
+  column?: number;
+  message: string;
+}
+
+/**
+ * Formats a problem as `file:line:column: field: message`.
+ *
+ * @example
+ * ```ts
+ * import { formatProblem } from "./case_file.ts";
+ * formatProblem({ file: "my.json", field: "exact", line: 3, column: 12, message: "expression is empty" });
+ * // "my.json:3:12: exact: expression is empty"
+ * ```
+ */
+export function formatProblem(p: CaseProblem): string {
+  const place = p.line === undefined ? p.file : `${p.file}:${p.line}:${p.column ?? 1}`;
+  return `${place}: ${p.field ? p.field + ": " : ""}${p.message}`;
+}

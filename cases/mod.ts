@@ -1,0 +1,54 @@
+/**
+ * Manufactured-solution cases: the case file format (`case.schema.json`), the symbolic engine
+ * (mathjs parses and differentiates; our own whitelisted compiler turns the trees into plain
+ * JavaScript), the built-in library (`library/*.json`) and sampling onto grids.
+ *
+ * @example
+ * ```ts
+ * import { loadCase } from "./mod.ts";
+ * const c = await loadCase("smooth-baseline");
+ * const { nx, ny } = c.gridFor(32);
+ * const problem = c.sample(nx, ny); // a Problem for the reference solver
+ * const exact = c.sampleExact(nx, ny);
+ * ```
+ *
+ * @module
+ */
+export type {
+  CaseBoundary,
+  CaseFormulas,
+  CompiledCase,
+  ExpectedOrder,
+  NormName,
+  PointFn,
+  SchemeName,
+} from "./types.ts";
+export type { CaseFile, CaseProblem, ExpressionText, SideSpec } from "./case_file.ts";
+export { formatProblem } from "./case_file.ts";
+export {
+  checkCaseFiles,
+  type FileCheck,
+  libraryFiles,
+  libraryIds,
+  loadCase,
+  loadCaseFiles,
+  loadLibrary,
+  type LoadOptions,
+} from "./load.ts";
+export { type CaseValidation, validateCaseText } from "./validate.ts";
+export { compileExpression, type CompileExpressionOptions } from "./compile_expression.ts";
+export {
+  compileExpr,
+  compileFused,
+  compileRowSampler,
+  type FusedPointFunction,
+  type PointFunction,
+  type RowSampler,
+} from "./compile.ts";
+export {
+  ALLOWED_FUNCTIONS,
+  CONSTANTS,
+  type Expr,
+  MAX_EXPRESSION_DEPTH,
+  MAX_EXPRESSION_LENGTH,
+} from "./expression.ts";

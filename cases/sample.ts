@@ -1,0 +1,259 @@
+/**
+ * Sampling a compiled case onto a vertex-centred grid: coefficient and source arrays from the
+ * fused row sampler, boundary values from the per-side point functions, then the checks every
+ * problem must pass before a solve (finite values everywhere, ellipticity a·c > 0 at every node).
+ *
+ * Small grids are sampled on the calling thread; large ones can split their rows across Deno
+ * workers writing into SharedArrayBuffer-backed arrays (the workers receive the generated source
+ * text of the sampler, which was produced from the checked expression tree only).
+ *
+ * @module
+ */
+import type { BoundaryCondition, Domain, Problem, Side } from "../reference-solver/mod.ts";
+import type { RowSampler } from "./compile.ts";
+import type { CaseBoundary, PointFn } from "./types.ts";
+
+/** What sampling needs from a compiled case. */
+export interface SamplerSpec {
+  id: string;
+  origin: string;
+  domain: Domain;
+  /** Row sampler writing a, b, c, d, e, f (in that order), and its source text. */
+  problemSampler: { source: string; run: RowSampler };
+  boundary: Record<Side, CaseBoundary>;
+}
+
+/** Largest grid accepted: 2^27 nodes (1 GiB per array set of 8 arrays). */
+export const MAX_NODES = 2 ** 27;
+
+/** The fields of a problem in sampler output order. */
+export const FIELDS = ["a", "b", "c", "d", "e", "f"] as const;
+
+/** Checks nx and ny; throws RangeError naming the bad value. */
+export function checkGridSize(nx: number, ny: number): void {
+  for (const [name, v] of [["nx", nx], ["ny", ny]] as const) {
+    if (!Number.isInteger(v) || v < 2) {
+      throw new RangeError(`${name} must be an integer of at least 2, found ${v}`);
+    }
+  }
+  if ((nx + 1) * (ny + 1) > MAX_NODES) {
+    throw new RangeError(
+      `grid ${nx}×${ny} has more than ${MAX_NODES} nodes; choose a smaller grid`,
+    );
+  }
+}
+
+function spacing(domain: Domain, nx: number, ny: number) {
+  return { hx: (domain.x1 - domain.x0) / nx, hy: (domain.y1 - domain.y0) / ny };
+}
+
+/** Samples one side's boundary data (ordered by increasing coordinate, corners included). */
+export function sampleSide(
+  data: PointFn,
+  side: Side,
+  domain: Domain,
+  nx: number,
+  ny: number,
+): Float64Array {
+  const { hx, hy } = spacing(domain, nx, ny);
+  const alongY = side === "west" || side === "east";
+  const count = alongY ? ny + 1 : nx + 1;
+  const out = new Float64Array(count);
+  for (let k = 0; k < count; k++) {
+    const x = alongY ? (side === "west" ? domain.x0 : domain.x1) : domain.x0 + k * hx;
+    const y = alongY ? domain.y0 + k * hy : (side === "south" ? domain.y0 : domain.y1);
+    out[k] = data(x, y);
+  }
+  return out;
+}
+
+function boundaryConditions(
+  spec: SamplerSpec,
+  nx: number,
+  ny: number,
+): Record<Side, BoundaryCondition> {
+  const out = {} as Record<Side, BoundaryCondition>;
+  for (const side of ["west", "east", "south", "north"] as const) {
+    const b = spec.boundary[side];
+    const values = sampleSide(b.data, side, spec.domain, nx, ny);
+    out[side] = b.kind === "robin"
+      ? { kind: "robin", alpha: b.alpha ?? 0, beta: b.beta ?? 0, values }
+      : { kind: b.kind, values };
+  }
+  return out;
+}
+
+function label(spec: SamplerSpec): string {
+  return spec.origin === "library" ? `case "${spec.id}"` : `case "${spec.id}" (${spec.origin})`;
+}
+
+/**
+ * Checks a sampled problem: every value finite, a·c > 0 at every node.
+ *
+ * @throws {RangeError} naming the case, the node (i, j), its coordinates, the field and values
+ */
+export function checkSampled(spec: SamplerSpec, problem: Problem): void {
+  const { nx, ny, domain } = problem;
+  const { hx, hy } = spacing(domain, nx, ny);
+  const row = nx + 1;
+  const where = (k: number) => {
+    const i = k % row;
+    const j = (k - i) / row;
+    return `node (i=${i}, j=${j}) at (x, y) = (${domain.x0 + i * hx}, ${domain.y0 + j * hy})`;
+  };
+  const names: Record<string, string> = {
+    a: "coefficients.a",
+    b: "coefficients.b",
+    c: "coefficients.c",
+    d: "coefficients.d",
+    e: "coefficients.e",
+    f: "the derived source term f",
+  };
+  for (const field of FIELDS) {
+    const v = problem[field];
+    for (let k = 0; k < v.length; k++) {
+      if (!Number.isFinite(v[k])) {
+        throw new RangeError(
+          `${label(spec)}: ${names[field]} is ${v[k]} at ${where(k)} on the ${nx}×${ny} grid; ` +
+            "change the expression so it is finite on the closed domain",
+        );
+      }
+    }
+  }
+  const { a, c } = problem;
+  for (let k = 0; k < a.length; k++) {
+    if (!(a[k] * c[k] > 0)) {
+      throw new RangeError(
+        `${label(spec)}: the operator is not elliptic at ${where(k)}: a = ${a[k]}, c = ${c[k]}, ` +
+          `a·c = ${a[k] * c[k]} (must be > 0); fix coefficients.a or coefficients.c`,
+      );
+    }
+  }
+  for (const side of ["west", "east", "south", "north"] as const) {
+    const values = problem.boundary[side].values;
+    for (let k = 0; k < values.length; k++) {
+      if (!Number.isFinite(values[k])) {
+        const along = side === "west" || side === "east" ? "y" : "x";
+        const h = along === "y" ? hy : hx;
+        const start = along === "y" ? domain.y0 : domain.x0;
+        throw new RangeError(
+          `${label(spec)}: boundary data on the ${side} side is ${values[k]} at node ${k} ` +
+            `(${along} = ${start + k * h}) on the ${nx}×${ny} grid; the exact solution or its ` +
+            "derivative is not finite there",
+        );
+      }
+    }
+  }
+}
+
+/**
+ * Samples a case onto an nx × ny grid on the calling thread and checks it.
+ *
+ * @throws {RangeError} for a bad grid size, non-finite values or a non-elliptic operator
+ */
+export function sampleProblem(spec: SamplerSpec, nx: number, ny: number): Problem {
+  checkGridSize(nx, ny);
+  const size = (nx + 1) * (ny + 1);
+  const arrays = FIELDS.map(() => new Float64Array(size));
+  const { hx, hy } = spacing(spec.domain, nx, ny);
+  spec.problemSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, ny + 1, arrays);
+  return finish(spec, nx, ny, arrays);
+}
+
+function finish(spec: SamplerSpec, nx: number, ny: number, arrays: Float64Array[]): Problem {
+  const [a, b, c, d, e, f] = arrays;
+  const problem: Problem = {
+    domain: { ...spec.domain },
+    nx,
+    ny,
+    a,
+    b,
+    c,
+    d,
+    e,
+    f,
+    boundary: boundaryConditions(spec, nx, ny),
+  };
+  checkSampled(spec, problem);
+  return problem;
+}
+
+/** Options of {@link sampleProblemParallel}. */
+export interface ParallelOptions {
+  /** Number of workers the rows are split across. Default: 2. */
+  workers?: number;
+  /** Grids with fewer nodes than this are sampled on the calling thread. Default: 2^17. */
+  minNodes?: number;
+}
+
+/**
+ * Samples a case with its rows split across Deno workers (SharedArrayBuffer-backed arrays); small
+ * grids fall back to {@link sampleProblem}.
+ */
+export async function sampleProblemParallel(
+  spec: SamplerSpec,
+  nx: number,
+  ny: number,
+  options: ParallelOptions = {},
+): Promise<Problem> {
+  checkGridSize(nx, ny);
+  const workers = options.workers ?? 2;
+  const minNodes = options.minNodes ?? 2 ** 17;
+  if (!Number.isInteger(workers) || workers < 1 || workers > 64) {
+    throw new RangeError(`workers must be an integer from 1 to 64, found ${workers}`);
+  }
+  const size = (nx + 1) * (ny + 1);
+  if (size < minNodes) return sampleProblem(spec, nx, ny);
+  const buffers = FIELDS.map(() => new SharedArrayBuffer(size * 8));
+  const { hx, hy } = spacing(spec.domain, nx, ny);
+  const rows = ny + 1;
+  const jobs: Promise<void>[] = [];
+  for (let w = 0; w < workers; w++) {
+    const j0 = Math.floor((w * rows) / workers);
+    const j1 = Math.floor(((w + 1) * rows) / workers);
+    if (j1 <= j0) continue;
+    jobs.push(runWorker({
+      source: spec.problemSampler.source,
+      x0: spec.domain.x0,
+      hx,
+      nx,
+      y0: spec.domain.y0,
+      hy,
+      j0,
+      j1,
+      buffers,
+    }));
+  }
+  await Promise.all(jobs);
+  return finish(spec, nx, ny, buffers.map((b) => new Float64Array(b)));
+}
+
+/** The message a sampling worker receives. */
+export interface WorkerJob {
+  source: string;
+  x0: number;
+  hx: number;
+  nx: number;
+  y0: number;
+  hy: number;
+  j0: number;
+  j1: number;
+  buffers: SharedArrayBuffer[];
+}
+
+function runWorker(job: WorkerJob): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const worker = new Worker(new URL("./_sample_worker.ts", import.meta.url), { type: "module" });
+    worker.onmessage = (event: MessageEvent<{ ok: boolean; error?: string }>) => {
+      worker.terminate();
+      if (event.data.ok) resolve();
+      else reject(new Error(`sampling worker failed: ${event.data.error}`));
+    };
+    worker.onerror = (event) => {
+      event.preventDefault();
+      worker.terminate();
+      reject(new Error(`sampling worker failed: ${event.message}`));
+    };
+    worker.postMessage(job);
+  });
+}

@@ -1,0 +1,240 @@
+/**
+ * Validation of case file text at the door: strict JSON with positions, the JSON Schema
+ * (`case.schema.json`, draft 2020-12, checked by Ajv with every error collected), then the rules a
+ * schema cannot say (x0 < x1, increasing grids, reserved parameter names). Expressions are checked
+ * later, by the engine, with mathjs.
+ *
+ * @module
+ */
+import { Ajv2020, type ErrorObject, type ValidateFunction } from "ajv/dist/2020";
+import schema from "./case.schema.json" with { type: "json" };
+import { JsonSyntaxError, type LocatedJson, readJsonWithPositions } from "./_json.ts";
+import { closestName } from "./_suggest.ts";
+import { ALLOWED_FUNCTIONS } from "./expression.ts";
+import type { CaseFile, CaseProblem } from "./case_file.ts";
+
+let validator: ValidateFunction | undefined;
+
+function schemaValidator(): ValidateFunction {
+  validator ??= new Ajv2020({
+    allErrors: true,
+    verbose: true,
+    strict: true,
+    allowUnionTypes: true,
+    // `then: { required: [alpha, beta] }` names properties declared beside `if`, not inside `then`
+    strictRequired: false,
+  }).compile(schema);
+  return validator;
+}
+
+/** JSON pointer → dotted field path (`/coefficients/a` → `coefficients.a`, `/grids/2` → `grids[2]`). */
+export function fieldPath(pointer: string): string {
+  let out = "";
+  for (const raw of pointer.split("/").slice(1)) {
+    const token = raw.replaceAll("~1", "/").replaceAll("~0", "~");
+    out += /^\d+$/.test(token) ? `[${token}]` : out ? `.${token}` : token;
+  }
+  return out;
+}
+
+/** The result of validating case file text: the case when valid, and every problem found. */
+export interface CaseValidation {
+  value?: CaseFile;
+  problems: CaseProblem[];
+  /** Positions of values and keys in the text, for later messages (absent for malformed JSON). */
+  located?: LocatedJson;
+}
+
+function describeValue(v: unknown): string {
+  if (typeof v === "string") return `"${v.length > 40 ? v.slice(0, 40) + "…" : v}"`;
+  if (Array.isArray(v)) return "an array";
+  if (v === null) return "null";
+  if (typeof v === "object") return "an object";
+  return String(v);
+}
+
+function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): CaseProblem[] {
+  const problems: CaseProblem[] = [];
+  const suggestedFor = new Set<string>();
+  const at = (pointer: string, key = false) => {
+    const pos = (key ? doc.keyPositions.get(pointer) : undefined) ?? doc.positions.get(pointer);
+    return pos ? { line: pos.line, column: pos.column } : {};
+  };
+  // first pass: unknown fields, remembering which missing field each one probably meant
+  for (const e of errors) {
+    if (e.keyword !== "additionalProperties") continue;
+    const name = String((e.params as { additionalProperty: string }).additionalProperty);
+    const valid = Object.keys(
+      (e.parentSchema as { properties?: Record<string, unknown> }).properties ?? {},
+    );
+    const near = closestName(name, valid);
+    if (near) suggestedFor.add(`${e.instancePath}/${near}`);
+    const pointer = `${e.instancePath}/${name}`;
+    problems.push({
+      file,
+      field: fieldPath(pointer),
+      ...at(pointer, true),
+      message: `unknown field "${name}"${near ? `; did you mean "${near}"?` : ""} (valid fields here: ${
+        valid.join(", ")
+      })`,
+    });
+  }
+  for (const e of errors) {
+    const pointer = e.instancePath;
+    const field = fieldPath(pointer);
+    switch (e.keyword) {
+      case "additionalProperties":
+      case "if":
+        continue;
+      case "required": {
+        const missing = String((e.params as { missingProperty: string }).missingProperty);
+        const child = `${pointer}/${missing}`;
+        if (suggestedFor.has(child)) continue; // reported as a misspelling above
+        const description =
+          ((e.parentSchema as { properties?: Record<string, { description?: string }> }).properties
+            ?.[missing]?.description) ?? "";
+        problems.push({
+          file,
+          field: fieldPath(child),
+          ...at(pointer),
+          message: `missing field "${missing}"${description ? ` (${description})` : ""}`,
+        });
+        continue;
+      }
+      case "not":
+        problems.push({
+          file,
+          field,
+          ...at(pointer),
+          message: "alpha and beta belong to robin sides only; remove them or set kind to robin",
+        });
+        continue;
+      case "enum": {
+        const allowed = (e.params as { allowedValues: unknown[] }).allowedValues.map(String);
+        const near = typeof e.data === "string" ? closestName(e.data, allowed) : undefined;
+        problems.push({
+          file,
+          field,
+          ...at(pointer),
+          message: `${describeValue(e.data)} is not allowed${
+            near ? `; did you mean "${near}"?` : ""
+          } (allowed: ${allowed.join(", ")})`,
+        });
+        continue;
+      }
+      case "type":
+        problems.push({
+          file,
+          field,
+          ...at(pointer),
+          message: `must be ${String((e.params as { type: unknown }).type).replace(",", " or ")}, found ${
+            describeValue(e.data)
+          }`,
+        });
+        continue;
+      default: {
+        const description = (e.parentSchema as { description?: string } | undefined)?.description;
+        problems.push({
+          file,
+          field,
+          ...at(pointer),
+          message: `${e.message ?? "is not valid"}, found ${describeValue(e.data)}${
+            description ? ` (${description})` : ""
+          }`,
+        });
+      }
+    }
+  }
+  return problems;
+}
+
+const RESERVED = new Set(["x", "y", "pi", "e", ...Object.keys(ALLOWED_FUNCTIONS)]);
+
+function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[] {
+  const problems: CaseProblem[] = [];
+  const push = (pointer: string, message: string) => {
+    const pos = doc.positions.get(pointer);
+    problems.push({
+      file,
+      field: fieldPath(pointer),
+      ...(pos ? { line: pos.line, column: pos.column } : {}),
+      message,
+    });
+  };
+  if (!(c.domain.x0 < c.domain.x1)) {
+    push("/domain", `x0 must be less than x1, found x0 = ${c.domain.x0}, x1 = ${c.domain.x1}`);
+  }
+  if (!(c.domain.y0 < c.domain.y1)) {
+    push("/domain", `y0 must be less than y1, found y0 = ${c.domain.y0}, y1 = ${c.domain.y1}`);
+  }
+  for (let k = 1; k < c.grids.length; k++) {
+    if (!(c.grids[k] > c.grids[k - 1])) {
+      push(`/grids/${k}`, `grids must increase, found ${c.grids[k]} after ${c.grids[k - 1]}`);
+    }
+  }
+  const aspect = c.aspect ?? 1;
+  for (let k = 0; k < c.grids.length; k++) {
+    if (Math.round(c.grids[k] * aspect) < 2) {
+      push(
+        `/grids/${k}`,
+        `grid ${c.grids[k]} gives ny = round(${c.grids[k]} · ${aspect}) < 2; use larger grids`,
+      );
+    }
+  }
+  for (const name of Object.keys(c.parameters ?? {})) {
+    if (RESERVED.has(name)) {
+      push(
+        `/parameters/${name}`,
+        `parameter name "${name}" is reserved (x, y, pi, e and function names); rename it`,
+      );
+    }
+  }
+  for (const side of ["west", "east", "south", "north"] as const) {
+    const s = c.boundary[side];
+    if (s.kind === "robin" && s.alpha === 0 && s.beta === 0) {
+      push(`/boundary/${side}`, "robin needs alpha and beta not both 0");
+    }
+  }
+  return problems;
+}
+
+/**
+ * Validates the text of a case file and returns every problem at once (never throws for bad
+ * input): malformed JSON with line and column, schema errors with the field path and position,
+ * misspelled fields with the closest valid name, and cross-field rules.
+ *
+ * @param text the file's content
+ * @param file the file's name as it should appear in messages
+ * @example
+ * ```ts
+ * import { validateCaseText } from "./validate.ts";
+ * const { problems } = validateCaseText('{"id": "x"', "my.json");
+ * problems[0].line; // 1
+ * ```
+ */
+export function validateCaseText(text: string, file: string): CaseValidation {
+  let doc: LocatedJson;
+  try {
+    doc = readJsonWithPositions(text);
+  } catch (error) {
+    if (error instanceof JsonSyntaxError) {
+      return {
+        problems: [{
+          file,
+          field: "",
+          line: error.position.line,
+          column: error.position.column,
+          message: `malformed JSON: ${error.message}`,
+        }],
+      };
+    }
+    throw error;
+  }
+  const validate = schemaValidator();
+  if (!validate(doc.value)) {
+    return { problems: schemaProblems(file, doc, validate.errors ?? []), located: doc };
+  }
+  const value = doc.value as CaseFile;
+  const problems = ruleProblems(file, doc, value);
+  return problems.length ? { problems, located: doc } : { value, problems, located: doc };
+}

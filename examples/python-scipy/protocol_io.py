@@ -1,0 +1,151 @@
+"""Reading and writing gridproof protocol messages (docs/protocol.md), shared by the solvers here.
+
+Nothing in this file knows about discretizations: it turns a request into a plain `problem` dict
+of NumPy arrays and a solution back into a reply, and runs the `once` or `session` loop.
+"""
+
+import base64
+import json
+import sys
+
+import numpy as np
+
+PROTOCOL = "gridproof-protocol/1"
+SIDES = ("west", "east", "south", "north")
+
+
+class RequestError(ValueError):
+    """A request this solver cannot read; the message says which field and what is wrong."""
+
+
+def log(*parts):
+    """Logs to stderr (stdout carries protocol messages only)."""
+    print(*parts, file=sys.stderr, flush=True)
+
+
+def decode_array(value, field, length):
+    """Decodes a numbers array or a {"base64": ...} object into a float64 NumPy array."""
+    if isinstance(value, dict) and isinstance(value.get("base64"), str):
+        raw = base64.b64decode(value["base64"], validate=True)
+        if len(raw) % 8 != 0:
+            raise RequestError(f"{field}: base64 data has {len(raw)} bytes, not a multiple of 8")
+        arr = np.frombuffer(raw, dtype="<f8").astype(float)
+    elif isinstance(value, list):
+        try:
+            arr = np.asarray(value, dtype=float)
+        except (TypeError, ValueError) as err:
+            raise RequestError(f"{field}: not an array of numbers ({err})") from None
+    else:
+        raise RequestError(f"{field}: must be an array of numbers or an object with base64")
+    if arr.ndim != 1 or arr.size != length:
+        raise RequestError(f"{field}: has {arr.size} values, expected {length}")
+    if not np.all(np.isfinite(arr)):
+        raise RequestError(f"{field}: contains a value that is not finite")
+    return arr
+
+
+def encode_array(arr, encoding):
+    """Encodes a float64 array as the request's encoding ("numbers" or "base64")."""
+    arr = np.ascontiguousarray(arr, dtype="<f8")
+    if encoding == "base64":
+        return {"base64": base64.b64encode(arr.tobytes()).decode("ascii")}
+    return arr.tolist()
+
+
+def read_problem(req):
+    """Turns a solve request into a problem dict: 2-D arrays indexed [j, i] plus boundary data."""
+    grid = req.get("grid") or {}
+    layout = grid.get("layout")
+    try:
+        nx, ny = int(grid["nx"]), int(grid["ny"])
+        dom = req["domain"]
+        domain = (float(dom["x0"]), float(dom["x1"]), float(dom["y0"]), float(dom["y1"]))
+    except (KeyError, TypeError, ValueError) as err:
+        raise RequestError(f"grid/domain: missing or not a number ({err})") from None
+    if layout == "cell":
+        shape, along_x, along_y = (ny, nx), nx, ny
+    else:
+        shape, along_x, along_y = (ny + 1, nx + 1), nx + 1, ny + 1
+    points = shape[0] * shape[1]
+    coef = req.get("coefficients") or {}
+    problem = {"domain": domain, "nx": nx, "ny": ny, "layout": layout}
+    for k in ("a", "b", "c", "d", "e"):
+        problem[k] = decode_array(coef.get(k), f"coefficients.{k}", points).reshape(shape)
+    problem["f"] = decode_array(req.get("source"), "source", points).reshape(shape)
+    bnd = req.get("boundary") or {}
+    problem["boundary"] = {}
+    for side in SIDES:
+        s = bnd.get(side)
+        if not isinstance(s, dict) or s.get("kind") not in ("dirichlet", "neumann", "robin"):
+            raise RequestError(f"boundary.{side}.kind: must be dirichlet, neumann or robin")
+        n = along_y if side in ("west", "east") else along_x
+        entry = {
+            "kind": s["kind"],
+            "values": decode_array(s.get("values"), f"boundary.{side}.values", n),
+        }
+        if s["kind"] == "robin":
+            entry["alpha"], entry["beta"] = float(s["alpha"]), float(s["beta"])
+        problem["boundary"][side] = entry
+    return problem
+
+
+def message(kind, **fields):
+    """A protocol message with the version and type filled in."""
+    return {"protocol": PROTOCOL, "type": kind, **fields}
+
+
+def answer(req, solve, ready):
+    """Answers one message: `solve(req)` returns a reply dict; `ready` is the ready message."""
+    if not isinstance(req, dict):
+        return message("error", reason="the message is not a JSON object")
+    if req.get("protocol") != PROTOCOL:
+        return message(
+            "error",
+            reason=f"this solver speaks '{PROTOCOL}' only; the request says '{req.get('protocol')}'",
+            **({"id": req["id"]} if isinstance(req.get("id"), str) else {}),
+        )
+    kind = req.get("type")
+    if kind == "hello":
+        return ready
+    if kind != "solve":
+        return message("error", reason=f"unknown message type '{kind}'; expected hello or solve")
+    try:
+        return solve(req)
+    except RequestError as err:
+        return message("error", id=str(req.get("id", "")), reason=str(err))
+
+
+def run(solve, ready):
+    """Runs the once or session mode, chosen by the first line: a hello line starts a session."""
+    first = sys.stdin.readline()
+    try:
+        head = json.loads(first) if first.strip() else None
+    except json.JSONDecodeError:
+        head = None
+    if not (isinstance(head, dict) and head.get("type") == "hello"):
+        # once mode: the request is everything on stdin (it may span several lines)
+        text = first + sys.stdin.read()
+        try:
+            req = json.loads(text)
+        except json.JSONDecodeError as err:
+            reply = message("error", reason=f"the request is not valid JSON: {err}")
+        else:
+            reply = answer(req, solve, ready)
+        sys.stdout.write(json.dumps(reply) + "\n")
+        sys.stdout.flush()
+        return
+    line = first
+    while line:
+        try:
+            req = json.loads(line)
+        except json.JSONDecodeError as err:
+            reply = message("error", reason=f"the line is not valid JSON: {err}")
+        else:
+            if isinstance(req, dict) and req.get("type") == "goodbye":
+                return
+            reply = answer(req, solve, ready)
+        sys.stdout.write(json.dumps(reply) + "\n")
+        sys.stdout.flush()
+        line = sys.stdin.readline()
+        while line and not line.strip():
+            line = sys.stdin.readline()

@@ -1,0 +1,76 @@
+/**
+ * Turns a solver's outcome into the result's {@link SolveRecord}: error norms per region against
+ * the exact solution at the solver's own points, the quantities of interest, residual metrics.
+ *
+ * @module
+ */
+import type { CompiledCase } from "../../cases/types.ts";
+import { pointRegionNorms, residualMetrics } from "../analysis/mod.ts";
+import type { SolveRecord } from "../result/types.ts";
+import type { SolveOutcome } from "../solvers/mod.ts";
+import { discreteQuantities } from "./quantities.ts";
+
+/**
+ * Measures one outcome. The representative spacing is h = sqrt(area / N) (Celik et al. 2008,
+ * published), with N the number of cells of a structured grid or of points of a free point set.
+ */
+export function measureOutcome(
+  kase: CompiledCase,
+  solver: string,
+  outcome: SolveOutcome,
+  tolerance: number,
+): SolveRecord {
+  const { x0, x1, y0, y1 } = kase.domain;
+  const area = (x1 - x0) * (y1 - y0);
+  const cells = outcome.layout === "points"
+    ? Math.max(outcome.values.length, 1)
+    : outcome.nx * outcome.ny;
+  const unknowns = outcome.layout === "vertex"
+    ? (outcome.nx + 1) * (outcome.ny + 1)
+    : outcome.layout === "cell"
+    ? outcome.nx * outcome.ny
+    : outcome.values.length;
+  const metrics = residualMetrics(outcome.residualHistory, { tolerance });
+  const record: SolveRecord = {
+    caseId: kase.id,
+    solver,
+    nx: outcome.nx,
+    ny: outcome.ny,
+    h: Math.sqrt(area / cells),
+    unknowns,
+    status: outcome.status,
+    residualHistory: outcome.residualHistory,
+    iterations: outcome.iterations ?? (outcome.residualHistory.length > 0 ? metrics.iterations : null),
+    converged: outcome.converged,
+    averageFactor: metrics.averageFactor,
+    asymptoticFactor: metrics.asymptoticFactor,
+    seconds: outcome.seconds,
+    solverSeconds: outcome.solverSeconds,
+  };
+  if (outcome.reason !== undefined) record.reason = outcome.reason;
+  if (outcome.stderrTail) record.stderrTail = outcome.stderrTail;
+  if (outcome.description) record.description = outcome.description;
+  const stop = outcome.description?.stopReason;
+  if (typeof stop === "string") record.stopReason = stop;
+  else if (metrics.diverged) record.stopReason = "diverged";
+  else if (metrics.stagnated) record.stopReason = "stagnated";
+  if (outcome.status !== "ok") return record;
+
+  const exact = new Float64Array(outcome.values.length);
+  for (let k = 0; k < exact.length; k++) exact[k] = kase.exact(outcome.x[k], outcome.y[k]);
+  const band = outcome.boundaryBand ?? new Uint8Array(outcome.values.length);
+  record.errors = pointRegionNorms(outcome.values, exact, { band, weights: outcome.weights });
+  record.quantities = discreteQuantities(outcome, kase.domain);
+  return record;
+}
+
+/** Max-norm difference of two solutions on the same points, relative to the reference's max |u|. */
+export function relativeDifference(values: Float64Array, reference: Float64Array): number | null {
+  if (values.length !== reference.length || values.length === 0) return null;
+  let diff = 0, scale = 0;
+  for (let k = 0; k < values.length; k++) {
+    diff = Math.max(diff, Math.abs(values[k] - reference[k]));
+    scale = Math.max(scale, Math.abs(reference[k]));
+  }
+  return scale > 0 ? diff / scale : diff;
+}

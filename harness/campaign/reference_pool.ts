@@ -1,0 +1,129 @@
+/**
+ * The reference solver spread over Deno workers, behind the same {@link Solver} interface, so a
+ * campaign uses every core. Each worker runs one solve at a time; tasks wait in a queue. Results
+ * do not depend on the number of workers: every solve is the same deterministic computation.
+ *
+ * @module
+ */
+import type { SolveOptions } from "../../reference-solver/mod.ts";
+import type { SolveOutcome, Solver, SolveTask } from "../solvers/mod.ts";
+import type { SolverInfo } from "../result/types.ts";
+
+/** A task sent to a worker: the case by reference (the worker compiles it itself). */
+export interface WorkerRequest {
+  id: number;
+  case: { id: string; origin: string; parameters: Record<string, number> };
+  task: Omit<SolveTask, "case">;
+}
+
+/** A worker's answer. */
+export interface WorkerReply {
+  id: number;
+  outcome?: SolveOutcome;
+  error?: string;
+}
+
+/** Options of {@link createPooledReferenceSolver}. */
+export interface PooledReferenceOptions {
+  /** Number of workers. Default: 2. */
+  workers?: number;
+  /** Reference-solver options for every solve. Default: its defaults. */
+  solveOptions?: SolveOptions;
+  /** Name in results. Default: "reference". */
+  name?: string;
+}
+
+/**
+ * Starts a pool of workers running the reference solver.
+ *
+ * @example
+ * ```ts ignore
+ * const solver = createPooledReferenceSolver({ workers: 2 });
+ * const outcome = await solver.solve({ case: kase, nx: 64, ny: 64, scheme: "central", tolerance: 1e-10 });
+ * await solver.close();
+ * ```
+ */
+export function createPooledReferenceSolver(options: PooledReferenceOptions = {}): Solver {
+  const count = Math.max(1, options.workers ?? 2);
+  const info: SolverInfo = {
+    name: options.name ?? "reference",
+    kind: "reference",
+    layout: "vertex",
+    scheme: "central",
+    description: { solveOptions: structuredClone(options.solveOptions ?? {}), workers: count },
+  };
+  const idle: Worker[] = [];
+  const all: Worker[] = [];
+  const waiting: (() => void)[] = [];
+  const pending = new Map<number, (reply: WorkerReply) => void>();
+  let nextId = 0;
+  let closed = false;
+
+  for (let k = 0; k < count; k++) {
+    const worker = new Worker(new URL("./reference_worker.ts", import.meta.url), { type: "module" });
+    worker.onmessage = (event: MessageEvent<WorkerReply>) => {
+      const resolve = pending.get(event.data.id);
+      pending.delete(event.data.id);
+      resolve?.(event.data);
+    };
+    if (options.solveOptions) worker.postMessage({ setup: options.solveOptions });
+    idle.push(worker);
+    all.push(worker);
+  }
+
+  async function acquire(): Promise<Worker> {
+    while (idle.length === 0) await new Promise<void>((resolve) => waiting.push(resolve));
+    return idle.pop()!;
+  }
+
+  function release(worker: Worker): void {
+    idle.push(worker);
+    waiting.shift()?.();
+  }
+
+  return {
+    info,
+    async solve(task: SolveTask): Promise<SolveOutcome> {
+      const started = performance.now();
+      const worker = await acquire();
+      try {
+        const id = nextId++;
+        const reply = await new Promise<WorkerReply>((resolve) => {
+          pending.set(id, resolve);
+          const { case: kase, ...rest } = task;
+          worker.postMessage({
+            id,
+            case: { id: kase.id, origin: kase.origin, parameters: kase.parameters },
+            task: rest,
+          } satisfies WorkerRequest);
+        });
+        if (reply.outcome) return reply.outcome;
+        return {
+          status: "failed",
+          reason: `the reference solver failed: ${reply.error}`,
+          layout: "vertex",
+          nx: task.nx,
+          ny: task.ny,
+          x: new Float64Array(0),
+          y: new Float64Array(0),
+          weights: new Float64Array(0),
+          values: new Float64Array(0),
+          residualHistory: [],
+          iterations: null,
+          converged: null,
+          solverSeconds: null,
+          seconds: (performance.now() - started) / 1000,
+        };
+      } finally {
+        release(worker);
+      }
+    },
+    close(): Promise<void> {
+      if (!closed) {
+        closed = true;
+        for (const w of all) w.terminate();
+      }
+      return Promise.resolve();
+    },
+  };
+}

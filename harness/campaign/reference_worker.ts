@@ -1,0 +1,51 @@
+/**
+ * Worker script of the pooled reference solver: loads cases (cached) and runs the in-process
+ * reference solver on the tasks it is sent, posting back the outcome with its arrays transferred.
+ *
+ * @module
+ */
+/// <reference lib="deno.worker" />
+import { loadCase } from "../../cases/mod.ts";
+import type { CompiledCase } from "../../cases/types.ts";
+import { createReferenceSolver } from "../solvers/mod.ts";
+import type { SolveOptions } from "../../reference-solver/mod.ts";
+import type { WorkerReply, WorkerRequest } from "./reference_pool.ts";
+
+const cases = new Map<string, Promise<CompiledCase>>();
+let solver: ReturnType<typeof createReferenceSolver> | undefined;
+
+function caseFor(ref: WorkerRequest["case"]): Promise<CompiledCase> {
+  const key = JSON.stringify(ref);
+  let found = cases.get(key);
+  if (!found) {
+    found = loadCase(ref.origin === "library" ? ref.id : ref.origin, {
+      parameters: ref.parameters,
+    });
+    cases.set(key, found);
+  }
+  return found;
+}
+
+self.onmessage = async (event: MessageEvent<WorkerRequest | { setup: SolveOptions }>) => {
+  const message = event.data;
+  if ("setup" in message) {
+    solver = createReferenceSolver({ solveOptions: message.setup });
+    return;
+  }
+  let reply: WorkerReply;
+  try {
+    const kase = await caseFor(message.case);
+    solver ??= createReferenceSolver();
+    const outcome = await solver.solve({ ...message.task, case: kase });
+    reply = { id: message.id, outcome };
+  } catch (error) {
+    reply = { id: message.id, error: error instanceof Error ? error.message : String(error) };
+  }
+  const transfer: ArrayBuffer[] = [];
+  if (reply.outcome) {
+    for (const a of [reply.outcome.x, reply.outcome.y, reply.outcome.weights, reply.outcome.values]) {
+      if (a.buffer instanceof ArrayBuffer) transfer.push(a.buffer);
+    }
+  }
+  self.postMessage(reply, { transfer: [...new Set(transfer)] });
+};

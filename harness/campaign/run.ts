@@ -1,0 +1,138 @@
+/**
+ * Runs a campaign: every case on every grid by every solver, in parallel up to `jobs` solves at
+ * once, each finished solve appended to the journal as it finishes. Returns the finished solve
+ * records in a fixed order (case, solver, grid), so results do not depend on the job count or on
+ * the order solves finished in.
+ *
+ * @module
+ */
+import type { CompiledCase } from "../../cases/types.ts";
+import type { SolveRecord } from "../result/types.ts";
+import type { Solver } from "../solvers/mod.ts";
+import { JournalWriter, solveKey } from "./journal.ts";
+import { measureOutcome, relativeDifference } from "./measure.ts";
+
+/** One planned solve. */
+export interface PlannedSolve {
+  kase: CompiledCase;
+  solver: Solver;
+  nx: number;
+  ny: number;
+}
+
+/** Progress events for the command line (library code never prints). */
+export interface ProgressEvent {
+  done: number;
+  total: number;
+  record: SolveRecord;
+  /** Finished before this run (read from the journal on resume). */
+  resumed: boolean;
+}
+
+/** Options of {@link runSolves}. */
+export interface RunOptions {
+  /** Solves running at once. Default: 1. */
+  jobs?: number;
+  /** Relative residual tolerance asked of every solver. Default: 1e-10. */
+  tolerance?: number;
+  /** Journal to append finished solves to. Default: none. */
+  journal?: JournalWriter;
+  /** Solves finished earlier (from a journal), by {@link solveKey}; they are not run again. */
+  finished?: Map<string, SolveRecord>;
+  /** Called after each solve. */
+  onProgress?: (event: ProgressEvent) => void;
+  /** When aborted, no new solve starts; running ones finish and are kept. */
+  signal?: AbortSignal;
+}
+
+/** ny for a case on a grid with nx intervals: the case's aspect, at least 2. */
+export function gridFor(kase: CompiledCase, nx: number): { nx: number; ny: number } {
+  return { nx, ny: Math.max(2, Math.round(nx * kase.aspect)) };
+}
+
+/** Plans every case × solver × grid. */
+export function planSolves(cases: CompiledCase[], solvers: Solver[], grids: number[]): PlannedSolve[] {
+  const plan: PlannedSolve[] = [];
+  for (const kase of cases) {
+    for (const solver of solvers) {
+      for (const n of grids) plan.push({ kase, solver, ...gridFor(kase, n) });
+    }
+  }
+  return plan;
+}
+
+/**
+ * Runs the planned solves and returns every record (finished earlier or now), in plan order.
+ * A solver fault is a `failed` record; it never stops the campaign.
+ */
+export async function runSolves(plan: PlannedSolve[], options: RunOptions = {}): Promise<SolveRecord[]> {
+  const jobs = Math.max(1, options.jobs ?? 1);
+  const tolerance = options.tolerance ?? 1e-10;
+  const records = new Array<SolveRecord | undefined>(plan.length);
+  // Reference solutions kept until the other solvers on the same vertex grid have finished, so
+  // each can be compared with the reference's discrete solution.
+  const referenceValues = new Map<string, Float64Array>();
+  const waitingForReference = new Map<string, { index: number; values: Float64Array }[]>();
+  let done = 0;
+
+  plan.forEach((p, index) => {
+    const key = solveKey({ caseId: p.kase.id, solver: p.solver.info.name, nx: p.nx, ny: p.ny });
+    const earlier = options.finished?.get(key);
+    if (earlier) {
+      records[index] = earlier;
+      done++;
+      options.onProgress?.({ done, total: plan.length, record: earlier, resumed: true });
+    }
+  });
+
+  // Largest grids first: the long solves start early and the small ones fill the gaps.
+  const order = plan.map((_, k) => k).filter((k) => records[k] === undefined)
+    .sort((p, q) => plan[q].nx * plan[q].ny - plan[p].nx * plan[p].ny || p - q);
+  let cursor = 0;
+
+  const compareKey = (p: PlannedSolve) => `${p.kase.id}\u0000${p.nx}\u0000${p.ny}`;
+  const settleDifference = (index: number, values: Float64Array, reference: Float64Array) => {
+    const record = records[index]!;
+    record.differenceFromReference = relativeDifference(values, reference);
+  };
+
+  async function worker(): Promise<void> {
+    while (cursor < order.length && !options.signal?.aborted) {
+      const index = order[cursor++];
+      const p = plan[index];
+      const outcome = await p.solver.solve({
+        case: p.kase,
+        nx: p.nx,
+        ny: p.ny,
+        scheme: p.solver.info.scheme,
+        tolerance,
+      });
+      const record = measureOutcome(p.kase, p.solver.info.name, outcome, tolerance);
+      records[index] = record;
+      if (outcome.status === "ok" && outcome.layout === "vertex") {
+        const key = compareKey(p);
+        if (p.solver.info.kind === "reference") {
+          referenceValues.set(key, outcome.values);
+          for (const w of waitingForReference.get(key) ?? []) {
+            settleDifference(w.index, w.values, outcome.values);
+          }
+          waitingForReference.delete(key);
+        } else {
+          const reference = referenceValues.get(key);
+          if (reference) settleDifference(index, outcome.values, reference);
+          else {
+            const list = waitingForReference.get(key) ?? [];
+            list.push({ index, values: outcome.values });
+            waitingForReference.set(key, list);
+          }
+        }
+      }
+      options.journal?.append(record);
+      done++;
+      options.onProgress?.({ done, total: plan.length, record, resumed: false });
+    }
+  }
+
+  await Promise.all(Array.from({ length: Math.min(jobs, Math.max(order.length, 1)) }, worker));
+  return records.filter((r): r is SolveRecord => r !== undefined);
+}

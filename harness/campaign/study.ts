@@ -1,0 +1,140 @@
+/**
+ * Builds the study of every case × solver from the finished solves: the analysis's
+ * {@link buildStudy} with the exact values of the quantities of interest, plus a judgement of how
+ * far an external solver that declares the reference's scheme lies from the reference's discrete
+ * solution — which separates discretization defects from convergence defects.
+ *
+ * @module
+ */
+import type { CompiledCase } from "../../cases/types.ts";
+import { buildStudy } from "../analysis/mod.ts";
+import type { SolveRecord, StudyRecord, Verdict } from "../result/types.ts";
+import type { Solver } from "../solvers/mod.ts";
+import { exactQuantities, QUANTITIES } from "./quantities.ts";
+
+/** Options of {@link buildStudies}. */
+export interface StudiesOptions {
+  /** Default tolerance on observed orders (0.1). */
+  orderTolerance: number;
+  /** Grid independence fails instead of warning. */
+  requireGridIndependence: boolean;
+  /** Residual tolerance the solvers were asked for. */
+  tolerance: number;
+}
+
+/**
+ * A solver with the reference's scheme and layout should match its discrete solution far below
+ * the discretization error: we ask for a difference at most 1 % of the max-norm error, or at most
+ * 1e-8 relative when the error itself is at round-off (our choice; the iterative tolerance 1e-10
+ * leaves a difference of that order).
+ */
+export const AGREEMENT_FRACTION = 0.01;
+
+/** Studies of every case × solver, in the order of cases, then solvers. */
+export function buildStudies(
+  cases: CompiledCase[],
+  solvers: Solver[],
+  records: SolveRecord[],
+  options: StudiesOptions,
+): StudyRecord[] {
+  const studies: StudyRecord[] = [];
+  const referenceSolvers = solvers.filter((s) => s.info.kind === "reference");
+  const referenceNames = new Set(referenceSolvers.map((s) => s.info.name));
+  const referenceScheme = referenceSolvers[0]?.info.scheme;
+  const references = records.filter((r) => referenceNames.has(r.solver) && r.status === "ok");
+  for (const kase of cases) {
+    const exact = exactQuantities(kase);
+    const scale = Math.max(Math.abs(exact.maximum), maxAbs(kase));
+    const quantities = Object.fromEntries(
+      QUANTITIES.map((q) => [q.name, { label: q.label, exact: exact[q.name] }]),
+    );
+    for (const solver of solvers) {
+      const mine = records.filter((r) => r.caseId === kase.id && r.solver === solver.info.name);
+      if (mine.length === 0) continue;
+      const expected = kase.expected[solver.info.scheme];
+      const study = buildStudy(mine, {
+        caseId: kase.id,
+        solver: solver.info.name,
+        expected,
+        tolerance: options.orderTolerance,
+        gridIndependence: options.requireGridIndependence ? "fail" : "warn",
+        solutionScale: scale,
+        quantities,
+      });
+      if (mine.every((r) => r.status === "not-applicable")) {
+        study.verdicts = [{
+          caseId: kase.id,
+          solver: solver.info.name,
+          criterion: "applicability",
+          status: "not-applicable",
+          reason: mine[0].reason ?? "the solver does not handle this case",
+        }];
+      }
+      const agreement = solver.info.scheme === referenceScheme
+        ? agreementVerdict(kase, solver, mine, references)
+        : undefined;
+      if (agreement) study.verdicts.push(agreement);
+      studies.push(study);
+    }
+  }
+  return studies;
+}
+
+function maxAbs(kase: CompiledCase): number {
+  const { x0, x1, y0, y1 } = kase.domain;
+  let m = 0;
+  for (let j = 0; j <= 64; j++) {
+    for (let i = 0; i <= 64; i++) {
+      m = Math.max(m, Math.abs(kase.exact(x0 + (i / 64) * (x1 - x0), y0 + (j / 64) * (y1 - y0))));
+    }
+  }
+  return m;
+}
+
+function agreementVerdict(
+  kase: CompiledCase,
+  solver: Solver,
+  mine: SolveRecord[],
+  references: SolveRecord[],
+): Verdict | undefined {
+  if (solver.info.kind === "reference" || solver.info.layout !== "vertex") return undefined;
+  const compared = mine.filter((r) => r.status === "ok" && typeof r.differenceFromReference === "number");
+  if (compared.length === 0) return undefined;
+  const base = { caseId: kase.id, solver: solver.info.name, criterion: "agreement-with-reference" };
+  let worst: { record: SolveRecord; ratio: number; error: number } | undefined;
+  for (const r of compared) {
+    const ref = references.find((q) => q.caseId === r.caseId && q.nx === r.nx && q.ny === r.ny);
+    const error = ref?.errors?.all.max ?? r.errors?.all.max ?? 0;
+    const scale = Math.max(maxAbs(kase), 1e-300);
+    const allowed = Math.max(AGREEMENT_FRACTION * error / scale, 1e-8);
+    const ratio = (r.differenceFromReference as number) / allowed;
+    if (!worst || ratio > worst.ratio) worst = { record: r, ratio, error: error / scale };
+  }
+  const w = worst!;
+  const diff = w.record.differenceFromReference as number;
+  const details = {
+    grid: `${w.record.nx}×${w.record.ny}`,
+    relativeDifference: diff,
+    relativeDiscretizationError: w.error,
+    fraction: AGREEMENT_FRACTION,
+  };
+  if (w.ratio <= 1) {
+    return {
+      ...base,
+      status: "pass",
+      reason: `matches the reference discrete solution to ${diff.toExponential(1)} (relative) on ` +
+        `${details.grid}, far below the discretization error ${w.error.toExponential(1)}`,
+      details,
+    };
+  }
+  return {
+    ...base,
+    status: "warn",
+    reason: `differs from the reference discrete solution by ${diff.toExponential(1)} (relative) ` +
+      `on ${details.grid}, not far below the discretization error ${w.error.toExponential(1)}: ` +
+      `either its discrete equations differ from the declared ${solver.info.scheme} 5-point scheme ` +
+      `(a discretization difference — see the order verdicts) or it does not solve them fully ` +
+      `(a convergence defect — see the convergence verdict)`,
+    details,
+  };
+}

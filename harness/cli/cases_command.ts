@@ -1,0 +1,196 @@
+/**
+ * `gridproof cases`: list the built-in cases, show one case's formulas (`cases show ID|FILE
+ * [--tex]`), and check user case files (`cases check FILE…`, every problem at once).
+ *
+ * @module
+ */
+import type { Command } from "commander";
+import {
+  type CaseFile,
+  checkCaseFiles,
+  type CompiledCase,
+  type ExpectedOrder,
+  libraryFiles,
+  loadCase,
+} from "../../cases/mod.ts";
+import type { SetExitCode } from "./mod.ts";
+import { parseParameterFlags } from "./solve_command.ts";
+
+const SHORT = { dirichlet: "D", neumann: "N", robin: "R" } as const;
+
+/** One row of `gridproof cases --json`. */
+export interface CaseListing {
+  id: string;
+  title: string;
+  /** Expected central order in the max norm (the observed one where the case declares it). */
+  expectedOrder: number;
+  /** true for an exactness case (round-off errors expected instead of an order). */
+  exact: boolean;
+  boundary: Record<"west" | "east" | "south" | "north", string>;
+  tags: string[];
+  motivation: string;
+  grids: number[];
+  parameters: Record<string, number>;
+  expected: { central: ExpectedOrder; upwind: ExpectedOrder };
+}
+
+/** The listing row of a case file. */
+export function caseListing(c: CaseFile): CaseListing {
+  const central = c.expected.central;
+  return {
+    id: c.id,
+    title: c.title,
+    expectedOrder: central.observed?.max?.order ?? central.formal,
+    exact: central.exact === true,
+    boundary: {
+      west: c.boundary.west.kind,
+      east: c.boundary.east.kind,
+      south: c.boundary.south.kind,
+      north: c.boundary.north.kind,
+    },
+    tags: [...c.tags],
+    motivation: c.motivation,
+    grids: [...c.grids],
+    parameters: { ...(c.parameters ?? {}) },
+    expected: { central, upwind: c.expected.upwind ?? { formal: 1 } },
+  };
+}
+
+function orderText(e: ExpectedOrder): string {
+  if (e.exact) return "exact";
+  const observed = Object.entries(e.observed ?? {}).map(([norm, o]) => `${norm} ${o?.order}`);
+  return observed.length ? `${e.formal} (${observed.join(", ")})` : String(e.formal);
+}
+
+/** The listing as a plain-text table. */
+export function casesTable(rows: readonly CaseListing[]): string {
+  const head = ["id", "title", "W E S N", "order", "tags"];
+  const body = rows.map((r) => [
+    r.id,
+    r.title.length > 56 ? r.title.slice(0, 55) + "…" : r.title,
+    (["west", "east", "south", "north"] as const).map((s) => SHORT[r.boundary[s] as "robin"]).join(
+      " ",
+    ),
+    orderText(r.expected.central),
+    r.tags.join(", "),
+  ]);
+  const widths = head.map((h, k) => Math.max(h.length, ...body.map((row) => row[k].length)));
+  const line = (cells: string[]) =>
+    cells.map((c, k) => (k === cells.length - 1 ? c : c.padEnd(widths[k]))).join("  ");
+  return [
+    line(head),
+    line(widths.map((w) => "-".repeat(w))),
+    ...body.map(line),
+    "",
+    "Boundary kinds: D dirichlet, N neumann, R robin (sides west east south north). Order: central",
+    "scheme, max norm; 'exact' means round-off errors are expected.",
+  ].join("\n");
+}
+
+const SIDE_PLACE = {
+  west: (c: CompiledCase) => `x = ${c.domain.x0}`,
+  east: (c: CompiledCase) => `x = ${c.domain.x1}`,
+  south: (c: CompiledCase) => `y = ${c.domain.y0}`,
+  north: (c: CompiledCase) => `y = ${c.domain.y1}`,
+} as const;
+
+/** The readable description of a compiled case (`cases show`). */
+export function showCase(c: CompiledCase, tex: boolean): string {
+  const f = tex ? c.tex : c.formulas;
+  const lines = [
+    `${c.id}: ${c.title}`,
+    `  ${c.motivation}`,
+    "",
+    `Operator: a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f on [${c.domain.x0}, ${c.domain.x1}] × [${c.domain.y0}, ${c.domain.y1}]`,
+    `  a = ${f.a}`,
+    `  b = ${f.b}`,
+    `  c = ${f.c}`,
+    `  d = ${f.d}`,
+    `  e = ${f.e}`,
+    `Exact solution:`,
+    `  u = ${f.exact}`,
+    `Derived source term:`,
+    `  f = ${f.source}`,
+    "Boundary data (n the outward normal):",
+  ];
+  for (const side of ["west", "east", "south", "north"] as const) {
+    const b = c.boundary[side];
+    const what = b.kind === "dirichlet"
+      ? "u"
+      : b.kind === "neumann"
+      ? "∂u/∂n"
+      : `${b.alpha}·u + ${b.beta}·∂u/∂n`;
+    lines.push(`  ${side} (${SIDE_PLACE[side](c)}), ${b.kind}: ${what} = ${f.boundary[side]}`);
+  }
+  const params = Object.entries(c.parameters);
+  if (params.length) {
+    lines.push(`Parameters: ${params.map(([k, v]) => `${k} = ${v}`).join(", ")}`);
+  }
+  lines.push(
+    `Expected order: central ${orderText(c.expected.central)}, upwind ${
+      orderText(c.expected.upwind)
+    }`,
+  );
+  for (const [norm, o] of Object.entries(c.expected.central.observed ?? {})) {
+    lines.push(`  ${norm}: ${o?.order} because ${o?.reason}`);
+  }
+  const grids = c.grids.map((n) => {
+    const g = c.gridFor(n);
+    return g.nx === g.ny ? String(n) : `${g.nx}×${g.ny}`;
+  });
+  lines.push(`Suggested grids: ${grids.join(", ")}`);
+  if (c.solver) lines.push(`Solver advice: ${JSON.stringify(c.solver)}`);
+  lines.push(`Tags: ${c.tags.join(", ")}`, `Manufactured-solution guidance: ${c.manufactured}`);
+  return lines.join("\n");
+}
+
+/**
+ * Registers `cases`, `cases show` and `cases check`.
+ *
+ * @param program The root command.
+ * @param setExitCode Raises the exit code (2 when `cases check` finds problems).
+ */
+export function registerCasesCommand(program: Command, setExitCode: SetExitCode): void {
+  const cases = program
+    .command("cases")
+    .description("list the built-in manufactured-solution cases (a table, or --json)")
+    .option("--json", "print a JSON array (id, title, expectedOrder, boundary, tags, …)")
+    .action(async (opts: { json?: boolean }) => {
+      const rows = (await libraryFiles()).map(caseListing);
+      console.log(opts.json ? JSON.stringify(rows, null, 2) : casesTable(rows));
+    });
+  cases
+    .command("show")
+    .description("print a case's operator, exact solution, derived source term and boundary data")
+    .argument("<case>", "a built-in case id or the path of a case file (.json)")
+    .option("--tex", "print the formulas as TeX")
+    .option(
+      "--param <name=value>",
+      "override a parameter (repeatable), e.g. --param w=0.1",
+      (v: string, acc: string[]) => [...acc, v],
+      [] as string[],
+    )
+    .action(async (id: string, opts: { tex?: boolean; param: string[] }) => {
+      const parameters = parseParameterFlags(opts.param);
+      const c = await loadCase(id, { parameters });
+      console.log(showCase(c, opts.tex === true));
+    });
+  cases
+    .command("check")
+    .description("validate case files and report every problem at once (exit 2 when any)")
+    .argument("<files...>", "case files (.json)")
+    .action(async (files: string[]) => {
+      const results = await checkCaseFiles(files);
+      let bad = 0;
+      for (const r of results) {
+        if (r.problems.length === 0) {
+          console.log(`ok: ${r.file}`);
+          continue;
+        }
+        bad++;
+        console.error(`gridproof: ${r.file}: ${r.problems.length} problem(s)`);
+        for (const p of r.problems) console.error(`  - ${p}`);
+      }
+      if (bad) setExitCode(2);
+    });
+}

@@ -1,0 +1,42 @@
+/**
+ * The gridproof solver protocol, `gridproof-protocol/1` (documented in docs/protocol.md): message
+ * types, JSON Schemas for every message, the two array encodings (JSON numbers, base64 of
+ * little-endian float64), building requests and reading replies with every violation reported
+ * with its JSON path. A leaf module: it imports no other part of gridproof and no Deno API.
+ *
+ * @example
+ * ```ts
+ * import { decodeArray, encodeArray, readReply } from "./mod.ts";
+ * const wire = encodeArray(new Float64Array([0.5, 2]), "base64");
+ * decodeArray(wire, "/values"); // Float64Array [0.5, 2]
+ * const check = readReply(
+ *   JSON.stringify({ protocol: "gridproof-protocol/1", type: "solution", id: "r1", values: [1] }),
+ *   { id: "r1", layout: "cell", nx: 1, ny: 1, domain: { x0: 0, x1: 1, y0: 0, y1: 1 } },
+ * );
+ * check.ok; // true
+ * ```
+ *
+ * @module
+ */
+export * from "./types.ts";
+export { decodeArray, describeValue, encodeArray } from "./encoding.ts";
+export { MESSAGE_SCHEMAS, type MessageName, validateMessage } from "./schemas.ts";
+export {
+  firstBytes,
+  layoutPointCount,
+  namePoint,
+  readReady,
+  readReply,
+  type ReadyCheck,
+  type ReplyCheck,
+  type ReplyExpectation,
+} from "./reply.ts";
+export {
+  buildSolutionReply,
+  buildSolveRequest,
+  type ReadRequest,
+  readSolveRequest,
+  type RequestDetails,
+  serializeMessage,
+  type SolutionExtras,
+} from "./request.ts";

@@ -1,0 +1,54 @@
+/**
+ * Escaping of text taken from a result before it goes into HTML/XML or Markdown.
+ *
+ * @module
+ */
+
+const HTML: Record<string, string> = {
+  "&": "&amp;",
+  "<": "&lt;",
+  ">": "&gt;",
+  '"': "&quot;",
+  "'": "&#39;",
+};
+
+/**
+ * Escapes text for HTML or XML element content and quoted attribute values. Characters that XML
+ * 1.0 forbids (control characters other than tab, newline and carriage return) are replaced by
+ * U+FFFD so the output always parses.
+ *
+ * @param text Any text from the result.
+ * @returns The text with `& < > " '` replaced by entities.
+ *
+ * @example
+ * ```ts
+ * import { escapeHtml } from "./escape.ts";
+ * console.assert(escapeHtml("<b>") === "&lt;b&gt;");
+ * ```
+ */
+export function escapeHtml(text: string): string {
+  return String(text)
+    // deno-lint-ignore no-control-regex
+    .replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f\ufffe\uffff]/g, "\ufffd")
+    .replace(/[&<>"']/g, (c) => HTML[c]);
+}
+
+/**
+ * Escapes text for Markdown inline content (and table cells): Markdown punctuation gets a
+ * backslash, `< > &` become entities so no raw HTML reaches the page, and newlines become spaces.
+ *
+ * @param text Any text from the result.
+ * @returns Text that renders literally.
+ *
+ * @example
+ * ```ts
+ * import { escapeMarkdown } from "./escape.ts";
+ * console.assert(escapeMarkdown("a|b") === "a\\|b");
+ * ```
+ */
+export function escapeMarkdown(text: string): string {
+  return String(text)
+    .replace(/[\r\n]+/g, " ")
+    .replace(/[\\`*_{}[\]|~]/g, (c) => "\\" + c)
+    .replace(/[&<>]/g, (c) => HTML[c]);
+}

@@ -1,0 +1,130 @@
+/**
+ * The JUnit XML report, so CI servers list every verdict as a test result.
+ *
+ * Mapping (our choice, stated here once):
+ * - one `<testsuite>` per case × solver (named `case · solver`), holding that study's verdicts and
+ *   the baseline verdicts of the same case and solver;
+ * - one `<testcase>` per verdict, named after its criterion, class name `gridproof.<case>.<solver>`;
+ * - `fail` → `<failure>` whose message is the verdict's reason and whose body adds the details;
+ * - `warn` → a passing test case with the reason in `<system-out>` prefixed `warning:`. A warning
+ *   does not stop a release, and CI servers count "skipped" as "did not run", which would hide a
+ *   criterion that did run;
+ * - `not-applicable` → `<skipped>` with the reason as its message.
+ *
+ * @module
+ */
+import type { CampaignResult, Verdict } from "../result/types.ts";
+import { escapeHtml as esc } from "./escape.ts";
+
+interface Suite {
+  caseId: string;
+  solver: string;
+  verdicts: Verdict[];
+  seconds: number;
+}
+
+function suites(result: CampaignResult): Suite[] {
+  const map = new Map<string, Suite>();
+  const key = (c: string, s: string) => JSON.stringify([c, s]);
+  const get = (caseId: string, solver: string) => {
+    let suite = map.get(key(caseId, solver));
+    if (!suite) {
+      const seconds = result.solves
+        .filter((s) => s.caseId === caseId && s.solver === solver)
+        .reduce((a, s) => a + s.seconds, 0);
+      suite = { caseId, solver, verdicts: [], seconds };
+      map.set(key(caseId, solver), suite);
+    }
+    return suite;
+  };
+  for (const study of result.studies) {
+    get(study.caseId, study.solver).verdicts.push(...study.verdicts);
+  }
+  for (const v of result.baselineVerdicts) get(v.caseId, v.solver).verdicts.push(v);
+  return [...map.values()];
+}
+
+/** ISO date-time without zone or fraction (the form the Ant schema's timestamp allows), or "". */
+function timestamp(iso: string): string {
+  const t = Date.parse(iso);
+  return Number.isFinite(t) ? new Date(t).toISOString().slice(0, 19) : "";
+}
+
+/** Escapes for a quoted attribute, keeping line breaks (parsers turn raw ones into spaces). */
+function attr(text: string): string {
+  return esc(text).replace(/\r/g, "&#13;").replace(/\n/g, "&#10;").replace(/\t/g, "&#9;");
+}
+
+function testcase(v: Verdict, name: string, classname: string): string {
+  const head = `    <testcase name="${attr(name)}" classname="${attr(classname)}" time="0"`;
+  const details = v.details ? `\n${JSON.stringify(v.details, null, 2)}` : "";
+  switch (v.status) {
+    case "fail":
+      return `${head}>\n      <failure message="${attr(v.reason)}" type="${attr(v.criterion)}">` +
+        `${esc(v.reason + details)}</failure>\n    </testcase>`;
+    case "warn":
+      return `${head}>\n      <system-out>${esc("warning: " + v.reason + details)}</system-out>` +
+        `\n    </testcase>`;
+    case "not-applicable":
+      return `${head}>\n      <skipped message="${attr(v.reason)}"/>\n    </testcase>`;
+    default:
+      return `${head}/>`;
+  }
+}
+
+/**
+ * Renders every verdict (study and baseline) as JUnit XML.
+ *
+ * @param result The campaign result.
+ * @returns An XML document with a `<testsuites>` root.
+ *
+ * @example
+ * ```ts ignore
+ * await Deno.writeTextFile("gridproof-junit.xml", renderJunit(result));
+ * ```
+ */
+export function renderJunit(result: CampaignResult): string {
+  const stamp = timestamp(result.createdAt);
+  const out: string[] = [];
+  let tests = 0;
+  let failures = 0;
+  let total = 0;
+  const body: string[] = [];
+  for (const [index, suite] of suites(result).entries()) {
+    const classname = `gridproof.${suite.caseId}.${suite.solver}`;
+    const seen = new Map<string, number>();
+    const cases = suite.verdicts.map((v) => {
+      // the same criterion twice in one suite gets a counter so CI servers keep both
+      const n = (seen.get(v.criterion) ?? 0) + 1;
+      seen.set(v.criterion, n);
+      return testcase(v, n === 1 ? v.criterion : `${v.criterion} (${n})`, classname);
+    });
+    const failed = suite.verdicts.filter((v) => v.status === "fail").length;
+    const skipped = suite.verdicts.filter((v) => v.status === "not-applicable").length;
+    tests += suite.verdicts.length;
+    failures += failed;
+    total += suite.seconds;
+    body.push(
+      `  <testsuite name="${esc(`${suite.caseId} · ${suite.solver}`)}" ` +
+        `tests="${suite.verdicts.length}" failures="${failed}" errors="0" skipped="${skipped}" ` +
+        `time="${suite.seconds.toFixed(3)}"` + (stamp ? ` timestamp="${stamp}"` : "") +
+        ` hostname="${esc(result.environment.hostname || "unknown")}" id="${index}" ` +
+        `package="gridproof.${esc(suite.caseId)}">`,
+      `    <properties>`,
+      `      <property name="case" value="${esc(suite.caseId)}"/>`,
+      `      <property name="solver" value="${esc(suite.solver)}"/>`,
+      `      <property name="gridproof.version" value="${esc(result.tool.version)}"/>`,
+      `    </properties>`,
+      ...cases,
+      `  </testsuite>`,
+    );
+  }
+  out.push(`<?xml version="1.0" encoding="UTF-8"?>`);
+  out.push(
+    `<testsuites name="gridproof" tests="${tests}" failures="${failures}" errors="0" ` +
+      `time="${total.toFixed(3)}">`,
+  );
+  out.push(...body);
+  out.push(`</testsuites>`);
+  return out.join("\n") + "\n";
+}

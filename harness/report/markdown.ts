@@ -1,0 +1,94 @@
+/**
+ * The Markdown summary: short enough for a merge-request comment, failures first.
+ *
+ * @module
+ */
+import type { CampaignResult, Verdict } from "../result/types.ts";
+import {
+  allVerdicts,
+  bySeverity,
+  caseIds,
+  CAUTION,
+  num,
+  order,
+  orderOf,
+  pairs,
+  SEVERITY,
+  STATUS_WORD,
+  worst,
+} from "./_shared.ts";
+import { escapeMarkdown as md } from "./escape.ts";
+
+function item(v: Verdict): string {
+  return `- **${STATUS_WORD[v.status]}** ${md(v.caseId)} · ${md(v.solver)} · ` +
+    `${md(v.criterion)}: ${md(v.reason)}`;
+}
+
+/**
+ * Renders a short Markdown summary: a headline with the counts, the failures and warnings with
+ * their reasons, one table row per case × solver (failing rows first), and the caution.
+ *
+ * @param result The campaign result.
+ * @returns Markdown text (GitHub/GitLab flavoured tables).
+ *
+ * @example
+ * ```ts ignore
+ * await Deno.writeTextFile("summary.md", renderMarkdown(result));
+ * ```
+ */
+export function renderMarkdown(result: CampaignResult): string {
+  const all = allVerdicts(result);
+  const failures = all.filter((v) => v.status === "fail");
+  const warnings = all.filter((v) => v.status === "warn");
+  const passed = all.filter((v) => v.status === "pass").length;
+  const out: string[] = [];
+  out.push(
+    `### gridproof: ${failures.length} failed, ${warnings.length} warnings, ${passed} passed`,
+  );
+  out.push("");
+  out.push(
+    `Result of ${md(result.createdAt)} · gridproof ${md(result.tool.version)} · ` +
+      `${caseIds(result).length} cases × ${result.solvers.length} solvers · exit code ` +
+      `${result.summary.exitCode}`,
+  );
+  if (failures.length > 0) {
+    out.push("", "**Failures**", "", ...failures.map(item));
+  }
+  if (warnings.length > 0) {
+    out.push("", "**Warnings**", "", ...warnings.map(item));
+  }
+  const rows: { status: Verdict["status"]; line: string }[] = [];
+  for (const id of caseIds(result)) {
+    for (const solver of pairs(result, id)) {
+      const study = result.studies.find((s) => s.caseId === id && s.solver === solver);
+      const verdicts = [
+        ...(study?.verdicts ?? []),
+        ...result.baselineVerdicts.filter((v) => v.caseId === id && v.solver === solver),
+      ];
+      const status = worst(verdicts);
+      const max = orderOf(study, "all", "max");
+      const finest = result.solves
+        .filter((s) => s.caseId === id && s.solver === solver)
+        .sort((a, b) => b.unknowns - a.unknowns)[0];
+      const failed = bySeverity(verdicts).filter((v) => v.status === "fail").map((v) =>
+        md(v.criterion)
+      );
+      rows.push({
+        status,
+        line: `| ${md(id)} | ${md(solver)} | ${order(max?.fitted.order)} | ` +
+          `${study ? num(study.expectedOrder) : "—"} | ${
+            finest?.iterations === null || finest === undefined ? "—" : finest.iterations
+          } | ${STATUS_WORD[status]}${failed.length ? ": " + failed.join(", ") : ""} |`,
+      });
+    }
+  }
+  rows.sort((a, b) => SEVERITY[a.status] - SEVERITY[b.status]);
+  out.push(
+    "",
+    "| case | solver | observed order (max error) | expected | iterations on finest grid | result |",
+    "| --- | --- | ---: | ---: | ---: | --- |",
+    ...rows.map((r) => r.line),
+  );
+  out.push("", `> **Caution.** ${CAUTION}`);
+  return out.join("\n") + "\n";
+}

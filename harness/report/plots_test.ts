@@ -1,0 +1,76 @@
+import assert from "node:assert/strict";
+import { errorPlot, renderSvg, reportPlots, residualPlot } from "./plots.ts";
+import { makeFixtureResult } from "../../testdata/report/fixture.ts";
+import { assertClose } from "../../testing/mod.ts";
+
+function layerValues(spec: unknown, layer: number): Record<string, number | string>[] {
+  // deno-lint-ignore no-explicit-any
+  return (spec as any).layer[layer].data.values;
+}
+
+Deno.test("errorPlot() draws the reference line with the slope of the expected order", () => {
+  const plot = errorPlot(makeFixtureResult(), "poisson-sine")!;
+  const [a, b] = layerValues(plot.spec, 0);
+  // derived: on log–log axes the slope is ln(E_b/E_a)/ln(h_b/h_a)
+  const slope = Math.log((b.error as number) / (a.error as number)) /
+    Math.log((b.h as number) / (a.h as number));
+  assertClose(slope, 2, { rel: 1e-12 });
+  // every norm of every ok solve is a point: 2 solvers × 4 grids × 3 norms
+  assert.equal(layerValues(plot.spec, 1).length, 24);
+  // the line lies below every data point, so it hides none
+  const lowest = Math.min(...layerValues(plot.spec, 1).map((r) => r.error as number));
+  assert.ok((a.error as number) < lowest);
+});
+
+Deno.test("residualPlot() thins long histories to at most about 400 points per grid", () => {
+  const result = makeFixtureResult();
+  const long = result.solves.find((s) => s.residualHistory.length > 3000)!;
+  // deno-lint-ignore no-explicit-any
+  const values = (residualPlot(result, long.caseId, long.solver)!.spec as any).data.values as {
+    grid: string;
+    iteration: number;
+  }[];
+  const mine = values.filter((v) => v.grid === `${long.nx}×${long.ny}`);
+  assert.ok(mine.length <= 401, String(mine.length));
+  assert.equal(mine[mine.length - 1].iteration, long.residualHistory.length - 1, "last point kept");
+});
+
+Deno.test("reportPlots() gives each case an error plot, a residual plot per solver and a cost plot", () => {
+  const kinds = reportPlots(makeFixtureResult()).map((p) =>
+    `${p.caseId}:${p.kind}:${p.solver ?? ""}`
+  );
+  assert.deepEqual(kinds, [
+    "poisson-sine:errors:",
+    "poisson-sine:residuals:reference",
+    "poisson-sine:residuals:team-gs",
+    "poisson-sine:cost:",
+    "robin-variable:errors:",
+    "robin-variable:residuals:reference",
+    "robin-variable:residuals:team-gs",
+    "robin-variable:cost:",
+  ]);
+});
+
+Deno.test("renderSvg() gives every plot its own element ids", async () => {
+  // clipped marks make Vega emit clip-path ids from a counter shared by the whole process
+  const spec = {
+    data: { values: [{ x: 1, y: 1 }, { x: 2, y: 4 }] },
+    hconcat: [1, 2].map(() => ({
+      mark: { type: "line" as const, clip: true },
+      encoding: {
+        x: { field: "x", type: "quantitative" as const },
+        y: { field: "y", type: "quantitative" as const },
+      },
+    })),
+  };
+  const one = await renderSvg(spec, "p1");
+  const two = await renderSvg(spec, "p2");
+  assert.match(one, /^<svg /);
+  const ids = (svg: string) => [...svg.matchAll(/\sid="([^"]+)"/g)].map((m) => m[1]);
+  assert.ok(ids(one).length > 0);
+  assert.ok(ids(one).every((id) => id.startsWith("p1-")));
+  assert.ok(ids(two).every((id) => id.startsWith("p2-")));
+  // every url(#…) reference points at an id of the same SVG
+  for (const m of one.matchAll(/url\(#([^)]+)\)/g)) assert.ok(ids(one).includes(m[1]), m[1]);
+  assert.equal(one.replaceAll("p1-", "p2-"), two, "rendering is deterministic");
+});

@@ -1,0 +1,38 @@
+import assert from "node:assert/strict";
+import { renderText } from "./text.ts";
+import { makeFixtureResult } from "../../testdata/report/fixture.ts";
+
+Deno.test("renderText() prints a table per case and solver with every grid and the verdicts", () => {
+  const result = makeFixtureResult();
+  const text = renderText(result);
+  for (const study of result.studies) {
+    assert.ok(text.includes(`  solver ${study.solver} (expected order 2)`));
+    for (const v of study.verdicts) assert.ok(text.includes(v.reason), v.reason);
+  }
+  // 4 studies × 4 grids
+  assert.equal(text.match(/^ {4}(9×9|17×17|33×33|65×65) /gm)?.length, 16);
+  assert.match(text, /65×65 +0\.01563 +failed: the solver stopped after 20000 iterations/);
+  assert.match(text, /12 pass · 2 fail · 2 warn · 0 not applicable — exit code 1\n$/);
+});
+
+Deno.test("renderText() shows the pairwise order computed from the errors in the row", () => {
+  const result = makeFixtureResult();
+  const text = renderText(result);
+  const solves = result.solves.filter((s) =>
+    s.caseId === "robin-variable" && s.solver === "team-gs"
+  );
+  // derived: ln(E_9/E_17)/ln 2 from the fixture's max errors, shown with two decimals
+  const p = Math.log(solves[0].errors!.all.max / solves[1].errors!.all.max) / Math.log(2);
+  assert.match(text, new RegExp(`17×17 +0\\.0625 +\\S+ +\\S+ +${p.toFixed(2)} `));
+  assert.equal(p.toFixed(2), "1.07");
+});
+
+Deno.test("renderText() colours only when asked and neutralises control characters", () => {
+  const result = makeFixtureResult();
+  assert.ok(!renderText(result).includes("\x1b"));
+  assert.ok(renderText(result, { color: true }).includes("\x1b[1;31mFAIL"));
+  result.cases[0].title = "evil\x1b[2J title\nsecond line";
+  const text = renderText(result, { color: false });
+  assert.ok(!text.includes("\x1b"));
+  assert.ok(text.includes("poisson-sine — evil?[2J title second line"));
+});

@@ -1,0 +1,507 @@
+/**
+ * External solvers: programs that speak `gridproof-protocol/1` on stdin/stdout, run in their own
+ * process group, one process per solve (`once`) or one long-lived process (`session`). Every
+ * fault becomes a `failed` outcome with a precise reason; nothing here throws or hangs.
+ *
+ * @module
+ */
+import { resolve } from "node:path";
+import {
+  buildSolveRequest,
+  type Capabilities,
+  PROTOCOL_VERSION,
+  readReady,
+  readReply,
+  type ReadyMessage,
+  type ReplyExpectation,
+  serializeMessage,
+} from "../protocol/mod.ts";
+import { SIDES } from "../../reference-solver/mod.ts";
+import { describeExit, GroupProcess, within } from "./process.ts";
+import { resolveProgram } from "./resolve_command.ts";
+import { emptyOutcome, solutionOutcome, stderrGist } from "./outcome.ts";
+import { sampleCase } from "./sample.ts";
+import type { ExternalSolverSpec, SolveOutcome, Solver, SolveTask } from "./types.ts";
+
+/** Longest wait for a session's `ready` answer. */
+const MAX_STARTUP_SECONDS = 60;
+/** Grace after `goodbye` before the session process group is killed. */
+const GOODBYE_GRACE_MS = 2000;
+
+interface Prepared {
+  task: SolveTask;
+  bytes: Uint8Array;
+  expect: ReplyExpectation;
+  limitSeconds: number;
+}
+
+/** Options of {@link createExternalSolver}. */
+export interface ExternalSolverOptions {
+  /** Folder of the solver file: relative command paths and `cwd` are taken from it. */
+  solverFileDir: string;
+}
+
+/**
+ * Makes a {@link Solver} that runs an external program through the protocol.
+ *
+ * @param spec the solver as written in the solver file (defaults filled in by `loadSolverFile`)
+ * @param options where relative paths start
+ * @returns the solver; call `close()` when done (it ends a session)
+ *
+ * @example
+ * ```ts ignore
+ * import { createExternalSolver } from "./external.ts";
+ * const solver = createExternalSolver(spec, { solverFileDir: "examples" });
+ * const outcome = await solver.solve({ case: c, nx: 32, ny: 32, scheme: "central", tolerance: 1e-10 });
+ * await solver.close();
+ * ```
+ */
+export function createExternalSolver(
+  spec: ExternalSolverSpec,
+  options: ExternalSolverOptions,
+): Solver {
+  const baseDir = resolve(options.solverFileDir);
+  const runner = new Runner(spec, baseDir);
+  const session = spec.mode === "session" ? new Session(runner) : undefined;
+  let queue: Promise<unknown> = Promise.resolve();
+  let counter = 0;
+  return {
+    info: {
+      name: spec.name,
+      kind: "external",
+      command: [...spec.command],
+      layout: spec.layout,
+      scheme: spec.scheme,
+      description: {
+        mode: spec.mode,
+        encoding: spec.encoding,
+        ...(spec.description ? { text: spec.description } : {}),
+      },
+    },
+    solve(task: SolveTask): Promise<SolveOutcome> {
+      counter++;
+      const id = `${task.case.id}/${task.nx}x${task.ny}/${counter}`;
+      const work = async (): Promise<SolveOutcome> => {
+        const prepared = runner.prepare(task, id, session?.capabilities);
+        if ("status" in prepared) return prepared;
+        return session ? await session.solve(prepared) : await runner.runOnce(prepared);
+      };
+      if (!session) return guard(work, task, spec);
+      // a session answers one request at a time
+      const result = queue.then(() => guard(work, task, spec));
+      queue = result;
+      return result;
+    },
+    async close(): Promise<void> {
+      await queue;
+      await session?.close();
+    },
+  };
+}
+
+/** Last line of defence: a bug in the runner becomes a failed outcome, not an exception. */
+async function guard(
+  work: () => Promise<SolveOutcome>,
+  task: SolveTask,
+  spec: ExternalSolverSpec,
+): Promise<SolveOutcome> {
+  try {
+    return await work();
+  } catch (error) {
+    return emptyOutcome(
+      "failed",
+      `gridproof could not run the solver: ${(error as Error).message}`,
+      { layout: spec.layout, nx: task.nx, ny: task.ny },
+    );
+  }
+}
+
+function requestLayout(spec: ExternalSolverSpec): "vertex" | "cell" {
+  return spec.layout === "cell" ? "cell" : "vertex";
+}
+
+/** Why a task is outside a session's declared support, or undefined. */
+function unsupported(
+  task: SolveTask,
+  spec: ExternalSolverSpec,
+  caps: Capabilities,
+): string | undefined {
+  if (caps.boundaryKinds) {
+    for (const side of SIDES) {
+      const kind = task.case.boundary[side].kind;
+      if (!caps.boundaryKinds.includes(kind)) {
+        return `the solver declares boundary kinds ${
+          caps.boundaryKinds.join(", ")
+        }; the case has ${kind} on ${side}`;
+      }
+    }
+  }
+  if (caps.layouts && !caps.layouts.includes(spec.layout)) {
+    return `the solver declares layouts ${
+      caps.layouts.join(", ")
+    }; the solver file says ${spec.layout}`;
+  }
+  if (caps.encodings && !caps.encodings.includes(spec.encoding)) {
+    return `the solver declares encodings ${
+      caps.encodings.join(", ")
+    }; the solver file says ${spec.encoding}`;
+  }
+  if (caps.largestGrid && (task.nx > caps.largestGrid.nx || task.ny > caps.largestGrid.ny)) {
+    return `the grid ${task.nx}×${task.ny} is larger than the solver's largest grid ` +
+      `${caps.largestGrid.nx}×${caps.largestGrid.ny}`;
+  }
+  return undefined;
+}
+
+/** Starts processes and runs `once` solves. */
+class Runner {
+  constructor(readonly spec: ExternalSolverSpec, readonly baseDir: string) {}
+
+  get env(): Record<string, string> | undefined {
+    return this.spec.env;
+  }
+
+  get maxReplyBytes(): number {
+    return Math.floor(this.spec.maxReplyMiB * 1024 * 1024);
+  }
+
+  /** A not-applicable outcome when the task is outside what the solver handles, else undefined. */
+  applicability(task: SolveTask, caps: Capabilities | undefined): SolveOutcome | undefined {
+    const spec = this.spec;
+    const grid = { layout: spec.layout, nx: task.nx, ny: task.ny };
+    if (spec.skipCases.includes(task.case.id)) {
+      return emptyOutcome(
+        "not-applicable",
+        `case ${task.case.id} is in the solver file's skipCases`,
+        grid,
+      );
+    }
+    if (task.scheme !== spec.scheme && !(caps?.schemes?.includes(task.scheme))) {
+      return emptyOutcome(
+        "not-applicable",
+        `the solver implements the ${spec.scheme} scheme; this solve asks for ${task.scheme}`,
+        grid,
+      );
+    }
+    if (caps) {
+      const why = unsupported(task, spec, caps);
+      if (why) return emptyOutcome("not-applicable", why, grid);
+    }
+    return undefined;
+  }
+
+  /** Builds the request bytes, or an outcome when the task does not apply or cannot be sampled. */
+  prepare(task: SolveTask, id: string, caps: Capabilities | undefined): Prepared | SolveOutcome {
+    const spec = this.spec;
+    const grid = { layout: spec.layout, nx: task.nx, ny: task.ny };
+    const refusal = this.applicability(task, caps);
+    if (refusal) return refusal;
+    const layout = requestLayout(spec);
+    const limitSeconds = task.timeLimitSeconds ?? spec.timeLimitSeconds;
+    let bytes: Uint8Array;
+    try {
+      const sampled = sampleCase(task.case, task.nx, task.ny, layout);
+      const f = task.case.formulas;
+      const message = buildSolveRequest(sampled, {
+        id,
+        caseId: task.case.id,
+        caseTitle: task.case.title,
+        expressions: {
+          a: f.a,
+          b: f.b,
+          c: f.c,
+          d: f.d,
+          e: f.e,
+          source: f.source,
+          boundary: { ...f.boundary },
+        },
+        scheme: task.scheme,
+        tolerance: task.tolerance,
+        timeLimitSeconds: limitSeconds,
+        encoding: spec.encoding,
+      });
+      bytes = new TextEncoder().encode(serializeMessage(message));
+    } catch (error) {
+      return emptyOutcome(
+        "failed",
+        `could not sample the case for the request: ${(error as Error).message}`,
+        grid,
+      );
+    }
+    return {
+      task,
+      bytes,
+      limitSeconds,
+      expect: { id, layout, nx: task.nx, ny: task.ny, domain: task.case.domain },
+    };
+  }
+
+  /** Resolves the program and starts it in its own process group, or says why it cannot. */
+  async start(): Promise<GroupProcess | string> {
+    const [program, ...args] = this.spec.command;
+    const found = await resolveProgram(program, { baseDir: this.baseDir, path: this.env?.PATH });
+    if (!found.ok) return found.reason;
+    const cwd = resolve(this.baseDir, this.spec.cwd ?? ".");
+    try {
+      const info = await Deno.stat(cwd);
+      if (!info.isDirectory) return `the working folder ${cwd} is not a folder (field cwd)`;
+    } catch {
+      return `the working folder ${cwd} does not exist (field cwd, relative to the solver file's folder)`;
+    }
+    try {
+      return GroupProcess.start({
+        argv: [found.path, ...args],
+        cwd,
+        env: this.env,
+        memoryLimitMiB: this.spec.memoryLimitMiB,
+      });
+    } catch (error) {
+      return `could not start ${found.path}: ${(error as Error).message}`;
+    }
+  }
+
+  async runOnce(p: Prepared): Promise<SolveOutcome> {
+    const grid = { layout: this.spec.layout, nx: p.task.nx, ny: p.task.ny };
+    const started = performance.now();
+    const elapsed = () => (performance.now() - started) / 1000;
+    const proc = await this.start();
+    if (typeof proc === "string") return emptyOutcome("failed", proc, grid, { seconds: elapsed() });
+    const deadline = started + p.limitSeconds * 1000;
+    const left = () => deadline - performance.now();
+    const writing = proc.write(p.bytes).then(async (r) => {
+      await proc.closeStdin();
+      return r;
+    });
+    const finish = async (reason: string): Promise<SolveOutcome> => {
+      proc.killGroup();
+      await within(proc.stderrDone, 500);
+      await proc.release();
+      const tail = proc.stderr.text();
+      return emptyOutcome("failed", reason, grid, { seconds: elapsed(), stderrTail: tail });
+    };
+    const read = await within(proc.readAll(this.maxReplyBytes), left());
+    if (read === undefined) {
+      return await finish(
+        `the solver exceeded its time limit of ${p.limitSeconds} s; its process group ` +
+          `(children included) was killed`,
+      );
+    }
+    if (read.kind === "overflow") {
+      return await finish(
+        `the reply exceeded the size limit of ${read.limit} bytes (maxReplyMiB ` +
+          `${this.spec.maxReplyMiB}); reading stopped and the solver was killed`,
+      );
+    }
+    const status = await within(proc.status, left());
+    if (status === undefined) {
+      return await finish(
+        `the solver closed stdout but did not exit within its time limit of ${p.limitSeconds} s; ` +
+          `its process group was killed`,
+      );
+    }
+    const seconds = elapsed();
+    // stray children of a finished solver must not outlive the solve
+    proc.killGroup();
+    const write = (await within(writing, 1000)) ?? { written: -1 };
+    await within(proc.stderrDone, 500);
+    await proc.release();
+    const tail = proc.stderr.text();
+    const extra = { seconds, stderrTail: tail };
+    const bytes = read.kind === "data" ? read.bytes : new Uint8Array(0);
+    const shortWrite = write.written >= 0 && write.written < p.bytes.length;
+    if (!status.success) {
+      const input = shortWrite
+        ? ` after reading ${write.written} of ${p.bytes.length} bytes of the request`
+        : "";
+      return emptyOutcome(
+        "failed",
+        `the solver ${describeExit(status)}${input}${stderrGist(tail)}`,
+        grid,
+        extra,
+      );
+    }
+    if (shortWrite) {
+      return emptyOutcome(
+        "failed",
+        `the solver closed its standard input after taking ${write.written} of ` +
+          `${p.bytes.length} bytes of the request (${write.error ?? "pipe closed"})` +
+          (bytes.length === 0 ? " and wrote no reply" : "") +
+          `; it must read the whole request`,
+        grid,
+        extra,
+      );
+    }
+    return this.judge(new TextDecoder().decode(bytes), p, extra, {});
+  }
+
+  /** Turns reply text into an outcome. */
+  judge(
+    text: string,
+    p: Prepared,
+    extra: { seconds: number; stderrTail?: string },
+    description: Record<string, unknown>,
+  ): SolveOutcome {
+    const grid = { layout: this.spec.layout, nx: p.task.nx, ny: p.task.ny };
+    const check = readReply(text, p.expect);
+    if (!check.ok) return emptyOutcome("failed", check.reason, grid, extra);
+    const reply = check.reply;
+    if (reply.type === "not-applicable") {
+      return emptyOutcome("not-applicable", `the solver says: ${reply.reason}`, grid, extra);
+    }
+    if (reply.type === "error") {
+      return emptyOutcome("failed", `the solver reported an error: ${reply.reason}`, grid, extra);
+    }
+    if (reply.type !== "solution") throw new TypeError(`unhandled reply type ${reply.type}`);
+    return solutionOutcome(reply, { ...p.expect }, { ...extra, description });
+  }
+}
+
+/** One long-lived solver process, restarted after any fault. */
+class Session {
+  #proc: GroupProcess | undefined;
+  #ready: ReadyMessage | undefined;
+  #startupSeconds: number | null = null;
+
+  constructor(readonly runner: Runner) {}
+
+  /** What the running session declared (undefined before it started). */
+  get capabilities(): Capabilities | undefined {
+    return this.#ready?.supports;
+  }
+
+  async #start(limitSeconds: number): Promise<string | undefined> {
+    const started = performance.now();
+    const proc = await this.runner.start();
+    if (typeof proc === "string") return proc;
+    const hello = new TextEncoder().encode(
+      serializeMessage({ protocol: PROTOCOL_VERSION, type: "hello" }),
+    );
+    const wrote = await proc.write(hello);
+    const wait = Math.min(limitSeconds, MAX_STARTUP_SECONDS) * 1000;
+    const line = wrote.error
+      ? undefined
+      : await within(proc.readLine(this.runner.maxReplyBytes), wait);
+    const abandon = async (why: string) => {
+      proc.killGroup();
+      await within(proc.stderrDone, 500);
+      await proc.release();
+      return `the session did not start: ${why}${stderrGist(proc.stderr.text())}`;
+    };
+    if (wrote.error) return await abandon(`writing hello failed (${wrote.error})`);
+    if (line === undefined) {
+      return await abandon(
+        `no ready message within ${wait / 1000} s of hello; process group killed`,
+      );
+    }
+    if (line.kind === "overflow") return await abandon("the ready message exceeded the size limit");
+    if (line.kind === "eof") {
+      const status = await within(proc.status, 2000);
+      return await abandon(
+        `the process ${status ? describeExit(status) : "closed stdout"} before answering hello`,
+      );
+    }
+    if (line.kind !== "line") return await abandon("unexpected output");
+    const check = readReady(line.text);
+    if (!check.ok) return await abandon(check.reason);
+    this.#proc = proc;
+    this.#ready = check.ready;
+    this.#startupSeconds = (performance.now() - started) / 1000;
+    return undefined;
+  }
+
+  async solve(p: Prepared): Promise<SolveOutcome> {
+    const grid = { layout: this.runner.spec.layout, nx: p.task.nx, ny: p.task.ny };
+    if (!this.#proc) {
+      const why = await this.#start(p.limitSeconds);
+      if (why) return emptyOutcome("failed", why, grid);
+      // now that the capabilities are known, check the task against them
+      const refusal = this.runner.applicability(p.task, this.capabilities);
+      if (refusal) return refusal;
+    }
+    const proc = this.#proc!;
+    const mark = proc.stderr.total;
+    const started = performance.now();
+    const elapsed = () => (performance.now() - started) / 1000;
+    const description = {
+      mode: "session",
+      startupSeconds: this.#startupSeconds,
+      ...(this.#ready?.solver ? { solver: this.#ready.solver } : {}),
+    };
+    const fail = async (reason: string): Promise<SolveOutcome> => {
+      await this.#kill();
+      return emptyOutcome("failed", reason + stderrGist(proc.stderr.text(mark)), grid, {
+        seconds: elapsed(),
+        stderrTail: proc.stderr.text(mark),
+        description,
+      });
+    };
+    const deadline = started + p.limitSeconds * 1000;
+    const wrote = await within(proc.write(p.bytes), deadline - performance.now());
+    if (wrote === undefined) {
+      return await fail(
+        `the session did not read the request within the time limit of ${p.limitSeconds} s; process group killed`,
+      );
+    }
+    if (wrote.error) {
+      const status = await within(proc.status, 1000);
+      return await fail(
+        `the session process ${status ? describeExit(status) : "closed its standard input"} ` +
+          `before the request was sent (${wrote.written} of ${p.bytes.length} bytes); it will be restarted`,
+      );
+    }
+    let line;
+    do {
+      line = await within(proc.readLine(this.runner.maxReplyBytes), deadline - performance.now());
+    } while (line?.kind === "line" && line.text.trim() === "");
+    if (line === undefined) {
+      return await fail(
+        `the solver exceeded its time limit of ${p.limitSeconds} s; its process group ` +
+          `(children included) was killed and will be restarted`,
+      );
+    }
+    if (line.kind === "overflow") {
+      return await fail(
+        `the reply exceeded the size limit of ${line.limit} bytes (maxReplyMiB ` +
+          `${this.runner.spec.maxReplyMiB}); reading stopped and the session was killed`,
+      );
+    }
+    if (line.kind === "eof") {
+      const status = await within(proc.status, 2000);
+      return await fail(
+        `the session process ${status ? describeExit(status) : "closed stdout"} during the ` +
+          `solve; it will be restarted for the next solve`,
+      );
+    }
+    if (line.kind !== "line") return await fail("unexpected output");
+    const seconds = elapsed();
+    const outcome = this.runner.judge(line.text, p, {
+      seconds,
+      stderrTail: proc.stderr.text(mark),
+    }, description);
+    // after a bad reply the conversation may be out of step: start afresh next time
+    if (outcome.status === "failed") await this.#kill();
+    return outcome;
+  }
+
+  async #kill(): Promise<void> {
+    const proc = this.#proc;
+    this.#proc = undefined;
+    this.#ready = undefined;
+    if (!proc) return;
+    proc.killGroup();
+    await within(proc.stderrDone, 500);
+    await proc.release();
+  }
+
+  async close(): Promise<void> {
+    const proc = this.#proc;
+    if (!proc) return;
+    const bye = new TextEncoder().encode(
+      serializeMessage({ protocol: PROTOCOL_VERSION, type: "goodbye" }),
+    );
+    await within(proc.write(bye), 500);
+    await proc.closeStdin();
+    await within(proc.status, GOODBYE_GRACE_MS);
+    await this.#kill();
+  }
+}

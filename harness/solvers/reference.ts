@@ -1,0 +1,129 @@
+/**
+ * The bundled reference multigrid solver behind the {@link Solver} interface, in process.
+ *
+ * @module
+ */
+import {
+  type CycleName,
+  type SmootherName,
+  solve,
+  type SolveOptions,
+} from "../../reference-solver/mod.ts";
+import { gridPoints } from "./geometry.ts";
+import { emptyOutcome } from "./outcome.ts";
+import type { SolveOutcome, Solver, SolveTask } from "./types.ts";
+
+/**
+ * Fills in a case's advice for the reference solver (smoother, cycle, maxCycles) where the
+ * caller's options leave them unset.
+ */
+function withAdvice(
+  base: SolveOptions,
+  advice: { smoother?: string; cycle?: string; maxCycles?: number } | undefined,
+): SolveOptions {
+  if (!advice) return base;
+  const out: SolveOptions = { ...base };
+  if (advice.smoother !== undefined && base.smoother?.name === undefined) {
+    out.smoother = { ...base.smoother, name: advice.smoother as SmootherName };
+  }
+  if (advice.cycle !== undefined && base.cycle?.type === undefined) {
+    out.cycle = { ...base.cycle, type: advice.cycle as CycleName };
+  }
+  if (advice.maxCycles !== undefined && base.stop?.maxCycles === undefined) {
+    out.stop = { ...base.stop, maxCycles: advice.maxCycles };
+  }
+  return out;
+}
+
+/** Options of {@link createReferenceSolver}. */
+export interface ReferenceSolverOptions {
+  /** Name in results. Default: "reference". */
+  name?: string;
+  /**
+   * Reference-solver options (cycle, smoother, …). `scheme.upwind` and `stop.tolerance` are set
+   * from each task. Default: the reference solver's defaults.
+   */
+  solveOptions?: SolveOptions;
+  /** Scheme recorded in the solver's info. Default: "central". */
+  scheme?: "central" | "upwind";
+}
+
+/**
+ * Makes the in-process reference solver: samples the case on the vertex grid with
+ * `case.sample(nx, ny)` and solves it with the bundled multigrid (with the case's advice for
+ * smoother, cycle and maxCycles where `solveOptions` leaves them unset). The task's time limit does not
+ * apply (an in-process solve cannot be interrupted); non-convergence is data (status ok,
+ * `converged: false`); a problem the solver refuses (e.g. singular) is `failed` with its message.
+ *
+ * @param options name, solver options, recorded scheme
+ * @returns the solver
+ *
+ * @example
+ * ```ts ignore
+ * import { createReferenceSolver } from "./reference.ts";
+ * const solver = createReferenceSolver();
+ * const outcome = await solver.solve({ case: c, nx: 32, ny: 32, scheme: "central", tolerance: 1e-10 });
+ * ```
+ */
+export function createReferenceSolver(options: ReferenceSolverOptions = {}): Solver {
+  const name = options.name ?? "reference";
+  return {
+    info: {
+      name,
+      kind: "reference",
+      layout: "vertex",
+      scheme: options.scheme ?? "central",
+      description: { solveOptions: structuredClone(options.solveOptions ?? {}) },
+    },
+    solve(task: SolveTask): Promise<SolveOutcome> {
+      const started = performance.now();
+      const grid = { layout: "vertex" as const, nx: task.nx, ny: task.ny };
+      try {
+        const problem = task.case.sample(task.nx, task.ny);
+        const base = withAdvice(options.solveOptions ?? {}, task.case.solver);
+        const result = solve(problem, {
+          ...base,
+          scheme: { ...base.scheme, upwind: task.scheme === "upwind" },
+          stop: { ...base.stop, tolerance: task.tolerance },
+        });
+        const points = gridPoints("vertex", problem.domain, task.nx, task.ny);
+        return Promise.resolve({
+          status: "ok",
+          layout: "vertex",
+          nx: task.nx,
+          ny: task.ny,
+          x: points.x,
+          y: points.y,
+          weights: points.weights,
+          boundaryBand: points.boundaryBand,
+          values: result.solution,
+          residualHistory: result.residualHistory,
+          iterations: result.cycles,
+          converged: result.converged,
+          solverSeconds: result.seconds,
+          seconds: (performance.now() - started) / 1000,
+          description: {
+            ...result.description,
+            stopReason: result.reason,
+            averageFactor: result.averageFactor,
+            asymptoticFactor: result.asymptoticFactor,
+          },
+        });
+      } catch (error) {
+        return Promise.resolve(
+          emptyOutcome(
+            "failed",
+            `the reference solver refused the problem: ${(error as Error).message}`,
+            grid,
+            {
+              seconds: (performance.now() - started) / 1000,
+            },
+          ),
+        );
+      }
+    },
+    close(): Promise<void> {
+      return Promise.resolve();
+    },
+  };
+}

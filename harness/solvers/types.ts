@@ -1,0 +1,106 @@
+/**
+ * The one `Solver` interface every backend implements (the in-process reference solver, external
+ * programs speaking the protocol), the task it gets and the outcome it returns.
+ *
+ * @module
+ */
+import type { CompiledCase } from "../../cases/types.ts";
+import type { SolverInfo } from "../result/types.ts";
+import type { ArrayEncoding } from "../protocol/mod.ts";
+
+/** One solve: a case on an nx × ny grid under one scheme. */
+export interface SolveTask {
+  case: CompiledCase;
+  /** Intervals (vertex layout) or cells (cell layout) along x. */
+  nx: number;
+  /** Intervals or cells along y. */
+  ny: number;
+  scheme: "central" | "upwind";
+  /** Relative residual reduction wanted (a hint for external solvers). */
+  tolerance: number;
+  /** Wall-time limit of this solve; default: the solver's own limit. */
+  timeLimitSeconds?: number;
+}
+
+/** Status of a solve (the same words as the result object's). */
+export type OutcomeStatus = "ok" | "failed" | "not-applicable";
+
+/**
+ * What a solve returns. It never throws: faults of the solver are `failed` with a precise reason,
+ * cases outside what the solver handles are `not-applicable`.
+ *
+ * Points: `x`, `y`, `values`, `weights` and `boundaryBand` have one entry per point of `layout`
+ * (x fastest for vertex and cell layouts). All arrays are empty unless the status is `ok`.
+ */
+export interface SolveOutcome {
+  status: OutcomeStatus;
+  /** Why the solve failed or does not apply (plain words); absent when ok. */
+  reason?: string;
+  /** Where the values sit: grid nodes, cell centres, or the solver's own points. */
+  layout: "vertex" | "cell" | "points";
+  nx: number;
+  ny: number;
+  x: Float64Array;
+  y: Float64Array;
+  /**
+   * Quadrature weights at the points: vertex trapezoid rule, cell hx·hy, own points as given by the
+   * solver or area/N.
+   */
+  weights: Float64Array;
+  /**
+   * 1 where the point is in the boundary band: vertex — boundary nodes and one layer in; cell — cells
+   * touching the boundary and one layer in; own points — within two representative spacings
+   * (sqrt(area/N)) of the boundary.
+   */
+  boundaryBand?: Uint8Array;
+  values: Float64Array;
+  /** Residual norms as the solver reported them (empty when none). */
+  residualHistory: number[];
+  iterations: number | null;
+  converged: boolean | null;
+  /** The solver's own timing, when it reported one. */
+  solverSeconds: number | null;
+  /** Wall time measured by the harness (process start to reply for `once` solvers). */
+  seconds: number;
+  /** Last 64 KiB of the solver's stderr during this solve (external solvers). */
+  stderrTail?: string;
+  /** The solver's describe() record, or its reported name, version and notes. */
+  description?: Record<string, unknown>;
+}
+
+/** The common shape of every backend. */
+export interface Solver {
+  info: SolverInfo;
+  /** Runs one solve; never throws and never hangs past the time limit (plus 2 s). */
+  solve(task: SolveTask): Promise<SolveOutcome>;
+  /** Releases processes and resources (ends a session); safe to call twice. */
+  close(): Promise<void>;
+}
+
+/** One external solver as written in a solver file, with defaults filled in. */
+export interface ExternalSolverSpec {
+  name: string;
+  description?: string;
+  /** Program and arguments; never run through a shell. */
+  command: string[];
+  /** Working folder, relative to the solver file's folder (default: that folder). */
+  cwd?: string;
+  /** Extra environment variables. */
+  env?: Record<string, string>;
+  /** Default "once". */
+  mode: "once" | "session";
+  /** Array encoding of requests. Default "numbers". */
+  encoding: ArrayEncoding;
+  /** Default "vertex". */
+  layout: "vertex" | "cell" | "points";
+  /** Scheme the solver implements. Default "central". */
+  scheme: "central" | "upwind";
+  /** Default 300. */
+  timeLimitSeconds: number;
+  /** Address-space limit (RLIMIT_AS via prlimit); none by default. */
+  memoryLimitMiB?: number;
+  /** Case ids reported as not applicable. Default []. */
+  skipCases: string[];
+  /** Largest accepted reply. Default 1024 (1 GiB). */
+  maxReplyMiB: number;
+}

@@ -1,0 +1,279 @@
+/**
+ * Pure numeric kernels on the padded layout of `level.ts`: flat `Float64Array` loops with no
+ * allocation and no closures inside them. Callers pass validated, consistent arrays.
+ *
+ * @module
+ */
+import type { LevelOperator } from "./level.ts";
+
+/** r = f − A·u at every node (halo of r untouched, so it stays zero). */
+export function residual(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  r: Float64Array,
+): void {
+  const { W, E, S, N, C, nx, ny, stride } = op;
+  const symmetric = W === E && S === N;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    const end = base + nx;
+    if (symmetric) {
+      for (let k = base; k <= end; k++) {
+        r[k] = f[k] -
+          (C[k] * u[k] + W[k] * (u[k - 1] + u[k + 1]) + S[k] * (u[k - stride] + u[k + stride]));
+      }
+    } else {
+      for (let k = base; k <= end; k++) {
+        r[k] = f[k] -
+          (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - stride] +
+            N[k] * u[k + stride]);
+      }
+    }
+  }
+}
+
+/** ‖f − A·u‖₂ without storing the residual. */
+export function residualNorm2(op: LevelOperator, u: Float64Array, f: Float64Array): number {
+  const { W, E, S, N, C, nx, ny, stride } = op;
+  const symmetric = W === E && S === N;
+  let sum = 0;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    const end = base + nx;
+    if (symmetric) {
+      for (let k = base; k <= end; k++) {
+        const t = f[k] -
+          (C[k] * u[k] + W[k] * (u[k - 1] + u[k + 1]) + S[k] * (u[k - stride] + u[k + stride]));
+        sum += t * t;
+      }
+    } else {
+      for (let k = base; k <= end; k++) {
+        const t = f[k] -
+          (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - stride] +
+            N[k] * u[k + stride]);
+        sum += t * t;
+      }
+    }
+  }
+  return Math.sqrt(sum);
+}
+
+/** ‖r‖₂ of a padded vector whose halo is zero. */
+export function norm2(r: Float64Array): number {
+  let s = 0;
+  for (let k = 0; k < r.length; k++) s += r[k] * r[k];
+  return Math.sqrt(s);
+}
+
+/** ‖ |f| + |A|·|u| ‖₂: the scale of the round-off in a computed residual (times ε). */
+export function roundoffScale(op: LevelOperator, u: Float64Array, f: Float64Array): number {
+  const { W, E, S, N, C, nx, ny, stride } = op;
+  let s = 0;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) {
+      const t = Math.abs(f[k]) + Math.abs(C[k] * u[k]) + Math.abs(W[k] * u[k - 1]) +
+        Math.abs(E[k] * u[k + 1]) + Math.abs(S[k] * u[k - stride]) +
+        Math.abs(N[k] * u[k + stride]);
+      s += t * t;
+    }
+  }
+  return Math.sqrt(s);
+}
+
+/** Relaxes every other node of row j, starting at column i0 (Gauss–Seidel update in place). */
+function relaxRow(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  j: number,
+  i0: number,
+): void {
+  const { W, E, S, N, invC, nx, stride } = op;
+  const base = (j + 1) * stride + 1;
+  const end = base + nx;
+  for (let k = base + i0; k <= end; k += 2) {
+    u[k] = invC[k] *
+      (f[k] - W[k] * u[k - 1] - E[k] * u[k + 1] - S[k] * u[k - stride] - N[k] * u[k + stride]);
+  }
+}
+
+/** {@link relaxRow} when E === W and N === S (two coefficient arrays fewer to stream). */
+function relaxRowSymmetric(
+  W: Float64Array,
+  S: Float64Array,
+  invC: Float64Array,
+  u: Float64Array,
+  f: Float64Array,
+  begin: number,
+  end: number,
+  stride: number,
+): void {
+  for (let k = begin; k <= end; k += 2) {
+    u[k] = invC[k] * (f[k] - W[k] * (u[k - 1] + u[k + 1]) - S[k] * (u[k - stride] + u[k + stride]));
+  }
+}
+
+/**
+ * One red–black Gauss–Seidel sweep (red: i + j even, first), fused into a single pass over memory:
+ * red nodes of row j are relaxed, then black nodes of row j − 1, whose red neighbours (rows
+ * j − 2, j − 1, j) are then all new. The result equals a full red pass followed by a full black pass.
+ */
+export function redBlackSweep(op: LevelOperator, u: Float64Array, f: Float64Array): void {
+  const { W, E, S, N, invC, nx, ny, stride } = op;
+  if (W === E && S === N) {
+    for (let j = 0; j <= ny + 1; j++) {
+      const i0 = j & 1;
+      if (j <= ny) {
+        const base = (j + 1) * stride + 1;
+        relaxRowSymmetric(W, S, invC, u, f, base + i0, base + nx, stride);
+      }
+      if (j >= 1) {
+        const base = j * stride + 1;
+        relaxRowSymmetric(W, S, invC, u, f, base + i0, base + nx, stride);
+      }
+    }
+    return;
+  }
+  for (let j = 0; j <= ny + 1; j++) {
+    if (j <= ny) relaxRow(op, u, f, j, j & 1);
+    if (j >= 1) relaxRow(op, u, f, j - 1, j & 1);
+  }
+}
+
+/** One lexicographic Gauss–Seidel sweep (x fastest, then y). */
+export function gaussSeidelSweep(op: LevelOperator, u: Float64Array, f: Float64Array): void {
+  const { W, E, S, N, invC, nx, ny, stride } = op;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) {
+      u[k] = invC[k] *
+        (f[k] - W[k] * u[k - 1] - E[k] * u[k + 1] - S[k] * u[k - stride] - N[k] * u[k + stride]);
+    }
+  }
+}
+
+/** One weighted Jacobi sweep u ← u + ω·D⁻¹(f − A·u), using `tmp` (padded, halo zero) for r. */
+export function jacobiSweep(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  omega: number,
+  tmp: Float64Array,
+): void {
+  residual(op, u, f, tmp);
+  const { invC, nx, ny, stride } = op;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) u[k] += omega * invC[k] * tmp[k];
+  }
+}
+
+/**
+ * Thomas factors of the tridiagonal line systems: for x-lines (sub W, diagonal C, super E) or
+ * y-lines (sub S, diagonal C, super N). Returns per node the modified super-diagonal `cp` and the
+ * inverse pivot `dinv`.
+ */
+export function lineFactors(
+  op: LevelOperator,
+  direction: "x" | "y",
+): { cp: Float64Array; dinv: Float64Array } {
+  const { nx, ny, stride, C } = op;
+  const sub = direction === "x" ? op.W : op.S;
+  const sup = direction === "x" ? op.E : op.N;
+  const cp = new Float64Array(op.length), dinv = new Float64Array(op.length);
+  const lines = direction === "x" ? ny : nx, len = direction === "x" ? nx : ny;
+  const step = direction === "x" ? 1 : stride;
+  for (let l = 0; l <= lines; l++) {
+    let k = direction === "x" ? (l + 1) * stride + 1 : stride + l + 1;
+    let prev = 0;
+    for (let m = 0; m <= len; m++, k += step) {
+      const piv = C[k] - (m > 0 ? sub[k] * prev : 0);
+      dinv[k] = 1 / piv;
+      prev = cp[k] = sup[k] / piv;
+    }
+  }
+  return { cp, dinv };
+}
+
+/** Line Gauss–Seidel along x on rows j0, j0 + dj, … (Thomas solve per row; `tmp` ≥ nx + 1). */
+export function lineXSweep(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  fac: { cp: Float64Array; dinv: Float64Array },
+  j0: number,
+  dj: number,
+): void {
+  const { W, S, N, nx, ny, stride } = op;
+  const { cp, dinv } = fac;
+  for (let j = j0; j <= ny; j += dj) {
+    const base = (j + 1) * stride + 1;
+    const end = base + nx;
+    // Forward elimination writes the intermediate values into u (each entry read before written).
+    let prev = 0;
+    for (let k = base; k <= end; k++) {
+      const rhs = f[k] - S[k] * u[k - stride] - N[k] * u[k + stride];
+      prev = u[k] = (rhs - W[k] * prev) * dinv[k];
+    }
+    for (let k = end - 1; k >= base; k--) u[k] -= cp[k] * u[k + 1];
+  }
+}
+
+/** Line Gauss–Seidel along y on columns i0, i0 + di, … (Thomas solve per column). */
+export function lineYSweep(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  fac: { cp: Float64Array; dinv: Float64Array },
+  i0: number,
+  di: number,
+): void {
+  const { W, E, S, nx, ny, stride } = op;
+  const { cp, dinv } = fac;
+  for (let i = i0; i <= nx; i += di) {
+    const base = stride + i + 1;
+    const end = base + ny * stride;
+    let prev = 0;
+    for (let k = base; k <= end; k += stride) {
+      const rhs = f[k] - W[k] * u[k - 1] - E[k] * u[k + 1];
+      prev = u[k] = (rhs - S[k] * prev) * dinv[k];
+    }
+    for (let k = end - stride; k >= base; k -= stride) u[k] -= cp[k] * u[k + stride];
+  }
+}
+
+/** Subtracts the mean of r over the real nodes (halo stays zero). */
+export function removeMean(op: LevelOperator, r: Float64Array): number {
+  const { nx, ny, stride } = op;
+  let s = 0;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) s += r[k];
+  }
+  const mean = s / ((nx + 1) * (ny + 1));
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) r[k] -= mean;
+  }
+  return mean;
+}
+
+/** Subtracts the trapezoid-rule mean of u (the discrete ∫u/area), so that mean becomes zero. */
+export function removeTrapezoidMean(op: LevelOperator, u: Float64Array): void {
+  const { nx, ny, stride } = op;
+  let s = 0;
+  for (let j = 0; j <= ny; j++) {
+    const wy = j === 0 || j === ny ? 0.5 : 1;
+    const base = (j + 1) * stride + 1;
+    let row = 0.5 * (u[base] + u[base + nx]);
+    for (let k = base + 1; k < base + nx; k++) row += u[k];
+    s += wy * row;
+  }
+  const mean = s / (nx * ny);
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) u[k] -= mean;
+  }
+}

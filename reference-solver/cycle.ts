@@ -1,0 +1,108 @@
+/**
+ * Multigrid cycles on a {@link Hierarchy} (levels[0] finest). One recursive coarse-grid correction
+ * serves V (γ = 1) and W (γ = 2); the F-cycle and full multigrid are short drivers on top.
+ *
+ * @module
+ */
+import type { Hierarchy } from "./hierarchy.ts";
+import type { CycleName } from "./options.ts";
+import { removeMean, residual } from "./_kernels.ts";
+
+/** Sweeps before and after the coarse-grid correction, and FMG settings. */
+export interface CycleParams {
+  pre: number;
+  post: number;
+  /** Cycle used per level inside full multigrid. Default "V". */
+  fmgCycle?: "V" | "W" | "F";
+  /** Cycles per level inside full multigrid. Default 1. */
+  fmgCyclesPerLevel?: number;
+}
+
+/**
+ * Coarse-grid correction on level l for levels[l].u, levels[l].f: relax ν1 times, restrict the
+ * residual, solve the error equation on level l + 1 by γ recursive cycles (exactly on the
+ * coarsest), interpolate and correct, relax ν2 times. On a singular level the restricted residual
+ * has its mean removed first (compatibility with the constant null space).
+ *
+ * @param h The hierarchy.
+ * @param l The level (0 = finest).
+ * @param gamma 1 for a V-cycle, 2 for a W-cycle.
+ * @param params Sweep counts.
+ */
+export function cycle(h: Hierarchy, l: number, gamma: number, params: CycleParams): void {
+  const L = h.levels[l];
+  if (L.direct !== undefined) {
+    L.direct.solve(L.u, L.f);
+    return;
+  }
+  const Lc = h.levels[l + 1];
+  L.smoother!.smooth(L.u, L.f, params.pre);
+  residual(L.op, L.u, L.f, L.r);
+  if (L.op.singular) removeMean(L.op, L.r);
+  L.transfer!.restrict(L.r, Lc.f);
+  Lc.u.fill(0);
+  const times = Lc.direct !== undefined ? 1 : gamma;
+  for (let g = 0; g < times; g++) cycle(h, l + 1, gamma, params);
+  L.transfer!.interpolateAdd(Lc.u, L.u);
+  L.smoother!.smooth(L.u, L.f, params.post);
+}
+
+/** F-cycle on level l: like {@link cycle}, but the coarse error is found by an F-cycle followed by a V-cycle. */
+export function fCycle(h: Hierarchy, l: number, params: CycleParams): void {
+  const L = h.levels[l];
+  if (L.direct !== undefined) {
+    L.direct.solve(L.u, L.f);
+    return;
+  }
+  const Lc = h.levels[l + 1];
+  L.smoother!.smooth(L.u, L.f, params.pre);
+  residual(L.op, L.u, L.f, L.r);
+  if (L.op.singular) removeMean(L.op, L.r);
+  L.transfer!.restrict(L.r, Lc.f);
+  Lc.u.fill(0);
+  fCycle(h, l + 1, params);
+  if (Lc.direct === undefined) cycle(h, l + 1, 1, params);
+  L.transfer!.interpolateAdd(Lc.u, L.u);
+  L.smoother!.smooth(L.u, L.f, params.post);
+}
+
+function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleParams): void {
+  if (type === "F") fCycle(h, l, params);
+  else cycle(h, l, type === "V" ? 1 : 2, params);
+}
+
+/**
+ * Full multigrid: solve each level's own problem (rhs) exactly on the coarsest grid, interpolate
+ * bilinearly to the next finer level as its first guess, run `fmgCyclesPerLevel` cycles of
+ * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u.
+ */
+export function fullMultigrid(h: Hierarchy, params: CycleParams): void {
+  const levels = h.levels;
+  const last = levels.length - 1;
+  const type = params.fmgCycle ?? "V", times = params.fmgCyclesPerLevel ?? 1;
+  const C = levels[last];
+  C.f.set(C.rhs);
+  C.direct!.solve(C.u, C.f);
+  for (let l = last - 1; l >= 0; l--) {
+    const L = levels[l];
+    L.transfer!.interpolate(levels[l + 1].u, L.u);
+    const dir = L.op.dirichlet;
+    for (let m = 0; m < dir.length; m++) L.u[dir[m]] = L.rhs[dir[m]];
+    if (L.f !== L.rhs) L.f.set(L.rhs);
+    for (let t = 0; t < times; t++) oneCycle(h, l, type, params);
+  }
+}
+
+/** Runs one cycle of the named kind on the finest level. */
+export type CycleRunner = (h: Hierarchy, params: CycleParams) => void;
+
+/**
+ * Registered cycles: `V`, `W`, `F`, and `fmg` (one full-multigrid pass; a solve continues with
+ * `fmgCycle` cycles after it).
+ */
+export const CYCLES = {
+  V: (h, p) => cycle(h, 0, 1, p),
+  W: (h, p) => cycle(h, 0, 2, p),
+  F: (h, p) => fCycle(h, 0, p),
+  fmg: (h, p) => fullMultigrid(h, p),
+} satisfies Record<CycleName, CycleRunner>;

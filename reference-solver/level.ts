@@ -1,0 +1,99 @@
+/**
+ * The discrete operator of one grid level, as flat stencil arrays on a padded layout.
+ *
+ * Layout: every vector on a level has a one-node halo all round, so node (i, j) of an nx × ny grid
+ * sits at index `(j + 1)·stride + i + 1` with `stride = nx + 3`, and the length is
+ * `(nx + 3)(ny + 3)`. Halo entries are zero and stay zero; stencil coefficients that point into
+ * the halo are zero. This lets every kernel run one uniform loop over all nodes, boundary included.
+ * Use {@link LevelOperator.pad} / {@link LevelOperator.unpad} to convert from and to the public
+ * layout of {@link Problem} (x fastest, no halo).
+ *
+ * Row k of the system is `W·u[k−1] + E·u[k+1] + S·u[k−stride] + N·u[k+stride] + C·u[k] = rhs[k]`.
+ *
+ * @module
+ */
+
+/** One level's operator (see the module doc for the layout). */
+export interface LevelOperator {
+  /** Intervals along x and y. */
+  readonly nx: number;
+  readonly ny: number;
+  /** Mesh widths. */
+  readonly hx: number;
+  readonly hy: number;
+  /** Row stride of the padded layout: nx + 3. */
+  readonly stride: number;
+  /** Length of every padded vector of this level: (nx + 3)(ny + 3). */
+  readonly length: number;
+  /**
+   * Stencil coefficients per node (padded layout; zero in the halo). When the operator has no
+   * first-order terms and only Dirichlet-like sides, `E === W` and `N === S` (the same arrays).
+   */
+  readonly W: Float64Array;
+  readonly E: Float64Array;
+  readonly S: Float64Array;
+  readonly N: Float64Array;
+  readonly C: Float64Array;
+  /** 1 / C (1 in the halo, never used there). */
+  readonly invC: Float64Array;
+  /** Padded indices of the Dirichlet rows (identity rows u = value). */
+  readonly dirichlet: Int32Array;
+  /** Whether constants are in the null space (only Neumann-like sides and e ≡ 0). */
+  readonly singular: boolean;
+  /** Padded index of node (i, j). */
+  index(i: number, j: number): number;
+  /** A new zero vector of this level (padded). */
+  vector(): Float64Array;
+  /** Copies a public-layout array ((nx+1)(ny+1), x fastest) into a new padded vector. */
+  pad(values: Float64Array): Float64Array;
+  /** Copies a padded vector out into a new public-layout array. */
+  unpad(padded: Float64Array): Float64Array;
+}
+
+/**
+ * Builds the layout helpers of a level; the caller supplies the coefficient arrays.
+ *
+ * @example
+ * ```ts
+ * import { levelLayout } from "./level.ts";
+ * const l = levelLayout(2, 3);
+ * if (l.index(0, 0) !== 6 || l.length !== 30) throw new Error("layout");
+ * ```
+ */
+export function levelLayout(nx: number, ny: number): Pick<
+  LevelOperator,
+  "nx" | "ny" | "stride" | "length" | "index" | "vector" | "pad" | "unpad"
+> {
+  const stride = nx + 3;
+  const length = stride * (ny + 3);
+  return {
+    nx,
+    ny,
+    stride,
+    length,
+    index: (i, j) => (j + 1) * stride + i + 1,
+    vector: () => new Float64Array(length),
+    pad(values) {
+      if (values.length !== (nx + 1) * (ny + 1)) {
+        throw new RangeError(
+          `Cannot pad a vector of length ${values.length}: a ${nx}×${ny} grid has ${
+            (nx + 1) * (ny + 1)
+          } nodes`,
+        );
+      }
+      const out = new Float64Array(length);
+      for (let j = 0; j <= ny; j++) {
+        out.set(values.subarray(j * (nx + 1), (j + 1) * (nx + 1)), (j + 1) * stride + 1);
+      }
+      return out;
+    },
+    unpad(padded) {
+      const out = new Float64Array((nx + 1) * (ny + 1));
+      for (let j = 0; j <= ny; j++) {
+        const base = (j + 1) * stride + 1;
+        out.set(padded.subarray(base, base + nx + 1), j * (nx + 1));
+      }
+      return out;
+    },
+  };
+}

@@ -1,0 +1,81 @@
+import assert from "node:assert/strict";
+import { createSmoother, SMOOTHERS } from "./smoothers.ts";
+import { buildLevel } from "./hierarchy.ts";
+import { ALL_DIRICHLET, LAPLACE, manufactured } from "./_test_problems.ts";
+import { residual } from "./_kernels.ts";
+
+const zeroSolution = {
+  u: () => 0,
+  ux: () => 0,
+  uy: () => 0,
+  uxx: () => 0,
+  uyy: () => 0,
+};
+
+Deno.test("jacobi smoother multiplies a discrete sine mode by exactly 1 − ω(sin²(kπh/2) + sin²(lπh/2))", async (t) => {
+  // Derived (CHECK-VALUES.md): sin(kπx)·sin(lπy) is an eigenvector of the 5-point Laplacian with
+  // Dirichlet sides, so one weighted Jacobi sweep on A·e = 0 scales it by that factor.
+  const n = 16, h = 1 / n;
+  const level = buildLevel(manufactured(LAPLACE, zeroSolution, { nx: n, ny: n }, ALL_DIRICHLET));
+  for (const [k, l, omega] of [[1, 1, 0.8], [3, 5, 0.8], [8, 8, 0.8], [15, 2, 0.5], [7, 12, 1]]) {
+    await t.step(`mode (${k}, ${l}) with ω = ${omega}`, () => {
+      const mode = new Float64Array((n + 1) ** 2);
+      for (let j = 0; j <= n; j++) {
+        for (let i = 0; i <= n; i++) {
+          mode[j * (n + 1) + i] = Math.sin(k * Math.PI * i * h) * Math.sin(l * Math.PI * j * h);
+        }
+      }
+      const g = 1 -
+        omega * (Math.sin(k * Math.PI * h / 2) ** 2 + Math.sin(l * Math.PI * h / 2) ** 2);
+      const u = level.pad(mode);
+      createSmoother("jacobi", level, { omega }).smooth(u, level.vector(), 1);
+      const out = level.unpad(u);
+      for (let q = 0; q < out.length; q++) {
+        assert.ok(
+          Math.abs(out[q] - g * mode[q]) <= 1e-13,
+          `node ${q}: ${out[q]} vs ${g * mode[q]}`,
+        );
+      }
+    });
+  }
+});
+
+Deno.test("every smoother reduces the error of a random start and keeps a solution fixed", async (t) => {
+  const n = 12;
+  const level = buildLevel(manufactured(LAPLACE, zeroSolution, { nx: n, ny: n }, ALL_DIRICHLET));
+  for (const name of Object.keys(SMOOTHERS) as (keyof typeof SMOOTHERS)[]) {
+    await t.step(name, () => {
+      const s = createSmoother(name, level);
+      // A fixed point: the zero solution of A·u = 0 stays zero.
+      const z = level.vector();
+      s.smooth(z, level.vector(), 3);
+      assert.ok(z.every((v) => v === 0));
+      // Energy of a rough start falls.
+      const u = level.vector();
+      let seed = 7;
+      for (let j = 1; j < n; j++) {
+        for (let i = 1; i < n; i++) {
+          seed = (seed * 16807) % 2147483647;
+          u[level.index(i, j)] = seed / 2147483647 - 0.5;
+        }
+      }
+      const r = level.vector(), f = level.vector();
+      residual(level, u, f, r);
+      const before = Math.hypot(...r);
+      s.smooth(u, f, 2);
+      residual(level, u, f, r);
+      assert.ok(Math.hypot(...r) < 0.5 * before, `${name}: ${Math.hypot(...r)} vs ${before}`);
+      assert.equal(s.describe().name, name);
+    });
+  }
+});
+
+Deno.test("createSmoother() refuses an unknown name and lists the valid ones", () => {
+  const level = buildLevel(manufactured(LAPLACE, zeroSolution, { nx: 4, ny: 4 }, ALL_DIRICHLET));
+  assert.throws(
+    () => createSmoother("sor" as never, level),
+    (e: unknown) =>
+      e instanceof RangeError && /Unknown smoother "sor"/.test(e.message) &&
+      /jacobi, gauss-seidel, red-black, line-x, line-y, alternating-line/.test(e.message),
+  );
+});

@@ -1,0 +1,135 @@
+/** Session mode: hello/ready, one request per line, restart after a fault, clean shutdown. */
+import assert from "node:assert/strict";
+import {
+  createExternalSolver,
+  type ExternalSolverSpec,
+  sampleCase,
+  type Solver,
+} from "../../harness/solvers/mod.ts";
+import { testCase } from "./_case.ts";
+
+const dir = new URL("../../testdata/protocol/", import.meta.url).pathname;
+
+function sessionSolver(args: string[], extra: Partial<ExternalSolverSpec> = {}): Solver {
+  return createExternalSolver({
+    name: "misbehave-session",
+    command: ["/usr/bin/python3", "solvers/misbehave.py", ...args],
+    mode: "session",
+    encoding: "base64",
+    layout: "vertex",
+    scheme: "central",
+    timeLimitSeconds: 20,
+    skipCases: [],
+    maxReplyMiB: 1024,
+    ...extra,
+  }, { solverFileDir: dir });
+}
+
+const task = (nx: number) => ({
+  case: testCase(),
+  nx,
+  ny: 2 * nx,
+  scheme: "central" as const,
+  tolerance: 1e-10,
+});
+
+function sessionPid(outcome: { description?: Record<string, unknown> }): number | undefined {
+  const m = /pid (\d+)/.exec(String(outcome.description?.notes ?? ""));
+  return m ? Number(m[1]) : undefined;
+}
+
+Deno.test("a session answers several requests from one process, in order", async () => {
+  const solver = sessionSolver(["session"]);
+  try {
+    const first = await solver.solve(task(4));
+    assert.equal(first.status, "ok", first.reason);
+    assert.deepEqual(first.values, sampleCase(testCase(), 4, 8, "vertex").source);
+    const pid = sessionPid(first);
+    assert.ok(pid);
+    const [second, third] = await Promise.all([solver.solve(task(8)), solver.solve(task(2))]);
+    assert.equal(second.iterations, 2, "the second request was the process's second");
+    assert.equal(third.iterations, 3);
+    assert.equal(second.values.length, 9 * 17);
+    assert.equal(sessionPid(third), pid, "the same process answered");
+    // per-solve stderr holds only that solve's lines (never an earlier solve's)
+    assert.doesNotMatch(third.stderrTail ?? "", /request [12]/);
+  } finally {
+    await solver.close();
+  }
+});
+
+Deno.test("a session crash fails that solve only; the next solve starts a fresh process", async () => {
+  const solver = sessionSolver(["session-crash", "2"]);
+  try {
+    const first = await solver.solve(task(4));
+    assert.equal(first.status, "ok", first.reason);
+    const firstPid = sessionPid(first);
+    const second = await solver.solve(task(4));
+    assert.equal(second.status, "failed");
+    assert.match(
+      second.reason ?? "",
+      /session process exited with code 5 during the solve; it will be restarted.*crashing on request 2/s,
+    );
+    const third = await solver.solve(task(4));
+    assert.equal(third.status, "ok", third.reason);
+    const thirdPid = sessionPid(third);
+    assert.ok(thirdPid && thirdPid !== firstPid, "a new process answered");
+    assert.equal(third.iterations, 1, "the new process counts from one");
+  } finally {
+    await solver.close();
+  }
+});
+
+Deno.test("a session that hangs is killed at its limit and restarted", async () => {
+  const solver = sessionSolver(["session-hang", "1"], { timeLimitSeconds: 1 });
+  try {
+    const first = await solver.solve(task(2));
+    assert.equal(first.status, "failed");
+    assert.match(first.reason ?? "", /exceeded its time limit of 1 s; its process group/);
+    // the restarted process hangs again on its first request: still a clean failure
+    const second = await solver.solve(task(2));
+    assert.equal(second.status, "failed");
+    assert.match(second.reason ?? "", /exceeded its time limit/);
+  } finally {
+    await solver.close();
+  }
+});
+
+Deno.test("a session that logs on stdout fails with the stderr advice", async () => {
+  const solver = sessionSolver(["session-logs"]);
+  try {
+    const o = await solver.solve(task(2));
+    assert.equal(o.status, "failed");
+    assert.match(o.reason ?? "", /"log line on stdout".*logs belong on stderr/);
+  } finally {
+    await solver.close();
+  }
+});
+
+Deno.test("a session's declared largest grid makes bigger grids not applicable", async () => {
+  // misbehave.py declares largestGrid 64×128
+  const solver = sessionSolver(["session"]);
+  try {
+    assert.equal((await solver.solve(task(4))).status, "ok");
+    const big = await solver.solve(task(128));
+    assert.equal(big.status, "not-applicable");
+    assert.match(big.reason ?? "", /grid 128×256 is larger than the solver's largest grid 64×128/);
+  } finally {
+    await solver.close();
+  }
+});
+
+Deno.test("a session that cannot start says why", async () => {
+  const solver = sessionSolver(["echo"], { timeLimitSeconds: 1 });
+  try {
+    // a once-mode script waits for the end of stdin and never answers hello
+    const o = await solver.solve(task(2));
+    assert.equal(o.status, "failed");
+    assert.match(
+      o.reason ?? "",
+      /^the session did not start: no ready message within 1 s of hello/,
+    );
+  } finally {
+    await solver.close();
+  }
+});

@@ -1,0 +1,291 @@
+/**
+ * Opens the HTML report in headless Chromium (Debian's `chromium`) over the DevTools protocol,
+ * checks that it loads with no console message, exception or dialog, that every expected plot is
+ * present, and that markup in the result stays text; saves screenshots to tests/artifacts/.
+ */
+import assert from "node:assert/strict";
+import { renderHtml, reportPlots } from "../../harness/report/mod.ts";
+import { HOSTILE_TEXT, makeFixtureResult } from "../../testdata/report/fixture.ts";
+
+const CHROMIUM = "/usr/bin/chromium";
+const ARTIFACTS = new URL("../artifacts/", import.meta.url);
+
+async function exists(path: string): Promise<boolean> {
+  try {
+    await Deno.stat(path);
+    return true;
+  } catch {
+    // absent: the tests below are skipped and say so
+    return false;
+  }
+}
+
+const available = await exists(CHROMIUM);
+if (!available) {
+  console.warn(
+    `SKIPPED: ${CHROMIUM} is not installed, so the HTML report is not opened in a browser`,
+  );
+}
+
+interface Event {
+  method: string;
+  params: Record<string, unknown>;
+}
+
+/** A minimal DevTools-protocol client over Deno's built-in WebSocket. */
+class Devtools {
+  #ws: WebSocket;
+  #next = 1;
+  #pending = new Map<number, { resolve(v: unknown): void; reject(e: Error): void }>();
+  #waiters: { method: string; resolve(e: Event): void }[] = [];
+  readonly events: Event[] = [];
+
+  private constructor(ws: WebSocket) {
+    this.#ws = ws;
+    ws.onmessage = (m) => {
+      const msg = JSON.parse(m.data as string);
+      if (msg.id !== undefined) {
+        const p = this.#pending.get(msg.id);
+        this.#pending.delete(msg.id);
+        if (msg.error) p?.reject(new Error(`${msg.error.message} (${msg.error.code})`));
+        else p?.resolve(msg.result);
+        return;
+      }
+      const event = { method: msg.method, params: msg.params ?? {} };
+      this.events.push(event);
+      if (event.method === "Page.javascriptDialogOpening") {
+        // a dialog would block the page; dismiss it (it stays recorded as a problem)
+        void this.send("Page.handleJavaScriptDialog", { accept: true }).catch(() => undefined);
+      }
+      this.#waiters = this.#waiters.filter((w) => {
+        if (w.method !== event.method) return true;
+        w.resolve(event);
+        return false;
+      });
+    };
+  }
+
+  static open(url: string): Promise<Devtools> {
+    const ws = new WebSocket(url);
+    return new Promise((resolve, reject) => {
+      ws.onopen = () => resolve(new Devtools(ws));
+      ws.onerror = () => reject(new Error(`cannot connect to ${url}`));
+    });
+  }
+
+  send(method: string, params: Record<string, unknown> = {}): Promise<Record<string, unknown>> {
+    const id = this.#next++;
+    this.#ws.send(JSON.stringify({ id, method, params }));
+    return new Promise((resolve, reject) =>
+      this.#pending.set(id, { resolve: (v) => resolve(v as Record<string, unknown>), reject })
+    );
+  }
+
+  waitFor(method: string): Promise<Event> {
+    return new Promise((resolve) => this.#waiters.push({ method, resolve }));
+  }
+
+  close(): Promise<void> {
+    return new Promise((resolve) => {
+      if (this.#ws.readyState === WebSocket.CLOSED) return resolve();
+      this.#ws.onclose = () => resolve();
+      this.#ws.close();
+    });
+  }
+}
+
+function timeout<T>(promise: Promise<T>, seconds: number, what: string): Promise<T> {
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const limit = new Promise<never>((_, reject) => {
+    timer = setTimeout(
+      () => reject(new Error(`timed out after ${seconds} s: ${what}`)),
+      seconds * 1000,
+    );
+  });
+  return Promise.race([promise, limit]).finally(() => clearTimeout(timer));
+}
+
+interface PageReport {
+  events: Event[];
+  page: Record<string, unknown>;
+}
+
+/** Loads a file in a fresh headless Chromium, evaluates `probe` and saves screenshots. */
+async function openInChromium(file: string, probe: string, shot?: string): Promise<PageReport> {
+  const profile = await Deno.makeTempDir({ prefix: "gridproof-chromium-" });
+  const child = new Deno.Command(CHROMIUM, {
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+      `--user-data-dir=${profile}`,
+      "--remote-debugging-port=0",
+      "about:blank",
+    ],
+    stdin: "null",
+    stdout: "null",
+    stderr: "piped",
+  }).spawn();
+  // read stderr to the end (so Chromium never blocks on a full pipe), resolving the DevTools URL
+  let found: (url: string) => void = () => {};
+  const endpoint = new Promise<string>((resolve) => found = resolve);
+  const drained = (async () => {
+    let text = "";
+    for await (const chunk of child.stderr.pipeThrough(new TextDecoderStream())) {
+      text += chunk;
+      const m = text.match(/DevTools listening on (ws:\/\/\S+)/);
+      if (m) found(m[1]);
+    }
+    return text;
+  })();
+  let devtools: Devtools | undefined;
+  try {
+    const browserUrl = await timeout(endpoint, 30, "Chromium to start");
+    const port = new URL(browserUrl).port;
+    const targets = await (await fetch(`http://127.0.0.1:${port}/json/list`)).json() as {
+      type: string;
+      webSocketDebuggerUrl: string;
+    }[];
+    const page = targets.find((t) => t.type === "page");
+    assert.ok(page, "Chromium opened a page");
+    devtools = await Devtools.open(page.webSocketDebuggerUrl);
+    await devtools.send("Runtime.enable");
+    await devtools.send("Log.enable");
+    await devtools.send("Page.enable");
+    await devtools.send("Emulation.setDeviceMetricsOverride", {
+      width: 1280,
+      height: 1800,
+      deviceScaleFactor: 1,
+      mobile: false,
+    });
+    const loaded = devtools.waitFor("Page.loadEventFired");
+    await devtools.send("Page.navigate", { url: `file://${file}` });
+    await timeout(loaded, 30, "the report to load");
+    const evaluated = await devtools.send("Runtime.evaluate", {
+      expression: probe,
+      returnByValue: true,
+    });
+    const value = (evaluated.result as { value: Record<string, unknown> }).value;
+    if (shot) {
+      await Deno.mkdir(ARTIFACTS, { recursive: true });
+      const top = await devtools.send("Page.captureScreenshot", { format: "png" });
+      await Deno.writeFile(new URL(`${shot}.png`, ARTIFACTS), decode(top.data as string));
+      const metrics = await devtools.send("Page.getLayoutMetrics");
+      const size = metrics.cssContentSize as { width: number; height: number };
+      const full = await devtools.send("Page.captureScreenshot", {
+        format: "png",
+        captureBeyondViewport: true,
+        clip: { x: 0, y: 0, width: 1280, height: Math.ceil(size.height), scale: 1 },
+      });
+      await Deno.writeFile(new URL(`${shot}-full.png`, ARTIFACTS), decode(full.data as string));
+    }
+    await devtools.send("Browser.close").catch(() => undefined);
+    return { events: devtools.events, page: value };
+  } finally {
+    await devtools?.close();
+    try {
+      child.kill("SIGKILL");
+    } catch {
+      // already exited after Browser.close
+    }
+    await child.status;
+    await drained;
+    await Deno.remove(profile, { recursive: true }).catch(() => undefined);
+  }
+}
+
+function decode(base64: string): Uint8Array {
+  return Uint8Array.from(atob(base64), (c) => c.charCodeAt(0));
+}
+
+/** Console calls, exceptions, error log entries and dialogs: a clean page has none. */
+function problems(events: Event[]): string[] {
+  return events
+    .filter((e) =>
+      e.method === "Runtime.consoleAPICalled" || e.method === "Runtime.exceptionThrown" ||
+      e.method === "Page.javascriptDialogOpening" ||
+      (e.method === "Log.entryAdded" &&
+        ["error", "warning"].includes((e.params.entry as { level: string }).level))
+    )
+    .map((e) => `${e.method}: ${JSON.stringify(e.params).slice(0, 300)}`);
+}
+
+const PROBE = `(() => ({
+  plots: [...document.querySelectorAll("figure.plot")].map((f) => ({
+    kind: f.dataset.plot,
+    svgs: f.querySelectorAll(":scope > svg").length,
+    width: f.querySelector("svg")?.getBoundingClientRect().width ?? 0,
+    texts: [...f.querySelectorAll("svg text")].map((t) => t.textContent),
+  })),
+  scripts: document.scripts.length,
+  images: document.images.length,
+  heading: document.querySelector("section.case h2")?.textContent ?? "",
+  caution: document.querySelector(".caution")?.textContent ?? "",
+}))()`;
+
+Deno.test({
+  name: "the HTML report loads in headless Chromium with no console errors and every plot drawn",
+  ignore: !available,
+  sanitizeResources: false,
+  sanitizeOps: false,
+  async fn() {
+    const result = makeFixtureResult();
+    const dir = await Deno.makeTempDir();
+    try {
+      const file = `${dir}/report.html`;
+      await Deno.writeTextFile(file, await renderHtml(result));
+      const { events, page } = await openInChromium(file, PROBE, "report");
+      assert.deepEqual(problems(events), []);
+      const plots = page.plots as { kind: string; svgs: number; width: number; texts: string[] }[];
+      const expected = reportPlots(result).map((p) => p.kind);
+      assert.deepEqual(plots.map((p) => p.kind), expected);
+      assert.equal(expected.length, 8);
+      for (const p of plots) {
+        assert.equal(p.svgs, 1, `${p.kind} has its SVG`);
+        assert.ok(p.width > 200, `${p.kind} is drawn at a readable size (${p.width}px)`);
+      }
+      // labelled axes and legends
+      const errors = plots.find((p) => p.kind === "errors")!;
+      for (const label of ["grid spacing h", "error", "solver", "norm", "expected order 2"]) {
+        assert.ok(errors.texts.includes(label), `error plot shows "${label}"`);
+      }
+      const cost = plots.find((p) => p.kind === "cost")!;
+      for (const label of ["unknowns", "iterations", "solve time (s)"]) {
+        assert.ok(cost.texts.includes(label), `cost plot shows "${label}"`);
+      }
+      assert.ok(plots.find((p) => p.kind === "residuals")!.texts.includes("residual norm ‖r‖"));
+      assert.equal(page.scripts, 0);
+      assert.match(page.caution as string, /does not validate the physical model/);
+    } finally {
+      await Deno.remove(dir, { recursive: true });
+    }
+  },
+});
+
+Deno.test({
+  name: "markup in case titles and solver notes stays text in the browser and never runs",
+  ignore: !available,
+  sanitizeResources: false,
+  sanitizeOps: false,
+  async fn() {
+    const result = makeFixtureResult({ hostile: true });
+    const dir = await Deno.makeTempDir();
+    try {
+      const file = `${dir}/hostile.html`;
+      await Deno.writeTextFile(file, await renderHtml(result));
+      const { events, page } = await openInChromium(file, PROBE);
+      assert.deepEqual(problems(events), [], "no dialog, no exception, no blocked script");
+      assert.equal(page.scripts, 0);
+      assert.equal(page.images, 0);
+      assert.equal(page.heading, `poisson-sine — Poisson with a sine solution ${HOSTILE_TEXT}`);
+      assert.equal((page.plots as unknown[]).length, 8, "a stray </svg> closed no plot early");
+    } finally {
+      await Deno.remove(dir, { recursive: true });
+    }
+  },
+});
