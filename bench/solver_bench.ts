@@ -3,12 +3,14 @@
  *
  * For each n (default 256, 512, 1024, 2048; choose with `--n 256,512`) on the problem of
  * `bench_problem.ts` it measures, in one run and side by side:
- * - a Float64Array triad pass a[i] = b[i] + s·c[i] over arrays of (n+1)² doubles (best of 5), the
- *   memory-bandwidth yardstick;
+ * - a Float64Array triad pass a[i] = b[i] + s·c[i] over arrays of (n+1)² doubles, the
+ *   memory-bandwidth yardstick, and one V(2,1) red–black full-weighting cycle alone
+ *   (`secondsPerCycle`, on a hierarchy built beforehand), measured alternately, best of 5 each;
  * - a full solve from zero to relative residual 1e-10 with the defaults (V(2,1), red–black,
- *   full weighting), sampling excluded: solve seconds, setup seconds, cycles, stop reason, average
- *   convergence factor, seconds per cycle ((solve − setup)/cycles, each cycle including the
- *   residual norm of the stopping test);
+ *   full weighting), sampling excluded: solve seconds (setup included), setup seconds, cycles,
+ *   stop reason, average convergence factor, and seconds per iteration ((solve − setup)/cycles:
+ *   a cycle plus the residual norm of the stopping test);
+ * - the same solve started by one FMG pass (`cycle.type: "fmg"`): `fmgSolveSeconds`;
  * - one FMG pass with one V(2,1) per level: seconds (setup excluded) and the ratio of its max-norm
  *   error to that of the fully converged solution (fmgErrorRatio);
  * - peak resident memory so far (VmHWM from /proc/self/status, Linux).
@@ -17,7 +19,13 @@
  *
  * @module
  */
-import { solve, type SolveResult } from "../reference-solver/mod.ts";
+import {
+  buildHierarchy,
+  cycle,
+  resolveOptions,
+  solve,
+  type SolveResult,
+} from "../reference-solver/mod.ts";
 import { benchProblem } from "./bench_problem.ts";
 
 interface Row {
@@ -30,6 +38,9 @@ interface Row {
   stopReason: string;
   convergenceFactor: number;
   secondsPerCycle: number;
+  iterationSeconds: number;
+  fmgSolveSeconds: number;
+  fmgSolveCycles: number;
   fmgSeconds: number;
   fmgErrorRatio: number;
   discretizationError: number;
@@ -39,11 +50,20 @@ interface Row {
   peakRssMiB: number;
 }
 
+let triadArrays: Float64Array[] = [];
+
+/** Seconds of one triad pass a[i] = b[i] + s·c[i] over `size` doubles (best of 3). */
 function triadSeconds(size: number): number {
-  const a = new Float64Array(size), b = new Float64Array(size).fill(1.5);
-  const c = new Float64Array(size).fill(0.25);
+  if (triadArrays[0]?.length !== size) {
+    triadArrays = [
+      new Float64Array(size),
+      new Float64Array(size).fill(1.5),
+      new Float64Array(size).fill(0.25),
+    ];
+  }
+  const [a, b, c] = triadArrays;
   let best = Infinity;
-  for (let rep = 0; rep < 5; rep++) {
+  for (let rep = 0; rep < 3; rep++) {
     const s = 1 + rep * 1e-3;
     const t0 = performance.now();
     for (let i = 0; i < size; i++) a[i] = b[i] + s * c[i];
@@ -84,7 +104,16 @@ function best(runs: number, f: () => SolveResult): SolveResult {
 function measure(n: number, repeat: number): Row {
   const { problem, exact } = benchProblem(n);
   const unknowns = (n + 1) * (n + 1);
-  const triad = triadSeconds(unknowns);
+  // Triad and cycle measured alternately, best of 5 each, so both see the same machine load.
+  const h = buildHierarchy(problem, resolveOptions());
+  let triad = Infinity, cycleSeconds = Infinity;
+  for (let rep = 0; rep < 5; rep++) {
+    triad = Math.min(triad, triadSeconds(unknowns));
+    const t0 = performance.now();
+    cycle(h, 0, 1, { pre: 2, post: 1 });
+    cycleSeconds = Math.min(cycleSeconds, (performance.now() - t0) / 1000);
+  }
+  h.levels.length = 0; // let the garbage collector take it before the solves
   const full = best(repeat, () => solve(problem));
   const err = maxError(full.solution, exact);
   const fmg = best(
@@ -92,7 +121,8 @@ function measure(n: number, repeat: number): Row {
     () => solve(problem, { cycle: { type: "fmg" }, stop: { maxCycles: 1 } }),
   );
   const fmgSeconds = fmg.seconds - fmg.setupSeconds;
-  const secondsPerCycle = (full.seconds - full.setupSeconds) / full.cycles;
+  const iterationSeconds = (full.seconds - full.setupSeconds) / full.cycles;
+  const fmgSolve = best(repeat, () => solve(problem, { cycle: { type: "fmg" } }));
   return {
     n,
     unknowns,
@@ -102,11 +132,14 @@ function measure(n: number, repeat: number): Row {
     cycles: full.cycles,
     stopReason: full.reason,
     convergenceFactor: full.averageFactor,
-    secondsPerCycle,
+    secondsPerCycle: cycleSeconds,
+    iterationSeconds,
+    fmgSolveSeconds: fmgSolve.seconds,
+    fmgSolveCycles: fmgSolve.cycles,
     fmgSeconds,
     fmgErrorRatio: maxError(fmg.solution, exact) / err,
     discretizationError: err,
-    cyclePerTriad: secondsPerCycle / triad,
+    cyclePerTriad: cycleSeconds / triad,
     fmgPerTriad: fmgSeconds / triad,
     solvePerTriad: full.seconds / triad,
     peakRssMiB: peakRssMiB(),
@@ -147,6 +180,7 @@ function main(): void {
     "stop",
     "solve s",
     "setup s",
+    "fmg+V solve s",
     "fmg s",
     "fmg/triad",
     "fmg err ratio",
@@ -170,6 +204,7 @@ function main(): void {
       r.stopReason,
       r.solveSeconds.toFixed(3),
       r.setupSeconds.toFixed(3),
+      `${r.fmgSolveSeconds.toFixed(3)} (${r.fmgSolveCycles})`,
       r.fmgSeconds.toFixed(3),
       r.fmgPerTriad.toFixed(1),
       r.fmgErrorRatio.toFixed(3),

@@ -82,7 +82,7 @@ export function readJsonWithPositions(text: string): LocatedJson {
     at++; // opening quote
     let out = "";
     while (true) {
-      if (at >= text.length) fail("unterminated string (a closing \" is missing)", start);
+      if (at >= text.length) fail('unterminated string (a closing " is missing)', start);
       const ch = text[at];
       if (ch === '"') {
         at++;
@@ -140,7 +140,9 @@ export function readJsonWithPositions(text: string): LocatedJson {
         if (Object.hasOwn(obj, key)) fail(`field "${key}" appears twice`, keyAt);
         keyPositions.set(child, where(keyAt));
         skip();
-        if (text[at] !== ":") fail(`expected ':' after the field name "${key}", found ${describe(at)}`);
+        if (text[at] !== ":") {
+          fail(`expected ':' after the field name "${key}", found ${describe(at)}`);
+        }
         at++;
         obj[key] = readValue(child, depth + 1);
         skip();

@@ -66,7 +66,8 @@ export function loadMath(): Promise<MathTools> {
         SymbolNode: instance.SymbolNode as unknown as MathTools["nodes"]["SymbolNode"],
         OperatorNode: instance.OperatorNode as unknown as MathTools["nodes"]["OperatorNode"],
         FunctionNode: instance.FunctionNode as unknown as MathTools["nodes"]["FunctionNode"],
-        ParenthesisNode: instance.ParenthesisNode as unknown as MathTools["nodes"]["ParenthesisNode"],
+        ParenthesisNode: instance
+          .ParenthesisNode as unknown as MathTools["nodes"]["ParenthesisNode"],
       },
     };
     const refusals: Record<string, () => never> = {};

@@ -25,7 +25,13 @@ export interface CaseFile {
   manufactured: string;
   domain: { x0: number; x1: number; y0: number; y1: number };
   aspect?: number;
-  coefficients: { a: ExpressionText; b: ExpressionText; c: ExpressionText; d: ExpressionText; e: ExpressionText };
+  coefficients: {
+    a: ExpressionText;
+    b: ExpressionText;
+    c: ExpressionText;
+    d: ExpressionText;
+    e: ExpressionText;
+  };
   exact: ExpressionText;
   boundary: Record<Side, SideSpec>;
   parameters?: Record<string, number>;

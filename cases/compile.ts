@@ -319,7 +319,7 @@ function plan(exprs: readonly Expr[], mode: Mode): Plan {
     if (ctx[r] === 3 || mode === "point" && ctx[r] !== 0) sameUses[r] += 1;
     else cross[r] = true;
   }
-  const temp = dag.nodes.map((node, id) =>
+  const temp = dag.nodes.map((_node, id) =>
     reachable[id] && !leaf(id) && (sameUses[id] >= 2 || (cross[id] && ctx[id] !== 1))
   );
   return { dag, roots, ctx, temp, cross };

@@ -38,7 +38,9 @@ export async function compileExpression(
     throw new RangeError(
       `cannot compile the expression "${text}": ` +
         problems.map((p) =>
-          p.column === undefined ? p.message : `${p.message} (column ${p.column})\n${pointAt(text, p.column)}`
+          p.column === undefined
+            ? p.message
+            : `${p.message} (column ${p.column})\n${pointAt(text, p.column)}`
         ).join("; "),
     );
   }

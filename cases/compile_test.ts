@@ -59,7 +59,10 @@ Deno.test("the fused point function and the row sampler give the same numbers as
   for (let j = 0; j <= ny; j++) {
     for (let i = 0; i <= nx; i++) {
       single.forEach((f, k) =>
-        assertClose(outputs[k][j * (nx + 1) + i], f(x0 + i * hx, y0 + j * hy), { rel: 1e-15, abs: 0 })
+        assertClose(outputs[k][j * (nx + 1) + i], f(x0 + i * hx, y0 + j * hy), {
+          rel: 1e-15,
+          abs: 0,
+        })
       );
     }
   }
@@ -67,7 +70,10 @@ Deno.test("the fused point function and the row sampler give the same numbers as
 
 Deno.test("common subexpressions are evaluated once in generated code", async () => {
   const math = await loadMath();
-  const e = toExpr(parseExpression(math, "sin(pi*x)*exp(y) + sin(pi*x)^2 + exp(y)*cos(pi*x)", []).node!, {});
+  const e = toExpr(
+    parseExpression(math, "sin(pi*x)*exp(y) + sin(pi*x)^2 + exp(y)*cos(pi*x)", []).node!,
+    {},
+  );
   const source = pointSource([e]);
   assert.equal(source.match(/Math\.sin/g)?.length, 1, source);
   assert.equal(source.match(/Math\.exp/g)?.length, 1, source);
@@ -75,16 +81,23 @@ Deno.test("common subexpressions are evaluated once in generated code", async ()
 
 Deno.test("generated source contains only numbers, x, y, temporaries and Math calls", async () => {
   const math = await loadMath();
-  const e = toExpr(parseExpression(math, "atan2(y, x) + log(x + 2, 3) * hypot(x, y) - k", ["k"]).node!, { k: 7 });
+  const e = toExpr(
+    parseExpression(math, "atan2(y, x) + log(x + 2, 3) * hypot(x, y) - k", ["k"]).node!,
+    { k: 7 },
+  );
   const source = pointSource([e]);
   const identifiers = new Set(source.match(/[A-Za-z_$][A-Za-z0-9_$]*/g));
   const allowed = /^(use|strict|const|return|function|x|y|Math|atan2|log|hypot|[ct]\d+|e)$/;
-  for (const id of identifiers) assert.match(id, allowed, `unexpected identifier ${id} in\n${source}`);
+  for (const id of identifiers) {
+    assert.match(id, allowed, `unexpected identifier ${id} in\n${source}`);
+  }
 });
 
 Deno.test("the whitelist refuses mathjs's own import, evaluate, parse, createUnit and config without running them", async () => {
   const math = await loadMath();
-  for (const name of ["import", "evaluate", "parse", "createUnit", "config", "simplify", "derivative"]) {
+  for (
+    const name of ["import", "evaluate", "parse", "createUnit", "config", "simplify", "derivative"]
+  ) {
     const { node, problems } = parseExpression(math, `${name}("x")`, []);
     assert.equal(node, undefined);
     assert.ok(problems.some((p) => p.message.includes(`function "${name}" is not allowed`)), name);
@@ -110,13 +123,19 @@ Deno.test("unknown names, matrices, assignments, property access and strings are
   ];
   for (const [text, pattern] of cases) {
     const { problems } = parseExpression(math, text, []);
-    assert.ok(problems.some((p) => pattern.test(p.message)), `${text}: ${JSON.stringify(problems)}`);
+    assert.ok(
+      problems.some((p) => pattern.test(p.message)),
+      `${text}: ${JSON.stringify(problems)}`,
+    );
   }
 });
 
 Deno.test("expressions longer than 2000 characters or deeper than 64 levels are refused", async () => {
   const math = await loadMath();
-  assert.match(parseExpression(math, "x+".repeat(1000) + "x", []).problems[0].message, /limit of 2000/);
+  assert.match(
+    parseExpression(math, "x+".repeat(1000) + "x", []).problems[0].message,
+    /limit of 2000/,
+  );
   const deep = "sin(".repeat(70) + "x" + ")".repeat(70);
   assert.match(parseExpression(math, deep, []).problems[0].message, /deeper than 64/);
 });

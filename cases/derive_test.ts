@@ -8,7 +8,8 @@ import type { PointFn } from "./types.ts";
 
 /** Richardson-extrapolated central differences (fourth order) of a point function. */
 function differences(u: PointFn, x: number, y: number, h: number) {
-  const d1 = (s: number, dx: number, dy: number) => (u(x + s * dx, y + s * dy) - u(x - s * dx, y - s * dy)) / (2 * s);
+  const d1 = (s: number, dx: number, dy: number) =>
+    (u(x + s * dx, y + s * dy) - u(x - s * dx, y - s * dy)) / (2 * s);
   const d2 = (s: number, dx: number, dy: number) =>
     (u(x + s * dx, y + s * dy) - 2 * u(x, y) + u(x - s * dx, y - s * dy)) / (s * s);
   const rich = (f: (s: number) => number) => (4 * f(h / 2) - f(h)) / 3;
@@ -64,11 +65,16 @@ Deno.test("the derived Laplacian of sin(kπx)·sin(lπy) is −(k² + l²)π² t
   // Derived: ∂²/∂x² sin(kπx) = −k²π² sin(kπx), likewise in y.
   const random = mulberry32(11);
   for (const [k, l] of [[1, 1], [2, 3], [5, 1], [4, 4]]) {
-    const c = await buildCase(testCase({ exact: `sin(${k}*pi*x)*sin(${l}*pi*y)` }), { origin: "test" });
+    const c = await buildCase(testCase({ exact: `sin(${k}*pi*x)*sin(${l}*pi*y)` }), {
+      origin: "test",
+    });
     for (let n = 0; n < 10; n++) {
       const x = random(), y = random();
       const u = Math.sin(k * Math.PI * x) * Math.sin(l * Math.PI * y);
-      assertClose(c.source(x, y), -(k * k + l * l) * Math.PI * Math.PI * u, { rel: 1e-12, abs: 1e-12 });
+      assertClose(c.source(x, y), -(k * k + l * l) * Math.PI * Math.PI * u, {
+        rel: 1e-12,
+        abs: 1e-12,
+      });
     }
   }
 });
@@ -93,7 +99,9 @@ Deno.test("outward normals: ∂u/∂n of u = x + 2y is −1, 1, −2, 2 on west,
 Deno.test("atan2, hypot, min and max in an exact solution are differentiated through equal forms", async () => {
   // Derived: atan2(y, x) has gradient (−y, x)/r²; hypot(x, y) has gradient (x, y)/r;
   // max(x, y) has gradient (1, 0) where x > y.
-  const c1 = await buildCase(testCase({ exact: "atan2(y, x + 1) + hypot(x, y) + max(x, y)" }), { origin: "test" });
+  const c1 = await buildCase(testCase({ exact: "atan2(y, x + 1) + hypot(x, y) + max(x, y)" }), {
+    origin: "test",
+  });
   const x = 0.7, y = 0.2, r2 = (x + 1) ** 2 + y * y, r = Math.hypot(x, y);
   assertClose(c1.exactDx(x, y), -y / r2 + x / r + 1, { rel: 1e-12 });
   assertClose(c1.exactDy(x, y), (x + 1) / r2 + y / r, { rel: 1e-12 });
@@ -106,6 +114,7 @@ Deno.test("a parameter is a constant in derivatives and can be overridden at loa
   assertClose(c.source(0.5, 0.5), 9 * Math.exp(1.5), { rel: 1e-13 });
   await assert.rejects(
     buildCase(file, { origin: "test", parameters: { q: 1 } }),
-    (e: unknown) => e instanceof RangeError && /no parameter "q"; valid parameters: k/.test(e.message),
+    (e: unknown) =>
+      e instanceof RangeError && /no parameter "q"; valid parameters: k/.test(e.message),
   );
 });

@@ -16,12 +16,7 @@ import { formatProblem } from "./case_file.ts";
 import { compileExpr, compileRowSampler } from "./compile.ts";
 import { deriveTrees, isZeroTree } from "./derive.ts";
 import { type Expr, parseExpression, pointAt, toExpr } from "./expression.ts";
-import {
-  checkGridSize,
-  sampleProblem,
-  sampleProblemParallel,
-  type SamplerSpec,
-} from "./sample.ts";
+import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import type { CaseBoundary, CaseFormulas, CompiledCase, ExpectedOrder } from "./types.ts";
 
 /** Options of {@link buildCase}. */
@@ -263,7 +258,7 @@ function assemble(
     },
     gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * aspect)) }),
     sample: (nx: number, ny: number) => sampleProblem(spec, nx, ny),
-    sampleAsync: (nx: number, ny: number, opts?: { workers?: number; minNodes?: number }) =>
+    sampleAsync: (nx: number, ny: number, opts?: { threads?: number; minNodes?: number }) =>
       sampleProblemParallel(spec, nx, ny, opts),
     sampleExact: (nx: number, ny: number) => {
       checkGridSize(nx, ny);

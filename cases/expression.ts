@@ -228,7 +228,8 @@ export function parseExpression(
   if (text.length > MAX_EXPRESSION_LENGTH) {
     return {
       problems: [{
-        message: `expression is ${text.length} characters long, more than the limit of ${MAX_EXPRESSION_LENGTH}`,
+        message:
+          `expression is ${text.length} characters long, more than the limit of ${MAX_EXPRESSION_LENGTH}`,
       }],
     };
   }

@@ -121,7 +121,10 @@ export async function libraryFiles(): Promise<CaseFile[]> {
   const files: CaseFile[] = [];
   for (const id of libraryIds()) {
     const label = `cases/library/${id}.json`;
-    const { value, problems } = validateCaseText(await readText(new URL(`${id}.json`, LIBRARY)), label);
+    const { value, problems } = validateCaseText(
+      await readText(new URL(`${id}.json`, LIBRARY)),
+      label,
+    );
     if (!value) {
       throw new InputError("the built-in case file is broken", {
         where: label,

@@ -36,6 +36,7 @@ export {
   type LoadOptions,
 } from "./load.ts";
 export { type CaseValidation, validateCaseText } from "./validate.ts";
+export { buildCase, type BuildOptions } from "./engine.ts";
 export { compileExpression, type CompileExpressionOptions } from "./compile_expression.ts";
 export {
   compileExpr,

@@ -180,15 +180,18 @@ function finish(spec: SamplerSpec, nx: number, ny: number, arrays: Float64Array[
 
 /** Options of {@link sampleProblemParallel}. */
 export interface ParallelOptions {
-  /** Number of workers the rows are split across. Default: 2. */
-  workers?: number;
-  /** Grids with fewer nodes than this are sampled on the calling thread. Default: 2^17. */
+  /**
+   * Threads sharing the rows, the calling thread included: part 0 runs here, the others in Deno
+   * workers. Default: 2 (this thread and one worker, i.e. both cores of a two-core machine).
+   */
+  threads?: number;
+  /** Grids with fewer nodes than this are sampled on the calling thread alone. Default: 2^17. */
   minNodes?: number;
 }
 
 /**
- * Samples a case with its rows split across Deno workers (SharedArrayBuffer-backed arrays); small
- * grids fall back to {@link sampleProblem}.
+ * Samples a case with its rows split between the calling thread and Deno workers
+ * (SharedArrayBuffer-backed arrays); small grids fall back to {@link sampleProblem}.
  */
 export async function sampleProblemParallel(
   spec: SamplerSpec,
@@ -197,20 +200,23 @@ export async function sampleProblemParallel(
   options: ParallelOptions = {},
 ): Promise<Problem> {
   checkGridSize(nx, ny);
-  const workers = options.workers ?? 2;
+  const threads = options.threads ?? 2;
   const minNodes = options.minNodes ?? 2 ** 17;
-  if (!Number.isInteger(workers) || workers < 1 || workers > 64) {
-    throw new RangeError(`workers must be an integer from 1 to 64, found ${workers}`);
+  if (!Number.isInteger(threads) || threads < 1 || threads > 64) {
+    throw new RangeError(`threads must be an integer from 1 to 64, found ${threads}`);
   }
   const size = (nx + 1) * (ny + 1);
-  if (size < minNodes) return sampleProblem(spec, nx, ny);
+  if (size < minNodes || threads === 1) return sampleProblem(spec, nx, ny);
   const buffers = FIELDS.map(() => new SharedArrayBuffer(size * 8));
+  const arrays = buffers.map((b) => new Float64Array(b));
   const { hx, hy } = spacing(spec.domain, nx, ny);
   const rows = ny + 1;
+  const share = (w: number) => Math.floor((w * rows) / threads);
   const jobs: Promise<void>[] = [];
-  for (let w = 0; w < workers; w++) {
-    const j0 = Math.floor((w * rows) / workers);
-    const j1 = Math.floor(((w + 1) * rows) / workers);
+  // start the workers first, then do this thread's share while they run
+  for (let w = 1; w < threads; w++) {
+    const j0 = share(w);
+    const j1 = share(w + 1);
     if (j1 <= j0) continue;
     jobs.push(runWorker({
       source: spec.problemSampler.source,
@@ -224,8 +230,9 @@ export async function sampleProblemParallel(
       buffers,
     }));
   }
+  spec.problemSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, share(1), arrays);
   await Promise.all(jobs);
-  return finish(spec, nx, ny, buffers.map((b) => new Float64Array(b)));
+  return finish(spec, nx, ny, arrays);
 }
 
 /** The message a sampling worker receives. */

@@ -88,8 +88,13 @@ export interface CompiledCase {
   /** The exact solution at every node of an nx × ny grid (x fastest), one fused compiled pass. */
   sampleExact(nx: number, ny: number): Float64Array;
   /**
-   * Like {@link CompiledCase.sample}, with the rows split across Deno workers for large grids
-   * (SharedArrayBuffer-backed arrays). Defaults: 2 workers, grids below 2^17 nodes on this thread.
+   * Like {@link CompiledCase.sample}, with the rows of large grids split between this thread and
+   * Deno workers (SharedArrayBuffer-backed arrays). Defaults: `threads` 2 (this thread and one
+   * worker), grids below `minNodes` = 2^17 nodes on this thread alone.
    */
-  sampleAsync(nx: number, ny: number, options?: { workers?: number; minNodes?: number }): Promise<Problem>;
+  sampleAsync(
+    nx: number,
+    ny: number,
+    options?: { threads?: number; minNodes?: number },
+  ): Promise<Problem>;
 }

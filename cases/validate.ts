@@ -74,9 +74,9 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
       file,
       field: fieldPath(pointer),
       ...at(pointer, true),
-      message: `unknown field "${name}"${near ? `; did you mean "${near}"?` : ""} (valid fields here: ${
-        valid.join(", ")
-      })`,
+      message: `unknown field "${name}"${
+        near ? `; did you mean "${near}"?` : ""
+      } (valid fields here: ${valid.join(", ")})`,
     });
   }
   for (const e of errors) {
@@ -127,9 +127,9 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
           file,
           field,
           ...at(pointer),
-          message: `must be ${String((e.params as { type: unknown }).type).replace(",", " or ")}, found ${
-            describeValue(e.data)
-          }`,
+          message: `must be ${
+            String((e.params as { type: unknown }).type).replace(",", " or ")
+          }, found ${describeValue(e.data)}`,
         });
         continue;
       default: {

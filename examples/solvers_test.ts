@@ -1,6 +1,7 @@
 import assert from "node:assert/strict";
 import { Ajv2020 } from "ajv/dist/2020";
 import { findScipyPython } from "../testing/mod.ts";
+import { loadSolverFile } from "../harness/solvers/mod.ts";
 import {
   buildRequest,
   decodeValues,
@@ -12,7 +13,9 @@ import {
 } from "./test_requests.ts";
 
 const HERE = new URL(".", import.meta.url);
-const FILE = JSON.parse(await Deno.readTextFile(new URL("solvers.json", HERE)));
+const FILE: { solvers: Entry[] } = JSON.parse(
+  await Deno.readTextFile(new URL("solvers.json", HERE)),
+);
 const PYTHON = await findScipyPython();
 
 interface Entry {
@@ -37,15 +40,19 @@ Deno.test("examples/solvers.json follows the solver-file schema", async () => {
   const ajv = new Ajv2020({ allErrors: true, strict: false });
   const validate = ajv.compile(schema);
   assert.ok(validate(FILE), JSON.stringify(validate.errors, null, 2));
-  const names = FILE.solvers.map((s: Entry) => s.name);
+  const names = FILE.solvers.map((s) => s.name);
   assert.equal(new Set(names).size, names.length, `duplicate names in ${names}`);
+  // and gridproof's own loader accepts it
+  const specs = await loadSolverFile(new URL("solvers.json", HERE).pathname);
+  assert.deepEqual(specs.map((s) => s.name), names);
 });
 
-for (const entry of FILE.solvers as Entry[]) {
+for (const entry of FILE.solvers) {
   const needsScipy = entry.command[0].includes("python");
   const skip = needsScipy && PYTHON !== "/usr/bin/python3";
   Deno.test({
-    name: `solvers.json entry ${entry.name} starts as written and solves a quadratic case exactly` +
+    name:
+      `solvers.json entry ${entry.name} starts as written and answers a quadratic case correctly` +
       (skip ? " — SKIPPED: /usr/bin/python3 lacks NumPy/SciPy (install python3-scipy)" : ""),
     ignore: skip,
     fn: async () => {

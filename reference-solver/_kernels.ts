@@ -99,47 +99,35 @@ function relaxRow(
   }
 }
 
-/** {@link relaxRow} when E === W and N === S (two coefficient arrays fewer to stream). */
-function relaxRowSymmetric(
-  W: Float64Array,
-  S: Float64Array,
-  invC: Float64Array,
-  u: Float64Array,
-  f: Float64Array,
-  begin: number,
-  end: number,
-  stride: number,
-): void {
-  for (let k = begin; k <= end; k += 2) {
-    u[k] = invC[k] * (f[k] - W[k] * (u[k - 1] + u[k + 1]) - S[k] * (u[k - stride] + u[k + stride]));
-  }
-}
-
 /**
  * One red–black Gauss–Seidel sweep (red: i + j even, first), fused into a single pass over memory:
- * red nodes of row j are relaxed, then black nodes of row j − 1, whose red neighbours (rows
- * j − 2, j − 1, j) are then all new. The result equals a full red pass followed by a full black pass.
+ * one loop relaxes the red nodes of row j and, right behind them, the black nodes of row j − 1,
+ * whose red neighbours (rows j − 2, j − 1 and the node just done in row j) are then all new. Both
+ * rows start at the same column parity. The result equals, bit for bit, a full red pass followed
+ * by a full black pass.
  */
 export function redBlackSweep(op: LevelOperator, u: Float64Array, f: Float64Array): void {
-  const { W, E, S, N, invC, nx, ny, stride } = op;
-  if (W === E && S === N) {
-    for (let j = 0; j <= ny + 1; j++) {
-      const i0 = j & 1;
-      if (j <= ny) {
-        const base = (j + 1) * stride + 1;
-        relaxRowSymmetric(W, S, invC, u, f, base + i0, base + nx, stride);
+  const { W, E, S, N, invC, nx, ny, stride: s } = op;
+  const symmetric = W === E && S === N;
+  relaxRow(op, u, f, 0, 0);
+  for (let j = 1; j <= ny; j++) {
+    const i0 = j & 1;
+    const k0 = (j + 1) * s + 1 + i0, end = (j + 1) * s + 1 + nx;
+    if (symmetric) {
+      for (let k = k0, q = k0 - s; k <= end; k += 2, q += 2) {
+        u[k] = invC[k] * (f[k] - W[k] * (u[k - 1] + u[k + 1]) - S[k] * (u[k - s] + u[k + s]));
+        u[q] = invC[q] * (f[q] - W[q] * (u[q - 1] + u[q + 1]) - S[q] * (u[q - s] + u[q + s]));
       }
-      if (j >= 1) {
-        const base = j * stride + 1;
-        relaxRowSymmetric(W, S, invC, u, f, base + i0, base + nx, stride);
+    } else {
+      for (let k = k0, q = k0 - s; k <= end; k += 2, q += 2) {
+        u[k] = invC[k] *
+          (f[k] - W[k] * u[k - 1] - E[k] * u[k + 1] - S[k] * u[k - s] - N[k] * u[k + s]);
+        u[q] = invC[q] *
+          (f[q] - W[q] * u[q - 1] - E[q] * u[q + 1] - S[q] * u[q - s] - N[q] * u[q + s]);
       }
     }
-    return;
   }
-  for (let j = 0; j <= ny + 1; j++) {
-    if (j <= ny) relaxRow(op, u, f, j, j & 1);
-    if (j >= 1) relaxRow(op, u, f, j - 1, j & 1);
-  }
+  relaxRow(op, u, f, ny, (ny + 1) & 1);
 }
 
 /** One lexicographic Gauss–Seidel sweep (x fastest, then y). */
@@ -275,5 +263,14 @@ export function removeTrapezoidMean(op: LevelOperator, u: Float64Array): void {
   for (let j = 0; j <= ny; j++) {
     const base = (j + 1) * stride + 1;
     for (let k = base; k <= base + nx; k++) u[k] -= mean;
+  }
+}
+
+/** v ← v + c at every real node (halo untouched). */
+export function addToNodes(op: LevelOperator, v: Float64Array, c: number): void {
+  const { nx, ny, stride } = op;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    for (let k = base; k <= base + nx; k++) v[k] += c;
   }
 }

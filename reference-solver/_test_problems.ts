@@ -45,7 +45,7 @@ export const VARIABLE: Coefficients = {
   a: (x, y) => 1 + 0.3 * Math.sin(x + 2 * y),
   b: (x, y) => 0.7 * Math.cos(x - y),
   c: (x, y) => 1.4 + 0.25 * Math.cos(x * y),
-  d: (x, y) => -0.5 + 0.4 * Math.sin(y),
+  d: (_x, y) => -0.5 + 0.4 * Math.sin(y),
   e: (x, y) => -(0.5 + 0.2 * x * x + 0.1 * y),
 };
 

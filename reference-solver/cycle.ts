@@ -74,21 +74,23 @@ function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleP
 /**
  * Full multigrid: solve each level's own problem (rhs) exactly on the coarsest grid, interpolate
  * bilinearly to the next finer level as its first guess, run `fmgCyclesPerLevel` cycles of
- * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u.
+ * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u. Coarse
+ * levels take their own `rhs`; the finest level uses levels[0].f as the caller left it.
  */
 export function fullMultigrid(h: Hierarchy, params: CycleParams): void {
   const levels = h.levels;
   const last = levels.length - 1;
   const type = params.fmgCycle ?? "V", times = params.fmgCyclesPerLevel ?? 1;
   const C = levels[last];
-  C.f.set(C.rhs);
+  if (last > 0) C.f.set(C.rhs);
   C.direct!.solve(C.u, C.f);
   for (let l = last - 1; l >= 0; l--) {
     const L = levels[l];
     L.transfer!.interpolate(levels[l + 1].u, L.u);
     const dir = L.op.dirichlet;
     for (let m = 0; m < dir.length; m++) L.u[dir[m]] = L.rhs[dir[m]];
-    if (L.f !== L.rhs) L.f.set(L.rhs);
+    // Level 0 works on levels[0].f, which the caller owns (a singular solve shifts it).
+    if (l > 0) L.f.set(L.rhs);
     for (let t = 0; t < times; t++) oneCycle(h, l, type, params);
   }
 }

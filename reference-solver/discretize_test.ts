@@ -55,6 +55,12 @@ const CONFIGS: [string, Record<Side, SideSpec>][] = [
     south: { alpha: -0.5, beta: 2 },
     north: "neumann",
   }],
+  ["Robin with β = 0 (u = g/α) beside Neumann", {
+    west: { alpha: 2, beta: 0 },
+    east: "neumann",
+    south: "neumann",
+    north: { alpha: 0.5, beta: 0 },
+  }],
 ];
 
 function maxRelError(u: Float64Array, problemExact: Exact, nx: number, ny: number): number {

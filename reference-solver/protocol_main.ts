@@ -109,50 +109,56 @@ function answer(text: string, forced: ArrayEncoding | undefined): Record<string,
 /** Reads stdin as lines; `rest()` returns everything not yet consumed. */
 class LineReader {
   #reader = Deno.stdin.readable.getReader();
-  #buffer = new Uint8Array(0);
+  #pending: Uint8Array = new Uint8Array(0);
   #done = false;
   #decoder = new TextDecoder();
 
-  async #pull(): Promise<boolean> {
-    if (this.#done) return false;
+  async #next(): Promise<Uint8Array | undefined> {
+    if (this.#done) return undefined;
     const { value, done } = await this.#reader.read();
     if (done) {
       this.#done = true;
-      return false;
+      return undefined;
     }
-    const joined = new Uint8Array(this.#buffer.length + value.length);
-    joined.set(this.#buffer);
-    joined.set(value, this.#buffer.length);
-    this.#buffer = joined;
-    return true;
+    return value;
   }
 
+  #join(chunks: Uint8Array[]): string {
+    const size = chunks.reduce((s, c) => s + c.length, 0);
+    const out = new Uint8Array(size);
+    let at = 0;
+    for (const c of chunks) {
+      out.set(c, at);
+      at += c.length;
+    }
+    return this.#decoder.decode(out);
+  }
+
+  /** The next line without its newline (chunks joined once: linear in the line length). */
   async line(): Promise<string | undefined> {
-    let searched = 0;
+    const chunks: Uint8Array[] = [];
+    let chunk: Uint8Array | undefined = this.#pending;
+    this.#pending = new Uint8Array(0);
     while (true) {
-      const nl = this.#buffer.indexOf(10, searched);
-      if (nl >= 0) {
-        const text = this.#decoder.decode(this.#buffer.subarray(0, nl));
-        this.#buffer = this.#buffer.slice(nl + 1);
-        return text;
+      if (chunk && chunk.length > 0) {
+        const nl = chunk.indexOf(10);
+        if (nl >= 0) {
+          chunks.push(chunk.subarray(0, nl));
+          this.#pending = chunk.slice(nl + 1);
+          return this.#join(chunks);
+        }
+        chunks.push(chunk);
       }
-      searched = this.#buffer.length;
-      if (!(await this.#pull())) {
-        if (this.#buffer.length === 0) return undefined;
-        const text = this.#decoder.decode(this.#buffer);
-        this.#buffer = new Uint8Array(0);
-        return text;
-      }
+      chunk = await this.#next();
+      if (!chunk) return chunks.length === 0 ? undefined : this.#join(chunks);
     }
   }
 
   async rest(): Promise<string> {
-    while (await this.#pull()) {
-      // keep reading to the end of input
-    }
-    const text = this.#decoder.decode(this.#buffer);
-    this.#buffer = new Uint8Array(0);
-    return text;
+    const chunks = [this.#pending];
+    this.#pending = new Uint8Array(0);
+    for (let c = await this.#next(); c; c = await this.#next()) chunks.push(c);
+    return this.#join(chunks);
   }
 }
 

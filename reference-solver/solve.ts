@@ -11,6 +11,7 @@ import { type ResolvedSolveOptions, resolveOptions } from "./resolve_options.ts"
 import { buildHierarchy, type Hierarchy } from "./hierarchy.ts";
 import { type CycleParams, CYCLES } from "./cycle.ts";
 import {
+  addToNodes,
   norm2,
   removeMean,
   removeTrapezoidMean,
@@ -57,11 +58,15 @@ function describe(h: Hierarchy, o: ResolvedSolveOptions): SolverDescription {
  * {@link FLOOR_MULTIPLE} × its estimated round-off floor; otherwise max-cycles. With `cycle.type:
  * "fmg"`, the first cycle is one full-multigrid pass and later ones are `fmgCycle` cycles.
  *
- * Singular problems (only Neumann-like sides, e ≡ 0) with `singular: "mean-zero"`: every cycle
- * removes the mean of the residual before restricting it (projecting out the incompatible part of
- * the right-hand side), and after every cycle the trapezoid-rule mean of u (its discrete ∫u/area)
- * is set to zero. The result satisfies A·u = f − λ for the constant λ returned as
- * `compatibilityShift`; residual norms are those of that shifted system.
+ * Singular problems (only Neumann-like sides, e ≡ 0) with `singular: "mean-zero"`: the discrete
+ * system A·u = f is then solvable only for compatible f, and u only up to a constant. The solve
+ * finds u and a constant λ with A·u = f − λ and the trapezoid-rule mean of u (its discrete
+ * ∫u/area) zero. Before every cycle the residual's mean is moved into λ (the working right-hand
+ * side is shifted by it, so the residual becomes mean-free); every level removes the mean of its
+ * residual before restricting it; the coarsest level solves its bordered system exactly (see
+ * `createDirectSolver`); after every cycle the mean of u is removed. λ is returned as
+ * `compatibilityShift` (close to zero for data compatible up to truncation error); residual norms
+ * are those of the shifted system.
  *
  * @param problem The discrete problem (validated here).
  * @param options Solve options; defaults in `resolveOptions`.
@@ -105,6 +110,8 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
   const h = buildHierarchy(problem, o);
   const setupSeconds = (performance.now() - t0) / 1000;
   const L = h.levels[0];
+  // A singular solve shifts its own copy of the right-hand side (see the doc above).
+  if (singular) L.f = L.rhs.slice();
   const { op, u, f, r } = L;
   if (guess !== undefined) u.set(op.pad(guess));
   // Dirichlet rows hold their values from the start, so their residual is zero.
@@ -115,10 +122,13 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
     fmgCycle: o.cycle.fmgCycle,
     fmgCyclesPerLevel: o.cycle.fmgCyclesPerLevel,
   };
+  let shift = 0;
   const measure = (): number => {
     if (!singular) return residualNorm2(op, u, f);
     residual(op, u, f, r);
-    removeMean(op, r);
+    const mean = removeMean(op, r);
+    addToNodes(op, f, -mean);
+    shift += mean;
     return norm2(r);
   };
   const r0 = measure();
@@ -160,11 +170,6 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
       }
     }
   }
-  let shift: number | undefined;
-  if (singular) {
-    residual(op, u, f, r);
-    shift = removeMean(op, r);
-  }
   const seconds = (performance.now() - t0) / 1000;
   const last = history[history.length - 1];
   const factors = history.slice(1).map((v, k) => v / history[k]);
@@ -183,6 +188,6 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
     description: describe(h, o),
     setupSeconds,
   };
-  if (shift !== undefined) result.compatibilityShift = shift;
+  if (singular) result.compatibilityShift = shift;
   return result;
 }

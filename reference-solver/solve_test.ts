@@ -160,3 +160,24 @@ Deno.test("solve() refuses a singular problem, and with mean-zero returns the me
   // The compatibility shift is small (the data are consistent up to truncation error).
   assert.ok(Math.abs(r.compatibilityShift!) < 0.1, `${r.compatibilityShift}`);
 });
+
+Deno.test("solve() with mean-zero gives the same solution and shift with every cycle type", () => {
+  const n = 64;
+  const sides = { west: "neumann", east: "neumann", south: "neumann", north: "neumann" } as const;
+  const p = manufactured({ ...VARIABLE, e: () => 0 }, SMOOTH, { nx: n, ny: n }, sides);
+  const ref = solve(p, { singular: "mean-zero", stop: { tolerance: 1e-12 } });
+  for (const type of ["W", "F", "fmg"] as const) {
+    const r = solve(p, { singular: "mean-zero", cycle: { type }, stop: { tolerance: 1e-12 } });
+    assert.ok(r.converged, `${type}: ${r.reason}`);
+    assertClose(r.compatibilityShift!, ref.compatibilityShift!, { rel: 1e-6, abs: 1e-12 });
+    for (let q = 0; q < r.solution.length; q += 97) {
+      assertClose(r.solution[q], ref.solution[q], { abs: 1e-8 });
+    }
+  }
+  // Derived: A·u = f − λ holds, so the residual of the unshifted system is |λ|·√(nodes).
+  assertClose(
+    residualNorm(p, ref.solution),
+    Math.abs(ref.compatibilityShift!) * Math.sqrt((n + 1) ** 2),
+    { rel: 1e-3 },
+  );
+});

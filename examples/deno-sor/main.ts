@@ -14,6 +14,8 @@ import { sorSolve } from "./sor.ts";
 import { assembleStencil } from "./stencil.ts";
 
 const VERSION = "1.0.0";
+/** Largest grid accepted: SOR needs about 10^10 operations at 1024 × 1024. */
+const LARGEST = 512;
 const NAME = "deno-sor";
 
 // deno-lint-ignore no-explicit-any
@@ -52,7 +54,7 @@ const READY = {
     schemes: ["central", "upwind"],
     layouts: ["vertex"],
     encodings: ["numbers", "base64"],
-    largestGrid: { nx: 1024, ny: 1024 },
+    largestGrid: { nx: LARGEST, ny: LARGEST },
   },
 };
 
@@ -68,6 +70,13 @@ function solve(req: Json, flags: Flags): Json {
   const scheme = req.scheme ?? "central";
   if (scheme !== "central" && scheme !== "upwind") {
     return msg("not-applicable", { id, reason: `unknown scheme '${scheme}'` });
+  }
+  if (Math.max(Number(req.grid?.nx), Number(req.grid?.ny)) > LARGEST) {
+    return msg("not-applicable", {
+      id,
+      reason: `grid ${req.grid.nx}x${req.grid.ny} is above this example's largest grid ` +
+        `${LARGEST}x${LARGEST} (SOR work grows like N^1.5)`,
+    });
   }
   const p = readProblem(req);
   const sides = Object.values(p.boundary);
@@ -123,7 +132,12 @@ function solve(req: Json, flags: Flags): Json {
     seconds,
     solver: { name: NAME, version: VERSION },
     notes: `lexicographic SOR, omega ${result.omega.toFixed(6)}, ${scheme} scheme, ` +
-      `stopped: ${result.reason}`,
+      `stopped: ${result.reason}` +
+      (result.restarts.length > 0
+        ? `; restarted after divergence with omega ${
+          result.restarts.map((o) => o.toFixed(4)).join(", ")
+        }`
+        : ""),
   });
 }
 

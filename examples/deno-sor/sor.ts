@@ -19,7 +19,11 @@ export interface SorOptions {
   maxSweeps?: number;
   /** Stop (not converged) when the clock passes this `performance.now()` value. Default: none. */
   deadline?: number;
-  /** Declare divergence when ‖r‖₂ exceeds this multiple of ‖r₀‖₂. Default: 1e3. */
+  /**
+   * When ‖r‖₂ exceeds this multiple of ‖r₀‖₂: with the default ω, restart from the initial guess
+   * with ω halfway to 1 (SOR with ω near 2 can diverge on a non-symmetric system); with a given ω
+   * or at ω = 1, stop as diverged. Default: 1e4.
+   */
   divergenceFactor?: number;
   /** Which sides are Dirichlet(-like), for the default ω. Default: all. */
   dirichletSides?: { west: boolean; east: boolean; south: boolean; north: boolean };
@@ -31,12 +35,18 @@ export interface SorOptions {
 export interface SorResult {
   solution: Float64Array;
   converged: boolean;
-  /** "stagnated": no new lowest residual for max(500, 4·(nx + ny)) sweeps (round-off floor). */
+  /**
+   * "stagnated": below 1e-8·‖r₀‖₂ but no new lowest residual for max(500, 4·(nx + ny)) sweeps (the
+   * round-off floor).
+   */
   reason: "converged" | "max-sweeps" | "time-limit" | "diverged" | "stagnated";
   sweeps: number;
   /** ‖r‖₂ before the first sweep and after each sweep. */
   residualHistory: number[];
+  /** The final relaxation factor. */
   omega: number;
+  /** The relaxation factors abandoned because the residual blew up (sweeps stay in the history). */
+  restarts: number[];
 }
 
 /**
@@ -114,23 +124,28 @@ export function residualNorm(s: Stencil, u: Float64Array): number {
  */
 export function sorSolve(s: Stencil, options: SorOptions = {}): SorResult {
   const { nx, ny, cc, cw, ce, cs, cn, rhs, dirichlet } = s;
-  const omega = options.omega ??
+  let omega = options.omega ??
     estimateOmega(
       s,
       options.dirichletSides ?? { west: true, east: true, south: true, north: true },
     );
   const tolerance = options.tolerance ?? 1e-10;
   const maxSweeps = options.maxSweeps ?? 1_000_000;
-  const divergence = options.divergenceFactor ?? 1e3;
+  const divergence = options.divergenceFactor ?? 1e4;
   const w = nx + 1;
-  const u = options.initialGuess
-    ? Float64Array.from(options.initialGuess)
-    : new Float64Array(rhs.length);
-  if (!options.initialGuess) {
-    for (let k = 0; k < u.length; k++) if (dirichlet[k]) u[k] = rhs[k];
-  }
+  const start = () => {
+    const v = options.initialGuess
+      ? Float64Array.from(options.initialGuess)
+      : new Float64Array(rhs.length);
+    if (!options.initialGuess) {
+      for (let k = 0; k < v.length; k++) if (dirichlet[k]) v[k] = rhs[k];
+    }
+    return v;
+  };
+  let u = start();
   const r0 = residualNorm(s, u);
   const history = [r0];
+  const restarts: number[] = [];
   const result = (converged: boolean, reason: SorResult["reason"]): SorResult => ({
     solution: u,
     converged,
@@ -138,6 +153,7 @@ export function sorSolve(s: Stencil, options: SorOptions = {}): SorResult {
     sweeps: history.length - 1,
     residualHistory: history,
     omega,
+    restarts,
   });
   if (r0 === 0) return result(true, "converged");
   const patience = Math.max(500, 4 * (nx + ny));
@@ -157,10 +173,19 @@ export function sorSolve(s: Stencil, options: SorOptions = {}): SorResult {
     }
     const r = residualNorm(s, u);
     history.push(r);
-    if (!(r <= divergence * r0)) return result(false, "diverged");
+    if (!(r <= divergence * r0)) {
+      // ω too large for this (non-symmetric) system: restart closer to Gauss–Seidel, unless the
+      // caller fixed ω or it is already 1.
+      if (options.omega !== undefined || omega <= 1) return result(false, "diverged");
+      restarts.push(omega);
+      omega = omega - 1 < 0.05 ? 1 : 1 + (omega - 1) / 2;
+      u = start();
+      (best = r0, bestSweep = sweep);
+      continue;
+    }
     if (r <= tolerance * r0) return result(true, "converged");
     if (r < best) (best = r, bestSweep = sweep);
-    else if (sweep - bestSweep > patience) return result(false, "stagnated");
+    else if (sweep - bestSweep > patience && best < 1e-8 * r0) return result(false, "stagnated");
     if (options.deadline !== undefined && performance.now() > options.deadline) {
       return result(false, "time-limit");
     }

@@ -28,6 +28,8 @@ import vertex
 from protocol_io import RequestError, encode_array, log, message, read_problem, run
 
 VERSION = "1.0.0"
+# SuperLU fill-in makes larger 2-D grids slow and memory-hungry on a small machine.
+LARGEST = 512
 
 
 def make_solver(layout, defect):
@@ -41,7 +43,7 @@ def make_solver(layout, defect):
             "schemes": ["central", "upwind"],
             "layouts": [layout],
             "encodings": ["numbers", "base64"],
-            "largestGrid": {"nx": 1024, "ny": 1024},
+            "largestGrid": {"nx": LARGEST, "ny": LARGEST},
         },
     )
 
@@ -58,6 +60,13 @@ def make_solver(layout, defect):
         scheme = req.get("scheme", "central")
         if scheme not in ("central", "upwind"):
             return message("not-applicable", id=rid, reason=f"unknown scheme '{scheme}'")
+        nx, ny = grid.get("nx"), grid.get("ny")
+        if isinstance(nx, int) and isinstance(ny, int) and max(nx, ny) > LARGEST:
+            return message(
+                "not-applicable",
+                id=rid,
+                reason=f"grid {nx}x{ny} is above this example's largest grid {LARGEST}x{LARGEST}",
+            )
         problem = read_problem(req)
         if vertex.is_singular(problem):
             return message(

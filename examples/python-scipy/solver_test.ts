@@ -102,7 +102,8 @@ Deno.test({
 });
 
 Deno.test({
-  name: `python-scipy-defective shows order 1 on Neumann/Robin sides and is exact elsewhere${SKIP}`,
+  name:
+    `python-scipy-defective shows order 1 with Neumann/Robin sides and order 2 with Dirichlet sides only${SKIP}`,
   ignore: NO_SCIPY,
   fn: async (t) => {
     // Source: common practice — a first-order one-sided boundary difference limits the global

@@ -9,7 +9,13 @@ import type { CampaignResult, CaseInfo, SolveRecord, Verdict } from "../result/t
 import { RESULT_FORMAT, RESULT_VERSION } from "../result/types.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { VERSION } from "../version.ts";
-import { JOURNAL_FILE, type JournalHeader, JournalWriter, readJournal, solveKey } from "./journal.ts";
+import {
+  JOURNAL_FILE,
+  type JournalHeader,
+  JournalWriter,
+  readJournal,
+  solveKey,
+} from "./journal.ts";
 import { gridFor, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
 import { buildStudies } from "./study.ts";
 
@@ -43,10 +49,16 @@ export function gridsOf(kase: CompiledCase, options: { grids?: number[] }): numb
 }
 
 /** A fingerprint of what determines the solves (for refusing a resume with another setup). */
-export function fingerprint(cases: CompiledCase[], solvers: Solver[], options: CampaignOptions): string {
+export function fingerprint(
+  cases: CompiledCase[],
+  solvers: Solver[],
+  options: CampaignOptions,
+): string {
   return JSON.stringify({
     cases: cases.map((c) => [c.id, c.origin, c.parameters, gridsOf(c, options)]),
-    solvers: solvers.map((s) => [s.info.name, s.info.scheme, s.info.layout, s.info.command ?? null]),
+    solvers: solvers.map((
+      s,
+    ) => [s.info.name, s.info.scheme, s.info.layout, s.info.command ?? null]),
     tolerance: options.tolerance ?? 1e-10,
   });
 }

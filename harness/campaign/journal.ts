@@ -91,7 +91,9 @@ export function readJournal(text: string, path: string): {
     } catch {
       if (k >= lines.length - 2) break; // torn final line from an interrupted write
       throw new RangeError(
-        `${path}: line ${k + 1} is not valid JSON: the journal is damaged; remove the line or start without --resume`,
+        `${path}: line ${
+          k + 1
+        } is not valid JSON: the journal is damaged; remove the line or start without --resume`,
       );
     }
     if (value.kind === "campaign") header ??= value;

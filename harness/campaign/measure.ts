@@ -40,7 +40,8 @@ export function measureOutcome(
     unknowns,
     status: outcome.status,
     residualHistory: outcome.residualHistory,
-    iterations: outcome.iterations ?? (outcome.residualHistory.length > 0 ? metrics.iterations : null),
+    iterations: outcome.iterations ??
+      (outcome.residualHistory.length > 0 ? metrics.iterations : null),
     converged: outcome.converged,
     averageFactor: metrics.averageFactor,
     asymptoticFactor: metrics.asymptoticFactor,

@@ -147,7 +147,11 @@ const GL_W = [
 ];
 
 /** Composite 8-point Gauss–Legendre rule on [lo, hi] with `panels` panels: nodes and weights. */
-export function gaussLegendre(lo: number, hi: number, panels: number): { x: number[]; w: number[] } {
+export function gaussLegendre(
+  lo: number,
+  hi: number,
+  panels: number,
+): { x: number[]; w: number[] } {
   const x: number[] = [];
   const w: number[] = [];
   const width = (hi - lo) / panels;
@@ -168,7 +172,9 @@ export function exactQuantities(kase: CompiledCase): Record<string, number> {
   const gy = gaussLegendre(y0, y1, 32);
   let integral = 0;
   for (let j = 0; j < gy.x.length; j++) {
-    for (let i = 0; i < gx.x.length; i++) integral += gx.w[i] * gy.w[j] * kase.exact(gx.x[i], gy.x[j]);
+    for (let i = 0; i < gx.x.length; i++) {
+      integral += gx.w[i] * gy.w[j] * kase.exact(gx.x[i], gy.x[j]);
+    }
   }
   let flux = 0;
   for (let j = 0; j < gy.x.length; j++) flux += gy.w[j] * kase.exactDx(x1, gy.x[j]);

@@ -55,14 +55,17 @@ Deno.test("discreteQuantities() is exact where its rules are exact", async (t) =
   });
   await t.step("a quadratic in x gives the exact flux on both layouts", () => {
     const quad = (x: number) => x * x; // ∂u/∂x at x = 2 is 4, over a side of length 2 → 8
-    assertClose(discreteQuantities(vertexField(8, 4, quad), domain)["east-flux"], 8, { rel: 1e-12 });
+    assertClose(discreteQuantities(vertexField(8, 4, quad), domain)["east-flux"], 8, {
+      rel: 1e-12,
+    });
     assertClose(discreteQuantities(cellField(8, 4, quad), domain)["east-flux"], 8, { rel: 1e-12 });
   });
 });
 
 Deno.test("refinedMaximum() finds the peak of a quadratic exactly, off the nodes", () => {
   // derived: the quadratic fit reproduces a quadratic, so its peak is the exact peak
-  const peak = (x: number, y: number) => 3 - (x - 0.83) ** 2 - 2 * (y + 0.21) ** 2 + 0.5 * (x - 0.83) * (y + 0.21);
+  const peak = (x: number, y: number) =>
+    3 - (x - 0.83) ** 2 - 2 * (y + 0.21) ** 2 + 0.5 * (x - 0.83) * (y + 0.21);
   const q = discreteQuantities(vertexField(10, 10, peak), domain);
   assertClose(q.maximum, 3, { rel: 1e-13 });
 });

@@ -60,7 +60,9 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
   let closed = false;
 
   for (let k = 0; k < count; k++) {
-    const worker = new Worker(new URL("./reference_worker.ts", import.meta.url), { type: "module" });
+    const worker = new Worker(new URL("./reference_worker.ts", import.meta.url), {
+      type: "module",
+    });
     worker.onmessage = (event: MessageEvent<WorkerReply>) => {
       const resolve = pending.get(event.data.id);
       pending.delete(event.data.id);
@@ -91,11 +93,13 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
         const reply = await new Promise<WorkerReply>((resolve) => {
           pending.set(id, resolve);
           const { case: kase, ...rest } = task;
-          worker.postMessage({
-            id,
-            case: { id: kase.id, origin: kase.origin, parameters: kase.parameters },
-            task: rest,
-          } satisfies WorkerRequest);
+          worker.postMessage(
+            {
+              id,
+              case: { id: kase.id, origin: kase.origin, parameters: kase.parameters },
+              task: rest,
+            } satisfies WorkerRequest,
+          );
         });
         if (reply.outcome) return reply.outcome;
         return {

@@ -43,7 +43,9 @@ self.onmessage = async (event: MessageEvent<WorkerRequest | { setup: SolveOption
   }
   const transfer: ArrayBuffer[] = [];
   if (reply.outcome) {
-    for (const a of [reply.outcome.x, reply.outcome.y, reply.outcome.weights, reply.outcome.values]) {
+    for (
+      const a of [reply.outcome.x, reply.outcome.y, reply.outcome.weights, reply.outcome.values]
+    ) {
       if (a.buffer instanceof ArrayBuffer) transfer.push(a.buffer);
     }
   }

@@ -51,7 +51,11 @@ export function gridFor(kase: CompiledCase, nx: number): { nx: number; ny: numbe
 }
 
 /** Plans every case × solver × grid. */
-export function planSolves(cases: CompiledCase[], solvers: Solver[], grids: number[]): PlannedSolve[] {
+export function planSolves(
+  cases: CompiledCase[],
+  solvers: Solver[],
+  grids: number[],
+): PlannedSolve[] {
   const plan: PlannedSolve[] = [];
   for (const kase of cases) {
     for (const solver of solvers) {
@@ -65,7 +69,10 @@ export function planSolves(cases: CompiledCase[], solvers: Solver[], grids: numb
  * Runs the planned solves and returns every record (finished earlier or now), in plan order.
  * A solver fault is a `failed` record; it never stops the campaign.
  */
-export async function runSolves(plan: PlannedSolve[], options: RunOptions = {}): Promise<SolveRecord[]> {
+export async function runSolves(
+  plan: PlannedSolve[],
+  options: RunOptions = {},
+): Promise<SolveRecord[]> {
   const jobs = Math.max(1, options.jobs ?? 1);
   const tolerance = options.tolerance ?? 1e-10;
   const records = new Array<SolveRecord | undefined>(plan.length);
@@ -85,9 +92,10 @@ export async function runSolves(plan: PlannedSolve[], options: RunOptions = {}):
     }
   });
 
-  // Largest grids first: the long solves start early and the small ones fill the gaps.
+  // Smallest grids first: every worker's first solves are cheap, so its JIT warm-up does not
+  // land on (and distort the timing of) a large solve.
   const order = plan.map((_, k) => k).filter((k) => records[k] === undefined)
-    .sort((p, q) => plan[q].nx * plan[q].ny - plan[p].nx * plan[p].ny || p - q);
+    .sort((p, q) => plan[p].nx * plan[p].ny - plan[q].nx * plan[q].ny || p - q);
   let cursor = 0;
 
   const compareKey = (p: PlannedSolve) => `${p.kase.id}\u0000${p.nx}\u0000${p.ny}`;

@@ -98,7 +98,9 @@ function agreementVerdict(
   references: SolveRecord[],
 ): Verdict | undefined {
   if (solver.info.kind === "reference" || solver.info.layout !== "vertex") return undefined;
-  const compared = mine.filter((r) => r.status === "ok" && typeof r.differenceFromReference === "number");
+  const compared = mine.filter((r) =>
+    r.status === "ok" && typeof r.differenceFromReference === "number"
+  );
   if (compared.length === 0) return undefined;
   const base = { caseId: kase.id, solver: solver.info.name, criterion: "agreement-with-reference" };
   let worst: { record: SolveRecord; ratio: number; error: number } | undefined;

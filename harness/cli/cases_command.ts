@@ -167,10 +167,9 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     .option(
       "--param <name=value>",
       "override a parameter (repeatable), e.g. --param w=0.1",
-      (v: string, acc: string[]) => [...acc, v],
-      [] as string[],
+      (v: string, acc: string[] | undefined) => [...(acc ?? []), v],
     )
-    .action(async (id: string, opts: { tex?: boolean; param: string[] }) => {
+    .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {
       const parameters = parseParameterFlags(opts.param);
       const c = await loadCase(id, { parameters });
       console.log(showCase(c, opts.tex === true));

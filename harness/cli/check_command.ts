@@ -78,7 +78,10 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
     )
     .option("--order-tolerance <t>", "allowed |observed − expected| order (default 0.1)")
     .option("--tolerance <t>", "relative residual tolerance asked of every solver (default 1e-10)")
-    .option("--require-grid-independence", "fail (not only warn) when iterations grow with the grid")
+    .option(
+      "--require-grid-independence",
+      "fail (not only warn) when iterations grow with the grid",
+    )
     .option("--baseline <file>", "compare with the result.json of the previous release")
     .option("--no-progress", "no progress output")
     .action(async (flags: CheckFlags) => {
@@ -88,7 +91,9 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
 }
 
 /** Resolves the cases a campaign runs. */
-export async function selectCases(flags: Pick<CheckFlags, "cases" | "caseFile">): Promise<CompiledCase[]> {
+export async function selectCases(
+  flags: Pick<CheckFlags, "cases" | "caseFile">,
+): Promise<CompiledCase[]> {
   const cases: CompiledCase[] = [];
   if (flags.cases !== undefined) {
     const known = libraryIds();
@@ -114,7 +119,9 @@ export async function selectCases(flags: Pick<CheckFlags, "cases" | "caseFile">)
     }
     seen.set(c.id, c.origin);
   }
-  if (cases.length === 0) throw new InputError("no case selected: name at least one", { where: "--cases" });
+  if (cases.length === 0) {
+    throw new InputError("no case selected: name at least one", { where: "--cases" });
+  }
   return cases;
 }
 
@@ -125,13 +132,18 @@ export async function selectSolvers(
 ): Promise<Solver[]> {
   const scheme = flags.upwind ? "upwind" as const : "central" as const;
   const reference = jobs > 1
-    ? createPooledReferenceSolver({ workers: jobs, solveOptions: { scheme: { upwind: !!flags.upwind } } })
+    ? createPooledReferenceSolver({
+      workers: jobs,
+      solveOptions: { scheme: { upwind: !!flags.upwind } },
+    })
     : createReferenceSolver({ scheme, solveOptions: { scheme: { upwind: !!flags.upwind } } });
   reference.info.scheme = scheme;
   const all: Solver[] = [reference];
   if (flags.solvers !== undefined) {
     const specs = await loadSolverFile(flags.solvers);
-    const dir = flags.solvers.includes("/") ? flags.solvers.slice(0, flags.solvers.lastIndexOf("/")) : ".";
+    const dir = flags.solvers.includes("/")
+      ? flags.solvers.slice(0, flags.solvers.lastIndexOf("/"))
+      : ".";
     for (const spec of specs) all.push(createExternalSolver(spec, { solverFileDir: dir }));
   }
   if (flags.solver === undefined) return all;
@@ -156,12 +168,17 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
     ? navigator.hardwareConcurrency
     : parsePositive(flags.jobs, "--jobs", { integer: true });
   const grids = flags.grids !== undefined
-    ? gridsOrThrow(() => gridSequence({ grids: parseNumberList(flags.grids!, "--grids") }), "--grids")
+    ? gridsOrThrow(
+      () => gridSequence({ grids: parseNumberList(flags.grids!, "--grids") }),
+      "--grids",
+    )
     : flags.ratio !== undefined || flags.levels !== undefined || flags.coarsest !== undefined
     ? gridsOrThrow(() =>
       gridSequence({
         ratio: flags.ratio === undefined ? undefined : parsePositive(flags.ratio, "--ratio"),
-        levels: flags.levels === undefined ? undefined : parsePositive(flags.levels, "--levels", { integer: true }),
+        levels: flags.levels === undefined
+          ? undefined
+          : parsePositive(flags.levels, "--levels", { integer: true }),
         coarsest: flags.coarsest === undefined
           ? undefined
           : parsePositive(flags.coarsest, "--coarsest", { integer: true }),
@@ -170,7 +187,9 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const orderTolerance = flags.orderTolerance === undefined
     ? undefined
     : parsePositive(flags.orderTolerance, "--order-tolerance");
-  const tolerance = flags.tolerance === undefined ? undefined : parsePositive(flags.tolerance, "--tolerance");
+  const tolerance = flags.tolerance === undefined
+    ? undefined
+    : parsePositive(flags.tolerance, "--tolerance");
   const formats = (flags.format ?? "").split(",").map((s) => s.trim()).filter((s) => s !== "");
   const baseline = flags.baseline === undefined ? undefined : await readResult(flags.baseline);
 
@@ -211,9 +230,10 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   await Deno.writeTextFile(resultPath, JSON.stringify(result, finite, 1) + "\n");
   const written: string[] = [resultPath];
   for (const format of formats) {
-    const extension = { text: "txt", html: "html", md: "md", csv: "csv", junit: "xml", json: "json" }[
-      format
-    ] ?? format;
+    const extension =
+      { text: "txt", html: "html", md: "md", csv: "csv", junit: "xml", json: "json" }[
+        format
+      ] ?? format;
     const path = `${flags.out}/report.${extension}`;
     await writeReport(result, { format, out: path });
     written.push(path);

@@ -27,7 +27,9 @@ export function parsePositive(
 /** Parses a comma-separated list of whole numbers, e.g. `16,32,64`. */
 export function parseNumberList(text: string, flag: string): number[] {
   const parts = text.split(",").map((s) => s.trim()).filter((s) => s !== "");
-  if (parts.length === 0) throw new InputError(`no numbers in "${text}": use e.g. 16,32,64`, { where: flag });
+  if (parts.length === 0) {
+    throw new InputError(`no numbers in "${text}": use e.g. 16,32,64`, { where: flag });
+  }
   return parts.map((p) => {
     const n = Number(p);
     if (!Number.isInteger(n) || n < 2) {
@@ -65,9 +67,7 @@ export function progressPrinter(): (event: ProgressEvent) => void {
   return (event) => {
     const r = event.record;
     const what = `${r.caseId} × ${r.solver} ${r.nx}×${r.ny}`;
-    const status = r.status === "ok"
-      ? (r.converged === false ? "not converged" : "ok")
-      : r.status;
+    const status = r.status === "ok" ? (r.converged === false ? "not converged" : "ok") : r.status;
     if (terminal) {
       const width = 30;
       const filled = Math.round((event.done / event.total) * width);

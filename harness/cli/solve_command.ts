@@ -32,7 +32,7 @@ export interface SolveFlags {
   maxCycles?: string;
   upwind?: boolean;
   json?: boolean;
-  param: string[];
+  param?: string[];
 }
 
 /** What `gridproof solve --json` prints. */
@@ -83,7 +83,7 @@ function integerFlag(flag: string, text: string | undefined, min: number): numbe
  *
  * @throws {InputError} for a flag without `=` or a value that is not a finite number
  */
-export function parseParameterFlags(flags: readonly string[]): Record<string, number> {
+export function parseParameterFlags(flags: readonly string[] = []): Record<string, number> {
   const out: Record<string, number> = {};
   for (const flag of flags) {
     const match = /^([A-Za-z_][A-Za-z0-9_]*)=(.+)$/.exec(flag.trim());
@@ -154,7 +154,7 @@ export async function runSolve(flags: SolveFlags): Promise<SolveReport> {
   if (!flags.case) {
     throw bad("--case", "is required: give a built-in case id (see `gridproof cases`) or a file");
   }
-  const c = await loadCase(flags.case, { parameters: parseParameterFlags(flags.param) });
+  const c = await loadCase(flags.case, { parameters: parseParameterFlags(flags.param ?? []) });
   const n = integerFlag("--n", flags.n, 2) ?? c.grids[c.grids.length - 1];
   const options = solveOptionsFromFlags(flags, c);
   const { nx, ny } = c.gridFor(n);
@@ -219,11 +219,16 @@ export function registerSolveCommand(program: Command, setExitCode: SetExitCode)
     .command("solve")
     .description("solve one case once with the reference solver and report errors and convergence")
     .option("--case <id|file>", "a built-in case id (see `gridproof cases`) or a case file (.json)")
-    .option("--n <N>", "intervals along x (ny follows the case's aspect); default: finest suggested grid")
+    .option(
+      "--n <N>",
+      "intervals along x (ny follows the case's aspect); default: finest suggested grid",
+    )
     .option("--cycle <name>", `cycle: ${CYCLE_NAMES.join(", ")} (any letter case); default V`)
     .option(
       "--smoother <name>",
-      `smoother: ${SMOOTHER_NAMES.join(", ")} (any letter case, _ or -); default: the case's advice, else red-black`,
+      `smoother: ${
+        SMOOTHER_NAMES.join(", ")
+      } (any letter case, _ or -); default: the case's advice, else red-black`,
     )
     .option("--pre <K>", "pre-smoothing sweeps (default 2)")
     .option("--post <K>", "post-smoothing sweeps (default 1)")
@@ -233,8 +238,7 @@ export function registerSolveCommand(program: Command, setExitCode: SetExitCode)
     .option(
       "--param <name=value>",
       "override a case parameter (repeatable), e.g. --param w=0.1",
-      (v: string, acc: string[]) => [...acc, v],
-      [] as string[],
+      (v: string, acc: string[] | undefined) => [...(acc ?? []), v],
     )
     .option("--json", "print one JSON object")
     .action(async (flags: SolveFlags) => {

@@ -29,3 +29,23 @@ Deno.test("rendererFor() refuses an unknown format and lists the valid ones", ()
   );
   assert.throws(() => rendererFor("toString"), RangeError);
 });
+
+Deno.test("every renderer copes with a result where every solve failed and no study exists", async () => {
+  const result = makeFixtureResult();
+  result.studies = [];
+  for (const s of result.solves) {
+    s.status = "failed";
+    s.reason = "the solver process exited with code 139";
+    delete s.errors;
+    s.residualHistory = [];
+    s.iterations = null;
+  }
+  result.summary = { pass: 0, fail: 0, warn: 0, notApplicable: 0, exitCode: 1 };
+  for (const renderer of Object.values(RENDERERS)) {
+    const out = await renderer.render(result);
+    assert.ok(out.length > 0, renderer.name);
+  }
+  const html = await RENDERERS.html.render(result);
+  assert.equal(html.match(/<figure class="plot"/g), null, "nothing to plot, no empty plots");
+  assert.ok(html.includes("the solver process exited with code 139"));
+});

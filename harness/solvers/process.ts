@@ -158,24 +158,17 @@ export class GroupProcess {
     }
   }
 
-  async #pull(): Promise<boolean> {
-    if (this.#eof) return false;
-    let result: ReadableStreamReadResult<Uint8Array>;
+  /** Next chunk of stdout, or undefined at the end. */
+  async #next(): Promise<Uint8Array | undefined> {
+    if (this.#eof) return undefined;
     try {
-      result = await this.#reader.read();
+      const result = await this.#reader.read();
+      if (!result.done) return result.value;
     } catch {
-      this.#eof = true;
-      return false;
+      // the pipe broke because the process was killed: treat as the end
     }
-    if (result.done) {
-      this.#eof = true;
-      return false;
-    }
-    const joined = new Uint8Array(this.#pending.length + result.value.length);
-    joined.set(this.#pending);
-    joined.set(result.value, this.#pending.length);
-    this.#pending = joined;
-    return true;
+    this.#eof = true;
+    return undefined;
   }
 
   /** Reads stdout to its end, or stops once more than `limit` bytes arrived. */
@@ -184,45 +177,38 @@ export class GroupProcess {
     let size = this.#pending.length;
     if (size > 0) chunks.push(this.#pending);
     this.#pending = new Uint8Array(0);
-    while (!this.#eof) {
-      let result: ReadableStreamReadResult<Uint8Array>;
-      try {
-        result = await this.#reader.read();
-      } catch {
-        break;
-      }
-      if (result.done) break;
-      chunks.push(result.value);
-      size += result.value.length;
+    while (true) {
+      const chunk = await this.#next();
+      if (!chunk) break;
+      chunks.push(chunk);
+      size += chunk.length;
       if (size > limit) return { kind: "overflow", limit };
     }
-    this.#eof = true;
-    const bytes = new Uint8Array(size);
-    let at = 0;
-    for (const c of chunks) {
-      bytes.set(c, at);
-      at += c.length;
-    }
-    return { kind: "data", bytes };
+    return { kind: "data", bytes: concat(chunks, size) };
   }
 
   /** Reads one line of stdout (without its newline), or EOF, or stops beyond `limit` bytes. */
   async readLine(limit: number): Promise<ReadResult> {
-    let searched = 0;
+    // chunks are kept in a list and joined once, so a long line costs linear time
+    const chunks: Uint8Array[] = [];
+    let size = 0;
+    let chunk: Uint8Array | undefined = this.#pending;
+    this.#pending = new Uint8Array(0);
     while (true) {
-      const nl = this.#pending.indexOf(10, searched);
-      if (nl >= 0) {
-        const line = this.#pending.subarray(0, nl);
-        this.#pending = this.#pending.slice(nl + 1);
-        return { kind: "line", text: new TextDecoder().decode(line) };
+      if (chunk && chunk.length > 0) {
+        const nl = chunk.indexOf(10);
+        if (nl >= 0) {
+          chunks.push(chunk.subarray(0, nl));
+          size += nl;
+          this.#pending = chunk.slice(nl + 1);
+          return { kind: "line", text: new TextDecoder().decode(concat(chunks, size)) };
+        }
+        chunks.push(chunk);
+        size += chunk.length;
+        if (size > limit) return { kind: "overflow", limit };
       }
-      searched = this.#pending.length;
-      if (this.#pending.length > limit) return { kind: "overflow", limit };
-      if (!(await this.#pull())) {
-        const partial = this.#pending;
-        this.#pending = new Uint8Array(0);
-        return { kind: "eof", partial };
-      }
+      chunk = await this.#next();
+      if (!chunk) return { kind: "eof", partial: concat(chunks, size) };
     }
   }
 
@@ -244,6 +230,17 @@ export class GroupProcess {
       // already closed
     }
   }
+}
+
+function concat(chunks: Uint8Array[], size: number): Uint8Array {
+  if (chunks.length === 1) return chunks[0];
+  const out = new Uint8Array(size);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.length;
+  }
+  return out;
 }
 
 /** Waits for a promise at most `ms` milliseconds; returns `undefined` on timeout. */

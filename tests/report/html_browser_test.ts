@@ -32,65 +32,82 @@ interface Event {
   params: Record<string, unknown>;
 }
 
-/** A minimal DevTools-protocol client over Deno's built-in WebSocket. */
+/**
+ * A minimal DevTools-protocol client over `--remote-debugging-pipe` (NUL-separated JSON on file
+ * descriptors 3 and 4, which a shell maps to the child's stdin and stdout), so the test needs no
+ * network permission. Commands go to one page through a flattened target session.
+ */
 class Devtools {
-  #ws: WebSocket;
+  #writer: WritableStreamDefaultWriter<Uint8Array>;
   #next = 1;
   #pending = new Map<number, { resolve(v: unknown): void; reject(e: Error): void }>();
   #waiters: { method: string; resolve(e: Event): void }[] = [];
+  #encoder = new TextEncoder();
+  session: string | undefined;
   readonly events: Event[] = [];
+  readonly done: Promise<void>;
 
-  private constructor(ws: WebSocket) {
-    this.#ws = ws;
-    ws.onmessage = (m) => {
-      const msg = JSON.parse(m.data as string);
-      if (msg.id !== undefined) {
-        const p = this.#pending.get(msg.id);
-        this.#pending.delete(msg.id);
-        if (msg.error) p?.reject(new Error(`${msg.error.message} (${msg.error.code})`));
-        else p?.resolve(msg.result);
-        return;
+  constructor(input: WritableStream<Uint8Array>, output: ReadableStream<Uint8Array<ArrayBuffer>>) {
+    this.#writer = input.getWriter();
+    this.done = (async () => {
+      let buffer = "";
+      for await (const chunk of output.pipeThrough(new TextDecoderStream())) {
+        buffer += chunk;
+        let end;
+        while ((end = buffer.indexOf("\0")) >= 0) {
+          this.#receive(JSON.parse(buffer.slice(0, end)));
+          buffer = buffer.slice(end + 1);
+        }
       }
-      const event = { method: msg.method, params: msg.params ?? {} };
-      this.events.push(event);
-      if (event.method === "Page.javascriptDialogOpening") {
-        // a dialog would block the page; dismiss it (it stays recorded as a problem)
-        void this.send("Page.handleJavaScriptDialog", { accept: true }).catch(() => undefined);
-      }
-      this.#waiters = this.#waiters.filter((w) => {
-        if (w.method !== event.method) return true;
-        w.resolve(event);
-        return false;
-      });
-    };
+    })();
   }
 
-  static open(url: string): Promise<Devtools> {
-    const ws = new WebSocket(url);
-    return new Promise((resolve, reject) => {
-      ws.onopen = () => resolve(new Devtools(ws));
-      ws.onerror = () => reject(new Error(`cannot connect to ${url}`));
+  #receive(msg: {
+    id?: number;
+    error?: { message: string; code: number };
+    result?: unknown;
+    method?: string;
+    params?: Record<string, unknown>;
+  }) {
+    if (msg.id !== undefined) {
+      const p = this.#pending.get(msg.id);
+      this.#pending.delete(msg.id);
+      if (msg.error) p?.reject(new Error(`${msg.error.message} (${msg.error.code})`));
+      else p?.resolve(msg.result);
+      return;
+    }
+    const event = { method: msg.method ?? "", params: msg.params ?? {} };
+    this.events.push(event);
+    if (event.method === "Page.javascriptDialogOpening") {
+      // a dialog would block the page; dismiss it (it stays recorded as a problem)
+      void this.send("Page.handleJavaScriptDialog", { accept: true }).catch(() => undefined);
+    }
+    this.#waiters = this.#waiters.filter((w) => {
+      if (w.method !== event.method) return true;
+      w.resolve(event);
+      return false;
     });
   }
 
+  /** Sends a command to the page session (or the browser when no session is attached yet). */
   send(method: string, params: Record<string, unknown> = {}): Promise<Record<string, unknown>> {
     const id = this.#next++;
-    this.#ws.send(JSON.stringify({ id, method, params }));
-    return new Promise((resolve, reject) =>
+    const message = this.session === undefined
+      ? { id, method, params }
+      : { id, method, params, sessionId: this.session };
+    const reply = new Promise<Record<string, unknown>>((resolve, reject) =>
       this.#pending.set(id, { resolve: (v) => resolve(v as Record<string, unknown>), reject })
     );
+    void this.#writer.write(this.#encoder.encode(JSON.stringify(message) + "\0"));
+    return reply;
   }
 
   waitFor(method: string): Promise<Event> {
     return new Promise((resolve) => this.#waiters.push({ method, resolve }));
   }
 
-  close(): Promise<void> {
-    return new Promise((resolve) => {
-      if (this.#ws.readyState === WebSocket.CLOSED) return resolve();
-      this.#ws.onclose = () => resolve();
-      this.#ws.close();
-    });
+  async close(): Promise<void> {
+    await this.#writer.close().catch(() => undefined);
   }
 }
 
@@ -113,47 +130,40 @@ interface PageReport {
 /** Loads a file in a fresh headless Chromium, evaluates `probe` and saves screenshots. */
 async function openInChromium(file: string, probe: string, shot?: string): Promise<PageReport> {
   const profile = await Deno.makeTempDir({ prefix: "gridproof-chromium-" });
-  const child = new Deno.Command(CHROMIUM, {
-    args: [
-      "--headless",
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-quic",
-      "--no-first-run",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-      `--user-data-dir=${profile}`,
-      "--remote-debugging-port=0",
-      "about:blank",
-    ],
-    stdin: "null",
-    stdout: "null",
-    stderr: "piped",
+  const flags = [
+    "--headless",
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-quic",
+    "--no-first-run",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+    `--user-data-dir=${profile}`,
+    "--remote-debugging-pipe",
+    "about:blank",
+  ];
+  // the shell hands our stdin/stdout to Chromium as its pipe descriptors 3 and 4
+  const child = new Deno.Command("/bin/sh", {
+    args: ["-c", `exec "$0" "$@" 3<&0 4>&1 </dev/null >/dev/null 2>/dev/null`, CHROMIUM, ...flags],
+    stdin: "piped",
+    stdout: "piped",
+    stderr: "null",
   }).spawn();
-  // read stderr to the end (so Chromium never blocks on a full pipe), resolving the DevTools URL
-  let found: (url: string) => void = () => {};
-  const endpoint = new Promise<string>((resolve) => found = resolve);
-  const drained = (async () => {
-    let text = "";
-    for await (const chunk of child.stderr.pipeThrough(new TextDecoderStream())) {
-      text += chunk;
-      const m = text.match(/DevTools listening on (ws:\/\/\S+)/);
-      if (m) found(m[1]);
-    }
-    return text;
-  })();
-  let devtools: Devtools | undefined;
+  const devtools = new Devtools(child.stdin, child.stdout);
   try {
-    const browserUrl = await timeout(endpoint, 30, "Chromium to start");
-    const port = new URL(browserUrl).port;
-    const targets = await (await fetch(`http://127.0.0.1:${port}/json/list`)).json() as {
-      type: string;
-      webSocketDebuggerUrl: string;
-    }[];
-    const page = targets.find((t) => t.type === "page");
+    const { targetInfos } = await timeout(
+      devtools.send("Target.getTargets"),
+      30,
+      "Chromium to start",
+    ) as { targetInfos: { type: string; targetId: string }[] };
+    const page = targetInfos.find((t) => t.type === "page");
     assert.ok(page, "Chromium opened a page");
-    devtools = await Devtools.open(page.webSocketDebuggerUrl);
+    const attached = await devtools.send("Target.attachToTarget", {
+      targetId: page.targetId,
+      flatten: true,
+    });
+    devtools.session = attached.sessionId as string;
     await devtools.send("Runtime.enable");
     await devtools.send("Log.enable");
     await devtools.send("Page.enable");
@@ -184,17 +194,18 @@ async function openInChromium(file: string, probe: string, shot?: string): Promi
       });
       await Deno.writeFile(new URL(`${shot}-full.png`, ARTIFACTS), decode(full.data as string));
     }
+    devtools.session = undefined;
     await devtools.send("Browser.close").catch(() => undefined);
     return { events: devtools.events, page: value };
   } finally {
-    await devtools?.close();
+    await devtools.close();
     try {
       child.kill("SIGKILL");
     } catch {
       // already exited after Browser.close
     }
     await child.status;
-    await drained;
+    await devtools.done.catch(() => undefined);
     await Deno.remove(profile, { recursive: true }).catch(() => undefined);
   }
 }

@@ -1,0 +1,62 @@
+import assert from "node:assert/strict";
+import { InputError } from "../harness/cli/errors.ts";
+import { checkCaseFiles, libraryIds, loadCase, loadCaseFiles, loadLibrary } from "./load.ts";
+
+const fixture = (name: string) => `testdata/cases/${name}`;
+
+Deno.test("the library holds at least 14 cases, each file named after its id", async () => {
+  const ids = libraryIds();
+  assert.ok(ids.length >= 14, ids.join(", "));
+  const cases = await loadLibrary();
+  assert.deepEqual(cases.map((c) => c.id), ids);
+  for (const c of cases) assert.equal(c.origin, "library");
+});
+
+Deno.test("loadCase() refuses an unknown id with the list of valid ones and a suggestion", async () => {
+  await assert.rejects(loadCase("boundary-layr"), (e: unknown) => {
+    assert.ok(e instanceof InputError);
+    assert.match(e.message, /unknown case "boundary-layr" \(did you mean "boundary-layer"\?\)/);
+    assert.match(e.message, /smooth-baseline/);
+    return true;
+  });
+});
+
+Deno.test("loadCase() applies parameter overrides", async () => {
+  const c = await loadCase("boundary-layer", { parameters: { w: 0.1 } });
+  assert.deepEqual(c.parameters, { w: 0.1 });
+  assert.equal(c.coefficients.a(0.3, 0.3), 0.1);
+});
+
+Deno.test("loadCaseFiles() refuses an id used twice, naming both files", async () => {
+  await assert.rejects(
+    loadCaseFiles([fixture("duplicate-a.json"), fixture("duplicate-b.json")]),
+    /id "user-twice" is used twice: in testdata\/cases\/duplicate-a\.json and in testdata\/cases\/duplicate-b\.json/,
+  );
+  await assert.rejects(
+    loadCaseFiles([fixture("library-id.json")]),
+    /id "smooth-baseline" is used twice: in cases\/library\/smooth-baseline\.json and in testdata\/cases\/library-id\.json/,
+  );
+});
+
+Deno.test("a pure-Neumann case without reaction is refused at load as singular", async () => {
+  await assert.rejects(loadCase(fixture("singular-neumann.json")), (e: unknown) => {
+    assert.ok(e instanceof InputError);
+    assert.match(
+      e.problems.join("\n"),
+      /singular-neumann\.json:\d+:\d+: boundary: every side is neumann and the reaction coefficient e is 0/,
+    );
+    return true;
+  });
+});
+
+Deno.test("checkCaseFiles() collects every problem of every file and passes a good one", async () => {
+  const results = await checkCaseFiles([fixture("good.json"), fixture("forbidden-functions.json")]);
+  assert.deepEqual(results[0].problems, []);
+  assert.equal(results[1].problems.length, 5);
+  for (const name of ["import", "evaluate", "parse", "createUnit", "config"]) {
+    assert.ok(
+      results[1].problems.some((p) => p.includes(`function "${name}" is not allowed`)),
+      name,
+    );
+  }
+});

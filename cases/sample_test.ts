@@ -1,0 +1,83 @@
+import assert from "node:assert/strict";
+import { buildCase } from "./engine.ts";
+import { testCase } from "./_test_case.ts";
+
+Deno.test("sample() lays nodes out x fastest with boundary values ordered by increasing coordinate", async () => {
+  const c = await buildCase(
+    testCase({
+      domain: { x0: 1, x1: 2, y0: -1, y1: 1 },
+      coefficients: { a: "1 + x", b: "y", c: "2", d: "0", e: "x*y" },
+      exact: "x + 10*y",
+    }),
+    { origin: "test" },
+  );
+  const p = c.sample(4, 2);
+  // node (i, j) at (1 + i/4, −1 + j), index j·5 + i (problem.ts)
+  assert.equal(p.a[1 * 5 + 2], 1 + 1.5);
+  assert.equal(p.e[2 * 5 + 4], 2 * 1);
+  assert.equal(p.b[0], -1);
+  assert.deepEqual([...p.boundary.west.values], [1 - 10, 1, 1 + 10]);
+  assert.deepEqual([...p.boundary.north.values], [11, 11.25, 11.5, 11.75, 12]);
+  assert.deepEqual([...c.sampleExact(4, 2)].slice(5, 10), [1, 1.25, 1.5, 1.75, 2]);
+});
+
+Deno.test("sample() refuses a non-elliptic operator, naming the node, its coordinates and the values", async () => {
+  const c = await buildCase(
+    testCase({ coefficients: { a: "x - 0.5", b: "0", c: "1", d: "0", e: "0" } }),
+    {
+      origin: "my.json",
+    },
+  );
+  assert.throws(() => c.sample(4, 4), (e: unknown) => {
+    assert.ok(e instanceof RangeError);
+    assert.match(
+      e.message,
+      /case "test-case" \(my\.json\): the operator is not elliptic at node \(i=0, j=0\) at \(x, y\) = \(0, 0\): a = -0\.5, c = 1/,
+    );
+    assert.match(e.message, /fix coefficients\.a or coefficients\.c/);
+    return true;
+  });
+});
+
+Deno.test("sample() names the node and field where NaN or infinity appears", async () => {
+  const c = await buildCase(testCase({ exact: "sqrt(x - 0.5)" }), { origin: "test" });
+  assert.throws(() => c.sample(4, 4), /the derived source term f is NaN at node \(i=0, j=0\)/);
+  const d = await buildCase(
+    testCase({ coefficients: { a: "1", b: "1/(y - 0.5)", c: "1", d: "0", e: "0" } }),
+    {
+      origin: "test",
+    },
+  );
+  assert.throws(
+    () => d.sample(4, 4),
+    /coefficients\.b is -?Infinity at node \(i=0, j=2\) at \(x, y\) = \(0, 0\.5\)/,
+  );
+});
+
+Deno.test("sample() refuses grid sizes below 2 or not whole", async () => {
+  const c = await buildCase(testCase(), { origin: "test" });
+  assert.throws(() => c.sample(1, 4), /nx must be an integer of at least 2, found 1/);
+  assert.throws(() => c.sample(4, 2.5), /ny must be an integer of at least 2, found 2.5/);
+});
+
+Deno.test("sampleAsync() split across threads gives exactly the numbers of the single-thread path", async () => {
+  const c = await buildCase(
+    testCase({
+      coefficients: {
+        a: "1 + 0.5*sin(2*pi*x)*sin(2*pi*y)",
+        b: "x",
+        c: "1 + 0.25*cos(pi*x*y)",
+        d: "y",
+        e: "-(1 + x*y)",
+      },
+      exact: "sin(pi*x)*sin(pi*y)*exp(x*y)",
+    }),
+    { origin: "test" },
+  );
+  const sync = c.sample(64, 48);
+  const parallel = await c.sampleAsync(64, 48, { threads: 3, minNodes: 0 });
+  for (const f of ["a", "b", "c", "d", "e", "f"] as const) {
+    assert.deepEqual(parallel[f], sync[f], f);
+  }
+  assert.ok(parallel.f.buffer instanceof SharedArrayBuffer);
+});

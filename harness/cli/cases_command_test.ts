@@ -1,0 +1,125 @@
+import assert from "node:assert/strict";
+import { runCli } from "./_run_cli_test_helper.ts";
+
+const fixture = (name: string) => `testdata/cases/${name}`;
+
+/** Asserts a bad-input run: exit code 2, every pattern in stderr, and no stack trace. */
+function assertBadInput(run: { code: number; stderr: string }, patterns: RegExp[]) {
+  assert.equal(run.code, 2, run.stderr);
+  for (const p of patterns) assert.match(run.stderr, p);
+  assert.doesNotMatch(run.stderr, /\n\s+at .*\.ts:\d+/, "no stack trace");
+}
+
+Deno.test("gridproof cases lists the library as a table and as JSON", async () => {
+  const table = await runCli(["cases"]);
+  assert.equal(table.code, 0, table.stderr);
+  assert.match(table.stdout, /^id\s+title\s+W E S N\s+order\s+tags/);
+  assert.match(table.stdout, /weak-singularity .* N D D D {2}2 \(max 1\.5, l2 1\.5\)/);
+  const json = await runCli(["cases", "--json"]);
+  const rows = JSON.parse(json.stdout);
+  assert.ok(rows.length >= 14);
+  for (const key of ["id", "title", "expectedOrder", "boundary", "tags"]) {
+    assert.ok(key in rows[0], key);
+  }
+  const exact = rows.find((r: { id: string }) => r.id === "quadratic-exact");
+  assert.equal(exact.exact, true);
+});
+
+Deno.test("gridproof cases show prints the operator, exact solution, source and boundary data", async () => {
+  const run = await runCli(["cases", "show", "neumann-all"]);
+  assert.equal(run.code, 0, run.stderr);
+  for (
+    const p of [
+      /Operator: a·u_xx/,
+      /u = cos\(pi \* x\) \* exp\(y\) \+ sin\(x \* y\)/,
+      /f = /,
+      /west \(x = 0\), neumann: ∂u\/∂n = /,
+    ]
+  ) {
+    assert.match(run.stdout, p);
+  }
+  const tex = await runCli(["cases", "show", "smooth-baseline", "--tex"]);
+  assert.match(tex.stdout, /\\sin\\left\(/);
+});
+
+Deno.test("gridproof cases show refuses an unknown case with the list of valid ones", async () => {
+  const run = await runCli(["cases", "show", "smooth-basline"]);
+  assertBadInput(run, [
+    /unknown case "smooth-basline" \(did you mean "smooth-baseline"\?\)/,
+    /quadratic-exact/,
+  ]);
+});
+
+Deno.test("gridproof cases check passes a good file with exit code 0", async () => {
+  const run = await runCli(["cases", "check", fixture("good.json")]);
+  assert.equal(run.code, 0, run.stderr);
+  assert.match(run.stdout, /ok: testdata\/cases\/good\.json/);
+});
+
+Deno.test("gridproof cases check: malformed JSON names the line and column", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("malformed-json.txt")]), [
+    /malformed-json\.txt:46:3: malformed JSON: expected ',' or '}' after a field value/,
+  ]);
+});
+
+Deno.test("gridproof cases check: a misspelled field gets the closest valid name", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("misspelled.json")]), [
+    /misspelled\.json:\d+:\d+: coeficients: unknown field "coeficients"; did you mean "coefficients"\?/,
+  ]);
+});
+
+Deno.test("gridproof cases check: a missing field is named with what it means", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("missing-field.json")]), [
+    /missing-field\.json:1:1: exact: missing field "exact" \(The manufactured exact solution/,
+  ]);
+});
+
+Deno.test("gridproof cases check: a syntax error shows the column and the expression", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("syntax-error.json")]), [
+    /syntax-error\.json:20:30: exact: column 18 of the expression: syntax error: Parenthesis \) expected/,
+    /sin\(pi\*x \* exp\(y\)\n\s+\^/,
+  ]);
+});
+
+Deno.test("gridproof cases check: an unknown symbol lists the allowed names", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("unknown-symbol.json")]), [
+    /exact: column 8 of the expression: unknown name "z"/,
+    /allowed names: x, y, pi, e; no parameters; functions: sin, cos/,
+  ]);
+});
+
+Deno.test("gridproof cases check: import, evaluate, parse, createUnit and config are refused together", async () => {
+  const run = await runCli(["cases", "check", fixture("forbidden-functions.json")]);
+  assertBadInput(run, [
+    /coefficients\.a: column 5 of the expression: function "import" is not allowed \(refused, never run\)/,
+    /coefficients\.b: .*function "evaluate" is not allowed/,
+    /coefficients\.c: .*function "parse" is not allowed/,
+    /coefficients\.d: .*function "createUnit" is not allowed/,
+    /coefficients\.e: .*function "config" is not allowed/,
+  ]);
+});
+
+Deno.test("gridproof cases check: a non-elliptic coefficient names the point and the values", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("not-elliptic.json")]), [
+    /not elliptic at node \(i=0, j=0\) at \(x, y\) = \(0, 0\): a = -0\.5, c = 1, a·c = -0\.5/,
+  ]);
+});
+
+Deno.test("gridproof cases check: infinity on the grid names the point and field", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("not-finite.json")]), [
+    /coefficients\.e is -Infinity at node \(i=0, j=0\) at \(x, y\) = \(0, 0\) on the 8×8 grid/,
+  ]);
+});
+
+Deno.test("gridproof cases check: a singular pure-Neumann case without reaction is refused", async () => {
+  assertBadInput(await runCli(["cases", "check", fixture("singular-neumann.json")]), [
+    /singular-neumann\.json:\d+:\d+: boundary: every side is neumann and the reaction coefficient e is 0/,
+  ]);
+});
+
+Deno.test("gridproof cases check: an id used twice names both files", async () => {
+  assertBadInput(
+    await runCli(["cases", "check", fixture("duplicate-a.json"), fixture("duplicate-b.json")]),
+    [/duplicate-b\.json: id: "user-twice" is already used by testdata\/cases\/duplicate-a\.json/],
+  );
+});
