@@ -22,8 +22,8 @@ Deno.test("loadCase() refuses an unknown id with the list of valid ones and a su
 });
 
 Deno.test("loadCase() applies parameter overrides", async () => {
-  const c = await loadCase("boundary-layer", { parameters: { w: 0.1 } });
-  assert.deepEqual(c.parameters, { w: 0.1 });
+  const c = await loadCase("boundary-layer", { parameters: { width: 0.1 } });
+  assert.deepEqual(c.parameters, { width: 0.1 });
   assert.equal(c.coefficients.a(0.3, 0.3), 0.1);
 });
 

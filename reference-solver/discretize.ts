@@ -93,61 +93,77 @@ export function discretize(problem: Problem, upwind = false): Discretization {
   const gW = ghostData(west), gE = ghostData(east), gS = ghostData(south), gN = ghostData(north);
   const ihx2 = 1 / (hx * hx), ihy2 = 1 / (hy * hy), i2hx = 1 / (2 * hx), i2hy = 1 / (2 * hy);
   const { a, b, c, d, e, f } = problem;
-  for (let j = 0; j <= ny; j++) {
-    for (let i = 0; i <= nx; i++) {
-      const q = j * (nx + 1) + i;
-      const k = (j + 1) * stride + i + 1;
-      const onW = i === 0 && dW, onE = i === nx && dE, onS = j === 0 && dS, onN = j === ny && dN;
-      if (onW || onE || onS || onN) {
-        C[k] = 1;
-        rhs[k] = onW
-          ? dirichletValue(west, j)
-          : onE
-          ? dirichletValue(east, j)
-          : onS
-          ? dirichletValue(south, i)
-          : dirichletValue(north, i);
-        dirichlet.push(k);
-        continue;
-      }
-      const aq = a[q], bq = b[q], cq = c[q], dq = d[q];
-      let w: number, ea: number, s: number, n: number, cen: number;
-      if (upwind) {
-        w = aq * ihx2, ea = aq * ihx2, cen = -2 * aq * ihx2;
-        const bx = bq / hx;
-        if (bq * aq > 0) (ea += bx, cen -= bx);
-        else (w -= bx, cen += bx);
-        s = cq * ihy2, n = cq * ihy2, cen -= 2 * cq * ihy2;
-        const dy = dq / hy;
-        if (dq * cq > 0) (n += dy, cen -= dy);
-        else (s -= dy, cen += dy);
-      } else {
-        w = aq * ihx2 - bq * i2hx;
-        ea = aq * ihx2 + bq * i2hx;
-        s = cq * ihy2 - dq * i2hy;
-        n = cq * ihy2 + dq * i2hy;
-        cen = -2 * aq * ihx2 - 2 * cq * ihy2;
-      }
-      cen += e[q];
-      let r = f[q];
-      // Ghost elimination: u_ghost = u_opposite + (2h/β)·(g − α·u), coefficient K folded in.
-      if (i === 0) {
-        const g = 2 * hx / gW.beta;
-        ea += w, cen -= w * g * gW.alpha, r -= w * g * west.values[j], w = 0;
-      } else if (i === nx) {
-        const g = 2 * hx / gE.beta;
-        w += ea, cen -= ea * g * gE.alpha, r -= ea * g * east.values[j], ea = 0;
-      }
-      if (j === 0) {
-        const g = 2 * hy / gS.beta;
-        n += s, cen -= s * g * gS.alpha, r -= s * g * south.values[i], s = 0;
-      } else if (j === ny) {
-        const g = 2 * hy / gN.beta;
-        s += n, cen -= n * g * gN.alpha, r -= n * g * north.values[i], n = 0;
-      }
-      W[k] = w, E[k] = ea, S[k] = s, N[k] = n, C[k] = cen, invC[k] = 1 / cen;
-      rhs[k] = r;
+  // The general stencil of one node (boundary rows, upwinding), per the module doc.
+  const node = (i: number, j: number): void => {
+    const q = j * (nx + 1) + i;
+    const k = (j + 1) * stride + i + 1;
+    const onW = i === 0 && dW, onE = i === nx && dE, onS = j === 0 && dS, onN = j === ny && dN;
+    if (onW || onE || onS || onN) {
+      C[k] = 1;
+      rhs[k] = onW
+        ? dirichletValue(west, j)
+        : onE
+        ? dirichletValue(east, j)
+        : onS
+        ? dirichletValue(south, i)
+        : dirichletValue(north, i);
+      dirichlet.push(k);
+      return;
     }
+    const aq = a[q], bq = b[q], cq = c[q], dq = d[q];
+    let w: number, ea: number, s: number, n: number, cen: number;
+    if (upwind) {
+      w = aq * ihx2, ea = aq * ihx2, cen = -2 * aq * ihx2;
+      const bx = bq / hx;
+      if (bq * aq > 0) (ea += bx, cen -= bx);
+      else (w -= bx, cen += bx);
+      s = cq * ihy2, n = cq * ihy2, cen -= 2 * cq * ihy2;
+      const dy = dq / hy;
+      if (dq * cq > 0) (n += dy, cen -= dy);
+      else (s -= dy, cen += dy);
+    } else {
+      w = aq * ihx2 - bq * i2hx;
+      ea = aq * ihx2 + bq * i2hx;
+      s = cq * ihy2 - dq * i2hy;
+      n = cq * ihy2 + dq * i2hy;
+      cen = -2 * aq * ihx2 - 2 * cq * ihy2;
+    }
+    cen += e[q];
+    let r = f[q];
+    // Ghost elimination: u_ghost = u_opposite + (2h/β)·(g − α·u), coefficient K folded in.
+    if (i === 0) {
+      const g = 2 * hx / gW.beta;
+      ea += w, cen -= w * g * gW.alpha, r -= w * g * west.values[j], w = 0;
+    } else if (i === nx) {
+      const g = 2 * hx / gE.beta;
+      w += ea, cen -= ea * g * gE.alpha, r -= ea * g * east.values[j], ea = 0;
+    }
+    if (j === 0) {
+      const g = 2 * hy / gS.beta;
+      n += s, cen -= s * g * gS.alpha, r -= s * g * south.values[i], s = 0;
+    } else if (j === ny) {
+      const g = 2 * hy / gN.beta;
+      s += n, cen -= n * g * gN.alpha, r -= n * g * north.values[i], n = 0;
+    }
+    W[k] = w, E[k] = ea, S[k] = s, N[k] = n, C[k] = cen, invC[k] = 1 / cen;
+    rhs[k] = r;
+  };
+  for (let j = 0; j <= ny; j++) {
+    if (upwind || j === 0 || j === ny) {
+      for (let i = 0; i <= nx; i++) node(i, j);
+      continue;
+    }
+    // Interior of a row: central differences only, no boundary cases.
+    node(0, j);
+    const k0 = (j + 1) * stride + 1, q0 = j * (nx + 1);
+    for (let i = 1; i < nx; i++) {
+      const q = q0 + i, k = k0 + i;
+      const ax = a[q] * ihx2, bx = b[q] * i2hx, cy = c[q] * ihy2, dy = d[q] * i2hy;
+      const cen = e[q] - 2 * (ax + cy);
+      W[k] = ax - bx, E[k] = ax + bx, S[k] = cy - dy, N[k] = cy + dy;
+      C[k] = cen, invC[k] = 1 / cen, rhs[k] = f[q];
+    }
+    node(nx, j);
   }
   const op: LevelOperator = {
     ...layout,

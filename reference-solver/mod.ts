@@ -5,14 +5,31 @@
  * It knows nothing of cases, expressions or the harness: it takes a {@link Problem} of plain
  * typed arrays and returns a {@link SolveResult} as data (non-convergence included).
  *
- * - `solve(problem, options)`: validate, build the levels, cycle to the tolerance.
- * - `resolveOptions(options)`: every default filled in; unknown keys refused by dotted path.
- * - `assembleMatrix(problem)` / `residualNorm(problem, u)`: the exact discrete system (CSR) that
- *   `solve` works on (discretization documented in `discretize.ts`).
- * - Components for tests and experiments: `SMOOTHERS` / `createSmoother`, `RESTRICTIONS` /
- *   `createTransfer`, `CYCLES` / `cycle` / `fCycle` / `fullMultigrid`, `buildLevel` (one level's
- *   operator, padded layout: see `level.ts`), `buildHierarchy`, `createDirectSolver`, `bandedLU`,
- *   `describeLevels`. A two-grid method: `coarse: { maxLevels: 2 }` (exact coarse solve).
+ * Main entry points:
+ * - `solve(problem, options?)`: validate, build the levels, cycle until a stopping rule fires
+ *   (converged / max-cycles / diverged / stagnated). Singular problems with
+ *   `singular: "mean-zero"` are documented at `solve`.
+ * - `resolveOptions(options?)`: every default filled in; unknown keys refused by dotted path.
+ * - `assembleMatrix(problem, { upwind? })` / `residualNorm(problem, u, { upwind? })`: the exact
+ *   discrete system (CSR, one row per node, Dirichlet rows identity) that `solve` works on. The
+ *   discretization (central 5-point stencil, optional upwinding, ghost nodes for Neumann/Robin,
+ *   corners) is documented in `discretize.ts`.
+ * - `describeLevels({ nx, ny, domain? }, options?)`: the levels a solve would use, finest first.
+ *
+ * Components, for tests and experiments (all work on the padded layout of `level.ts`; convert
+ * with `level.pad` / `level.unpad`):
+ * - `buildLevel(problem, { upwind?, singular? })`: one level's operator (`LevelOperator`).
+ * - `SMOOTHERS` and `createSmoother(name, level, { omega? })` → `{ smooth(u, f, sweeps) }`
+ *   (exactly `sweeps` sweeps, in place).
+ * - `RESTRICTIONS` and `createTransfer(restriction, fine, coarse)` →
+ *   `{ restrict, interpolateAdd, interpolate }` (bilinear interpolation).
+ * - `CYCLES`, `cycle(h, level, gamma, params)` (V: γ = 1, W: γ = 2), `fCycle`, `fullMultigrid`
+ *   on a `Hierarchy` from `buildHierarchy(problem, resolveOptions(options))`; level 0 is the finest.
+ * - `createDirectSolver(level)` (banded LU of a level, factorized once) and `bandedLU`.
+ * - A two-grid method with an exact coarse solve: `solve(p, { coarse: { maxLevels: 2 } })`.
+ *
+ * Coarse operators are rediscretized from injected coefficients and boundary data;
+ * `coarse.operator: "galerkin"` is not implemented and is refused with a RangeError.
  *
  * @example
  * ```ts

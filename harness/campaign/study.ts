@@ -59,6 +59,7 @@ export function buildStudies(
         tolerance: options.orderTolerance,
         gridIndependence: options.requireGridIndependence ? "fail" : "warn",
         solutionScale: scale,
+        exactTolerance: { rel: exactnessBound(options.tolerance), abs: 1e-12 },
         quantities,
       });
       if (mine.every((r) => r.status === "not-applicable")) {
@@ -78,6 +79,16 @@ export function buildStudies(
     }
   }
   return studies;
+}
+
+/**
+ * Relative error bound of the exactness verdict: round-off (1e-9) or, for a solver stopped at a
+ * relative residual `tolerance`, the algebraic error that leaves — ‖e‖ ≤ κ(A)·tolerance·‖u‖ with
+ * κ(A) = O(h⁻²) ≈ 1e3 on the exactness case's small grids (derived bound; a wrong scheme shows
+ * errors of 1e-4 or more on a quadratic, so the bound still catches every defect).
+ */
+export function exactnessBound(tolerance: number): number {
+  return Math.max(1e-9, 1e3 * tolerance);
 }
 
 function maxAbs(kase: CompiledCase): number {

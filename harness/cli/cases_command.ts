@@ -166,7 +166,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     .option("--tex", "print the formulas as TeX")
     .option(
       "--param <name=value>",
-      "override a parameter (repeatable), e.g. --param w=0.1",
+      "override a parameter (repeatable), e.g. --param width=0.1",
       (v: string, acc: string[] | undefined) => [...(acc ?? []), v],
     )
     .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {

@@ -89,7 +89,7 @@ export function parseParameterFlags(flags: readonly string[] = []): Record<strin
     const match = /^([A-Za-z_][A-Za-z0-9_]*)=(.+)$/.exec(flag.trim());
     const value = match ? Number(match[2]) : NaN;
     if (!match || !Number.isFinite(value)) {
-      throw bad("--param", `expected name=number, e.g. --param w=0.1, found "${flag}"`);
+      throw bad("--param", `expected name=number, e.g. --param width=0.1, found "${flag}"`);
     }
     out[match[1]] = value;
   }
@@ -237,7 +237,7 @@ export function registerSolveCommand(program: Command, setExitCode: SetExitCode)
     .option("--upwind", "first-order upwinding of b·u_x and d·u_y (formal order 1)")
     .option(
       "--param <name=value>",
-      "override a case parameter (repeatable), e.g. --param w=0.1",
+      "override a case parameter (repeatable), e.g. --param width=0.1",
       (v: string, acc: string[] | undefined) => [...(acc ?? []), v],
     )
     .option("--json", "print one JSON object")

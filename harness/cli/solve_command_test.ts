@@ -55,10 +55,10 @@ Deno.test("gridproof solve takes a case file, options and parameters, and prints
     "--n",
     "64",
     "--param",
-    "w=0.1",
+    "width=0.1",
     "--json",
   ]);
-  assert.deepEqual(JSON.parse(param.stdout).parameters, { w: 0.1 });
+  assert.deepEqual(JSON.parse(param.stdout).parameters, { width: 0.1 });
 });
 
 Deno.test("gridproof solve refuses unknown cases, cycles, smoothers and bad numbers with the valid values", async (t) => {
@@ -77,7 +77,7 @@ Deno.test("gridproof solve refuses unknown cases, cycles, smoothers and bad numb
       /--n: must be a whole number of at least 2, found "1"/,
     ],
     [["--case", "smooth-baseline", "--tol", "abc"], /--tol: must be a number between 0 and 1/],
-    [["--case", "boundary-layer", "--param", "q=1"], /has no parameter "q"; valid parameters: w/],
+    [["--case", "boundary-layer", "--param", "q=1"], /has no parameter "q"; valid parameters: width/],
     [["--case", "testdata/cases/not-elliptic.json", "--n", "8"], /not elliptic at node/],
     [["--case", "testdata/cases/missing.json"], /testdata\/cases\/missing\.json: file not found/],
   ];

@@ -19,11 +19,20 @@ function swapEach8(bytes: Uint8Array): void {
   }
 }
 
+function isConstant(values: Float64Array): boolean {
+  const first = values[0];
+  if (!Number.isFinite(first)) return false;
+  for (let k = 1; k < values.length; k++) if (values[k] !== first) return false;
+  return true;
+}
+
 /**
- * Writes an array in the given encoding.
+ * Writes an array in the given encoding; with `constants`, an array whose entries are all equal
+ * (and finite) is written as `{ constant, length }` instead (an opt-in form, see docs/protocol.md).
  *
  * @param values the numbers
  * @param encoding "numbers" (a JSON number array) or "base64" ({ base64 } of little-endian float64)
+ * @param options `constants`: use the constant form where it applies (default false)
  * @returns the wire form
  *
  * @example
@@ -32,7 +41,14 @@ function swapEach8(bytes: Uint8Array): void {
  * encodeArray(new Float64Array([1]), "base64"); // { base64: "AAAAAAAA8D8=" }
  * ```
  */
-export function encodeArray(values: Float64Array, encoding: ArrayEncoding): WireArray {
+export function encodeArray(
+  values: Float64Array,
+  encoding: ArrayEncoding,
+  options: { constants?: boolean } = {},
+): WireArray {
+  if (options.constants && values.length > 0 && isConstant(values)) {
+    return { constant: values[0], length: values.length };
+  }
   if (encoding === "numbers") return Array.from(values);
   let bytes = new Uint8Array(values.buffer, values.byteOffset, values.byteLength);
   if (!LITTLE_ENDIAN) {

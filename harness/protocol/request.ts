@@ -33,6 +33,11 @@ export interface RequestDetails {
   tolerance: number;
   timeLimitSeconds: number;
   encoding: ArrayEncoding;
+  /**
+   * Send arrays whose entries are all equal as `{ constant, length }` (only for solvers that opted
+   * in with `constantArrays`). Default: false.
+   */
+  constants?: boolean;
 }
 
 /**
@@ -67,7 +72,8 @@ export function buildSolveRequest(
   problem: SampledProblem,
   details: RequestDetails,
 ): SolveRequestMessage {
-  const enc = (v: Float64Array) => encodeArray(v, details.encoding);
+  const constants = details.constants ?? false;
+  const enc = (v: Float64Array) => encodeArray(v, details.encoding, { constants });
   const boundary = {} as SolveRequestMessage["boundary"];
   for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];

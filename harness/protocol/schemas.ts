@@ -112,6 +112,12 @@ export function validateMessage(name: MessageName, data: unknown): string[] {
         }
         const branch = error.schemaPath.includes("/oneOf/0/") ? "list" : "object";
         if ((branch === "list" && !isList) || (branch === "object" && !isObject)) continue;
+        // an object is checked against both object forms: report the form it tried to be
+        if (branch === "object" && isObject) {
+          const looksConstant = "constant" in (value as object);
+          const isConstantBranch = error.schemaPath.includes("/oneOf/2/");
+          if (looksConstant !== isConstantBranch) continue;
+        }
       }
     }
     problems.push(describe(error));

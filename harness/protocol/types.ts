@@ -14,8 +14,11 @@ export type ArrayEncoding = "numbers" | "base64";
 /** All array encodings, in documentation order. */
 export const ENCODINGS: readonly ArrayEncoding[] = ["numbers", "base64"] as const;
 
-/** An array as it appears in a message. */
-export type WireArray = number[] | { base64: string };
+/**
+ * An array as it appears in a message: JSON numbers, base64 of little-endian float64, or (opt-in,
+ * requests only) one repeated value.
+ */
+export type WireArray = number[] | { base64: string } | { constant: number; length: number };
 
 /** Grid layouts a request can be sampled on. */
 export type GridLayout = "vertex" | "cell";

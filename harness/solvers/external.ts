@@ -219,6 +219,7 @@ class Runner {
         tolerance: task.tolerance,
         timeLimitSeconds: limitSeconds,
         encoding: spec.encoding,
+        constants: spec.constantArrays ?? false,
       });
       bytes = new TextEncoder().encode(serializeMessage(message));
     } catch (error) {

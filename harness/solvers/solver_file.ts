@@ -121,6 +121,7 @@ export async function loadSolverFile(
     if (entry.cwd !== undefined) spec.cwd = entry.cwd as string;
     if (entry.env !== undefined) spec.env = { ...(entry.env as Record<string, string>) };
     if (entry.memoryLimitMiB !== undefined) spec.memoryLimitMiB = entry.memoryLimitMiB as number;
+    if (entry.constantArrays !== undefined) spec.constantArrays = entry.constantArrays as boolean;
     specs.push(spec);
   });
   return specs;

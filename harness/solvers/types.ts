@@ -103,4 +103,9 @@ export interface ExternalSolverSpec {
   skipCases: string[];
   /** Largest accepted reply. Default 1024 (1 GiB). */
   maxReplyMiB: number;
+  /**
+   * The solver reads `{ constant, length }` arrays, so constant coefficients are sent as one
+   * number. Default false.
+   */
+  constantArrays?: boolean;
 }

@@ -1,0 +1,17 @@
+import { loadCase } from "./cases/mod.ts";
+import { buildSolveRequest, serializeMessage, readSolveRequest } from "./harness/protocol/mod.ts";
+import { sampleCase } from "./harness/solvers/mod.ts";
+import { solve } from "./reference-solver/mod.ts";
+const c = await loadCase("smooth-baseline");
+const n = 1024;
+let t = performance.now();
+const lap = (what: string) => { const now = performance.now(); console.log(what, (now - t).toFixed(0), "ms"); t = now; };
+const s = sampleCase(c, n, n, "vertex"); lap("sample");
+const p2 = c.sample(n, n); lap("sample again");
+const f = c.formulas;
+const msg = buildSolveRequest(s, { id: "x", caseId: c.id, expressions: { ...f }, scheme: "central", tolerance: 1e-10, timeLimitSeconds: 60, encoding: "base64" }); lap("build");
+const text = serializeMessage(msg); lap("stringify");
+const bytes = new TextEncoder().encode(text); lap("textencode");
+const back = new TextDecoder().decode(bytes); lap("textdecode");
+const r = readSolveRequest(back); lap("readSolveRequest");
+const res = solve(p2, { stop: { tolerance: 1e-10 } }); lap("solve in-proc");

@@ -1,0 +1,119 @@
+/**
+ * End-to-end tests of the campaign: the reference solver passes the built-in cases, a defective
+ * solver variant fails with a reason naming the boundary band, results do not depend on the job
+ * count, and an interrupted campaign resumes from its journal.
+ */
+import assert from "node:assert/strict";
+import { loadCase } from "../../cases/mod.ts";
+import type { CompiledCase } from "../../cases/types.ts";
+import { runCampaign } from "../../harness/campaign/campaign.ts";
+import { createPooledReferenceSolver } from "../../harness/campaign/reference_pool.ts";
+import { createReferenceSolver, type Solver } from "../../harness/solvers/mod.ts";
+
+/**
+ * A defective variant of the reference solver: the east side's Dirichlet data are taken half a
+ * cell inside the domain, g(x1 − h/2, y) instead of g(x1, y) — a first-order error in the
+ * boundary treatment (Taylor: g(x1 − h/2) = g(x1) − (h/2)·u_x + O(h²)), the kind of slip a
+ * cell-/vertex-centred mix-up makes. Truncation-error analysis (derived) predicts order 1 in the
+ * boundary band, polluting the interior.
+ */
+function defectiveSolver(): Solver {
+  const inner = createReferenceSolver({ name: "defective" });
+  return {
+    info: { ...inner.info, kind: "external", name: "defective" },
+    solve(task) {
+      const kase = task.case;
+      const shifted: CompiledCase = {
+        ...kase,
+        sample(nx, ny) {
+          const p = kase.sample(nx, ny);
+          const hx = (p.domain.x1 - p.domain.x0) / nx;
+          const hy = (p.domain.y1 - p.domain.y0) / ny;
+          const east = p.boundary.east;
+          for (let j = 0; j <= ny; j++) {
+            east.values[j] = kase.exact(p.domain.x1 - hx / 2, p.domain.y0 + j * hy);
+          }
+          return p;
+        },
+      };
+      return inner.solve({ ...task, case: shifted });
+    },
+    close: () => inner.close(),
+  };
+}
+
+Deno.test("check: the reference passes and a solver with a first-order east side fails naming the boundary band", async () => {
+  const kase = await loadCase("smooth-baseline");
+  assert.equal(kase.boundary.east.kind, "dirichlet");
+  const solvers = [createReferenceSolver(), defectiveSolver()];
+  const result = await runCampaign([kase], solvers, { grids: [16, 32, 64, 128] });
+  const reference = result.studies.find((s) => s.solver === "reference")!;
+  const defective = result.studies.find((s) => s.solver === "defective")!;
+  // Reference: order 2 within ±0.1 (formal order of the 5-point central scheme, derived)
+  assert.ok(
+    reference.verdicts.every((v) => v.status !== "fail"),
+    JSON.stringify(reference.verdicts.filter((v) => v.status === "fail")),
+  );
+  const failed = defective.verdicts.filter((v) => v.status === "fail");
+  const order = failed.find((v) => v.criterion === "order");
+  const band = failed.find((v) => v.criterion === "boundary-order");
+  assert.ok(order, "the order verdict fails");
+  assert.ok(band, "the boundary-order verdict fails");
+  assert.match(band.reason, /boundary band/);
+  const max = defective.orders.find((o) => o.region === "boundary" && o.norm === "max")!;
+  const last = max.pairwise[max.pairwise.length - 1]!;
+  assert.ok(Math.abs(last - 1) < 0.2, `boundary-band order ${last} should be about 1`);
+  assert.equal(result.summary.exitCode, 1);
+});
+
+Deno.test("check: results do not depend on the number of parallel jobs", async () => {
+  const cases = [await loadCase("variable-all"), await loadCase("robin-all")];
+  const grids = [8, 16, 32];
+  const serial = await runCampaign(cases, [createReferenceSolver()], { grids, jobs: 1 });
+  const pooled = createPooledReferenceSolver({ workers: 2 });
+  const parallel = await runCampaign(cases, [pooled], { grids, jobs: 2 });
+  await pooled.close();
+  // identical arithmetic in every worker: bit-for-bit equal errors (exact identity)
+  const key = (r: { caseId: string; nx: number }) => `${r.caseId}/${r.nx}`;
+  const a = new Map(serial.solves.map((r) => [key(r), r.errors]));
+  for (const r of parallel.solves) assert.deepEqual(r.errors, a.get(key(r)));
+  assert.deepEqual(
+    parallel.studies.map((s) => s.verdicts.map((v) => [v.criterion, v.status])),
+    serial.studies.map((s) => s.verdicts.map((v) => [v.criterion, v.status])),
+  );
+});
+
+Deno.test("check: an interrupted campaign keeps its finished solves and resumes from the journal", async () => {
+  const out = await Deno.makeTempDir();
+  const kase = await loadCase("smooth-baseline");
+  const grids = [8, 16, 32, 64];
+  const controller = new AbortController();
+  let seen = 0;
+  const first = await runCampaign([kase], [createReferenceSolver()], {
+    grids,
+    outDir: out,
+    signal: controller.signal,
+    onProgress: () => {
+      if (++seen === 2) controller.abort();
+    },
+  });
+  assert.equal(first.solves.length, 2);
+  const journal = await Deno.readTextFile(`${out}/journal.jsonl`);
+  assert.equal(journal.trim().split("\n").length, 3); // header + 2 solves
+  const resumed: boolean[] = [];
+  const second = await runCampaign([kase], [createReferenceSolver()], {
+    grids,
+    outDir: out,
+    resume: true,
+    onProgress: (e) => resumed.push(e.resumed),
+  });
+  assert.deepEqual(resumed, [true, true, false, false]);
+  assert.deepEqual(second.solves.map((r) => r.nx), grids);
+  assert.deepEqual(second.solves[0].errors, first.solves[0].errors);
+  // a different configuration is refused rather than mixed in
+  await assert.rejects(
+    () => runCampaign([kase], [createReferenceSolver()], { grids: [8, 16], outDir: out, resume: true }),
+    /another --out folder|same options/,
+  );
+  await Deno.remove(out, { recursive: true });
+});

@@ -1,0 +1,56 @@
+/**
+ * The `check` command end to end, as a release gate runs it: a plain `gridproof check` with the
+ * reference solver passes every built-in case (each case declares the order theory predicts for
+ * it — CHECK-VALUES.md, formal orders of the central 5-point scheme), writes result.json and the
+ * requested reports, and refuses bad flags with exit code 2.
+ */
+import assert from "node:assert/strict";
+
+const DENO = "./node_modules/.bin/deno";
+const PERMS = ["--allow-read", "--allow-write", "--allow-env", "--allow-run", "--allow-sys"];
+
+async function gridproof(args: string[]) {
+  const out = await new Deno.Command(DENO, {
+    args: ["run", "--quiet", ...PERMS, "cli.ts", ...args],
+    stdout: "piped",
+    stderr: "piped",
+    env: { NO_COLOR: "1" },
+  }).output();
+  const decode = (b: Uint8Array) => new TextDecoder().decode(b);
+  return { code: out.code, stdout: decode(out.stdout), stderr: decode(out.stderr) };
+}
+
+Deno.test("gridproof check passes every built-in case with the reference solver and writes its reports", async () => {
+  const dir = await Deno.makeTempDir();
+  const run = await gridproof(["check", "--out", dir, "--format", "md,junit,csv", "--no-progress"]);
+  assert.equal(run.code, 0, run.stdout + run.stderr);
+  assert.match(run.stdout, / 0 failed/);
+  const result = JSON.parse(await Deno.readTextFile(`${dir}/result.json`));
+  assert.equal(result.format, "gridproof-result");
+  assert.ok(result.studies.length >= 14);
+  for (const file of ["report.md", "report.xml", "report.csv", "journal.jsonl"]) {
+    assert.ok((await Deno.stat(`${dir}/${file}`)).size > 0, file);
+  }
+  await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("gridproof check refuses bad flags with exit code 2 and says what to fix", async (t) => {
+  const cases: [string[], RegExp][] = [
+    [["--cases", "no-such-case"], /unknown case "no-such-case": valid ids are/],
+    [["--grids", "16,x"], /--grids: "x" is not a whole number/],
+    [["--ratio", "1.05", "--levels", "3"], /below 1\.1/],
+    [["--jobs", "0"], /--jobs: "0" is not a positive number/],
+    [["--solver", "nobody"], /unknown solver "nobody": valid names are reference/],
+    [["--format", "pdf", "--cases", "quadratic-exact", "--grids", "8,16"], /unknown report format "pdf"/],
+  ];
+  for (const [args, message] of cases) {
+    await t.step(args.join(" "), async () => {
+      const dir = await Deno.makeTempDir();
+      const run = await gridproof(["check", "--out", dir, "--no-progress", ...args]);
+      assert.equal(run.code, 2, run.stdout + run.stderr);
+      assert.match(run.stderr, message);
+      assert.doesNotMatch(run.stderr, /    at /); // no stack trace
+      await Deno.remove(dir, { recursive: true });
+    });
+  }
+});
