@@ -118,8 +118,9 @@ async function wall(
   return { seconds: (performance.now() - t) / 1000, iterations: o.iterations };
 }
 
-const spec = (mode: "once" | "session") => ({
-  name: `reference-${mode}`,
+const spec = (mode: "once" | "session", constantArrays: boolean) => ({
+  name: `reference-${mode}${constantArrays ? "-constants" : ""}`,
+  constantArrays,
   command: [
     Deno.execPath(),
     "run",
@@ -137,42 +138,46 @@ const spec = (mode: "once" | "session") => ({
 });
 
 console.log(
-  "\n# reference solver: in process vs subprocess (base64), wall time around solve() incl. sampling; best of 2",
+  "\n# reference solver: in process vs subprocess (base64), wall time around solve() incl. " +
+    "sampling and request encoding; best of 2",
 );
 console.log(
-  "n | nodes | cycles | in process | once (fresh process) | overhead | session (warm) | overhead",
+  "n | nodes | cycles | in process | once | overhead | session (warm) | overhead | " +
+    "session + constantArrays | overhead",
 );
 const inProcess = createReferenceSolver();
-const session = createExternalSolver(spec("session"), { solverFileDir: root });
-const once = createExternalSolver(spec("once"), { solverFileDir: root });
+const once = createExternalSolver(spec("once", false), { solverFileDir: root });
+const session = createExternalSolver(spec("session", false), { solverFileDir: root });
+const compact = createExternalSolver(spec("session", true), { solverFileDir: root });
 try {
   // warm everything up (JIT in this process, session start-up) on a small grid
   const warm = { case: compiled, nx: 64, ny: 64, scheme: "central" as const, tolerance: 1e-10 };
   await wall(inProcess, warm);
   await wall(session, warm);
+  await wall(compact, warm);
   for (const n of quick ? [256] : [256, 512, 1024]) {
     const task = { case: compiled, nx: n, ny: n, scheme: "central" as const, tolerance: 1e-10 };
-    const a: number[] = [];
-    const b: number[] = [];
-    const c: number[] = [];
+    const times: number[][] = [[], [], [], []];
     let cycles: number | null = null;
     for (let rep = 0; rep < 2; rep++) {
       const r = await wall(inProcess, task);
       cycles = r.iterations;
-      a.push(r.seconds);
-      b.push((await wall(once, task)).seconds);
-      c.push((await wall(session, task)).seconds);
+      times[0].push(r.seconds);
+      times[1].push((await wall(once, task)).seconds);
+      times[2].push((await wall(session, task)).seconds);
+      times[3].push((await wall(compact, task)).seconds);
     }
-    const [ta, tb, tc] = [Math.min(...a), Math.min(...b), Math.min(...c)];
+    const [ta, tb, tc, td] = times.map((t) => Math.min(...t));
     const pct = (t: number) => `${(((t - ta) / ta) * 100).toFixed(1)} %`;
     console.log(
       `${n} | ${(n + 1) ** 2} | ${cycles} | ${ta.toFixed(3)} s | ${tb.toFixed(3)} s | ${
         pct(tb)
       } | ` +
-        `${tc.toFixed(3)} s | ${pct(tc)}`,
+        `${tc.toFixed(3)} s | ${pct(tc)} | ${td.toFixed(3)} s | ${pct(td)}`,
     );
   }
 } finally {
   await session.close();
   await once.close();
+  await compact.close();
 }

@@ -274,3 +274,39 @@ export function addToNodes(op: LevelOperator, v: Float64Array, c: number): void 
     for (let k = base; k <= base + nx; k++) v[k] += c;
   }
 }
+
+
+/**
+ * fine += P·coarse for bilinear interpolation when both directions are coarsened (the common
+ * case, kept free of closures and per-node branches): even fine rows take the coarse row, odd
+ * fine rows the mean of the two coarse rows around them.
+ */
+export function interpolateAddBoth(
+  c: Float64Array,
+  f: Float64Array,
+  cnx: number,
+  cny: number,
+  cs: number,
+  fs: number,
+): void {
+  for (let J = 0; J <= cny; J++) {
+    const c0 = (J + 1) * cs + 1;
+    const fe = (2 * J + 1) * fs + 1;
+    // Even fine row 2J.
+    for (let I = 0, k = fe; I < cnx; I++, k += 2) {
+      const v = c[c0 + I];
+      f[k] += v;
+      f[k + 1] += 0.5 * (v + c[c0 + I + 1]);
+    }
+    f[fe + 2 * cnx] += c[c0 + cnx];
+    if (J === cny) break;
+    // Odd fine row 2J + 1.
+    const c1 = c0 + cs, fo = fe + fs;
+    for (let I = 0, k = fo; I < cnx; I++, k += 2) {
+      const v = c[c0 + I] + c[c1 + I];
+      f[k] += 0.5 * v;
+      f[k + 1] += 0.25 * (v + c[c0 + I + 1] + c[c1 + I + 1]);
+    }
+    f[fo + 2 * cnx] += 0.5 * (c[c0 + cnx] + c[c1 + cnx]);
+  }
+}

@@ -18,6 +18,7 @@
  */
 import type { LevelOperator } from "./level.ts";
 import type { RestrictionName } from "./options.ts";
+import { interpolateAddBoth } from "./_kernels.ts";
 
 /** A transfer pair between a fine level and its coarse level. */
 export interface Transfer {
@@ -179,7 +180,9 @@ export function createTransfer(
       for (let m = 0; m < boundaryIndex.length; m++) out[boundaryIndex[m]] *= boundaryScale[m];
       for (let m = 0; m < cDirichlet.length; m++) out[cDirichlet[m]] = 0;
     },
-    interpolateAdd: (c, f) => interp(c, f, true),
+    interpolateAdd: cx === 2 && cy === 2
+      ? (c, f) => interpolateAddBoth(c, f, cnx, cny, cs, fs)
+      : (c, f) => interp(c, f, true),
     interpolate: (c, f) => interp(c, f, false),
     describe: () => ({
       restriction,

@@ -2,7 +2,11 @@
  * gridproof example solver: plain SOR on the vertex-centred 5-point system, speaking
  * gridproof-protocol/1 on stdin/stdout (docs/protocol.md). Logs go to stderr.
  *
- * Usage: `deno run main.ts [--omega W] [--max-sweeps N]`
+ * Usage: `deno run main.ts [--omega W] [--max-sweeps N] [--seeded-defect one-sided]`
+ *
+ * `--seeded-defect one-sided` is a DELIBERATE DEFECT for gridproof's demo: Neumann and Robin
+ * sides get a first-order one-sided boundary row instead of the second-order ghost node, so the
+ * boundary band converges at order 1.
  *
  * The mode is chosen by the first line on stdin: a hello message starts a session (one message
  * per line until goodbye or end of input); anything else is one request (once mode).
@@ -25,6 +29,7 @@ type Json = any;
 interface Flags {
   omega?: number;
   maxSweeps?: number;
+  defect?: "one-sided";
 }
 
 function parseFlags(args: string[]): Flags {
@@ -35,9 +40,12 @@ function parseFlags(args: string[]): Flags {
     const num = Number(value);
     if (key === "--omega" && num > 0 && num < 2) flags.omega = num;
     else if (key === "--max-sweeps" && Number.isInteger(num) && num > 0) flags.maxSweeps = num;
+    else if (key === "--seeded-defect" && value === "one-sided") flags.defect = "one-sided";
     else {
       console.error(
-        `deno-sor: unknown or bad option '${args[k]}'; use --omega W (0 < W < 2) or --max-sweeps N`,
+        `deno-sor: unknown or bad option '${
+          args[k]
+        }'; use --omega W (0 < W < 2), --max-sweeps N or --seeded-defect one-sided`,
       );
       Deno.exit(2);
     }
@@ -93,7 +101,7 @@ function solve(req: Json, flags: Flags): Json {
   const limit = Number(req.timeLimitSeconds);
   let stencil;
   try {
-    stencil = assembleStencil(p, { upwind: scheme === "upwind" });
+    stencil = assembleStencil(p, { upwind: scheme === "upwind", defect: flags.defect });
   } catch (err) {
     if (err instanceof RangeError) throw new RequestError(err.message);
     throw err;

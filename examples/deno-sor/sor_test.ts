@@ -7,6 +7,7 @@ import {
   MIXES,
   QUADRATIC,
   runExample,
+  SMOOTH,
 } from "../test_requests.ts";
 
 const HERE = new URL(".", import.meta.url);
@@ -96,4 +97,30 @@ Deno.test("deno-sor reports a cell-layout request as not applicable", async () =
   const req = buildRequest(QUADRATIC, MIXES["all dirichlet"], { nx: 4, ny: 4 }, { layout: "cell" });
   const run = await runExample(COMMAND, HERE, JSON.stringify(req));
   assert.equal(run.replies[0].type, "not-applicable");
+});
+
+Deno.test("deno-sor --seeded-defect one-sided shows order 1 with Neumann/Robin sides, 2 with Dirichlet only", async (t) => {
+  // Source: common practice — a first-order one-sided boundary difference limits the global
+  // order to 1; with only Dirichlet sides the seeded defect never triggers (order 2, derived).
+  async function finestOrder(mix: string, args: string[]): Promise<number> {
+    const errors: number[] = [];
+    for (const n of [12, 24, 48]) {
+      const req = buildRequest(SMOOTH, MIXES[mix], { nx: n, ny: n }, { encoding: "base64" });
+      const run = await runExample([...COMMAND, ...args], HERE, JSON.stringify(req));
+      assert.equal(run.replies[0].type, "solution", run.stderr);
+      errors.push(
+        maxDifference(decodeValues(run.replies[0].values), exactValues(SMOOTH, "vertex", n, n)),
+      );
+    }
+    return Math.log2(errors[1] / errors[2]);
+  }
+  const defect = ["--seeded-defect", "one-sided"];
+  await t.step("neumann and robin only: order about 1", async () => {
+    const p = await finestOrder("neumann and robin only", defect);
+    assert.ok(Math.abs(p - 1) < 0.15, `order ${p}`);
+  });
+  await t.step("all dirichlet: order 2", async () => {
+    const p = await finestOrder("all dirichlet", defect);
+    assert.ok(Math.abs(p - 2) < 0.1, `order ${p}`);
+  });
 });

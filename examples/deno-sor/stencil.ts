@@ -25,10 +25,15 @@ export interface Stencil {
  * ghost nodes of Neumann/Robin sides into the boundary rows and makes Dirichlet rows identities.
  *
  * @param p the problem (vertex layout, arrays x fastest)
- * @param options `upwind`: first-order upwinding of b·u_x and d·u_y. Default: false (central)
+ * @param options `upwind`: first-order upwinding of b·u_x and d·u_y. Default: false (central).
+ *   `defect: "one-sided"`: a SEEDED DEFECT for the demo — Neumann/Robin rows become the
+ *   first-order one-sided α·u_k + β·(u_k − u_inner)/h = g. Default: none
  * @returns the weights and right-hand side
  */
-export function assembleStencil(p: Problem, options: { upwind?: boolean } = {}): Stencil {
+export function assembleStencil(
+  p: Problem,
+  options: { upwind?: boolean; defect?: "one-sided" } = {},
+): Stencil {
   const { nx, ny } = p;
   const upwind = options.upwind ?? false;
   const hx = (p.domain.x1 - p.domain.x0) / nx;
@@ -85,6 +90,14 @@ export function assembleStencil(p: Problem, options: { upwind?: boolean } = {}):
     const beta = bc.kind === "robin" ? bc.beta : 1;
     for (let t = 0; t < s.count; t++) {
       const k = s.first + t * s.step;
+      if (options.defect === "one-sided") {
+        cc[k] = alpha + beta / s.h;
+        s.mirror[k] = -beta / s.h;
+        s.ghost[k] = 0;
+        for (const other of [cw, ce, cs, cn]) if (other !== s.mirror) other[k] = 0;
+        rhs[k] = bc.values[t];
+        continue;
+      }
       const w = s.ghost[k];
       s.mirror[k] += w;
       cc[k] -= w * 2 * s.h * alpha / beta;

@@ -9,6 +9,7 @@ import { registerReportCommand } from "./report_command.ts";
 import { registerCasesCommand } from "./cases_command.ts";
 import { registerSolveCommand } from "./solve_command.ts";
 import { registerCheckCommand } from "./check_command.ts";
+import { registerDemoCommand } from "./demo_command.ts";
 import { registerRefineCommand } from "./refine_command.ts";
 import { registerProbeCommand } from "./probe_command.ts";
 
@@ -21,6 +22,7 @@ export function registerCommands(program: Command, setExitCode: SetExitCode): vo
   registerCasesCommand(program, setExitCode);
   registerSolveCommand(program, setExitCode);
   registerCheckCommand(program, setExitCode);
+  registerDemoCommand(program, setExitCode);
   registerRefineCommand(program, setExitCode);
   registerProbeCommand(program, setExitCode);
   void program;

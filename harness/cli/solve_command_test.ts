@@ -77,7 +77,10 @@ Deno.test("gridproof solve refuses unknown cases, cycles, smoothers and bad numb
       /--n: must be a whole number of at least 2, found "1"/,
     ],
     [["--case", "smooth-baseline", "--tol", "abc"], /--tol: must be a number between 0 and 1/],
-    [["--case", "boundary-layer", "--param", "q=1"], /has no parameter "q"; valid parameters: width/],
+    [
+      ["--case", "boundary-layer", "--param", "q=1"],
+      /has no parameter "q"; valid parameters: width/,
+    ],
     [["--case", "testdata/cases/not-elliptic.json", "--n", "8"], /not elliptic at node/],
     [["--case", "testdata/cases/missing.json"], /testdata\/cases\/missing\.json: file not found/],
   ];

@@ -86,6 +86,15 @@ export function decodeArray(wire: unknown, path: string): Float64Array {
     }
     return out;
   }
+  if (wire !== null && typeof wire === "object" && "constant" in wire) {
+    const { constant, length } = wire as { constant: unknown; length: unknown };
+    if (typeof constant !== "number" || !Number.isInteger(length) || (length as number) < 0) {
+      throw new RangeError(
+        `${path}: a constant array needs a number "constant" and a whole "length"`,
+      );
+    }
+    return new Float64Array(length as number).fill(constant);
+  }
   if (
     wire !== null && typeof wire === "object" &&
     typeof (wire as { base64: unknown }).base64 === "string"
