@@ -11,9 +11,12 @@
  *   stop reason, average convergence factor, and seconds per iteration ((solve − setup)/cycles:
  *   a cycle plus the residual norm of the stopping test);
  * - the same solve started by one FMG pass (`cycle.type: "fmg"`): `fmgSolveSeconds`;
- * - one FMG pass with one V(2,1) per level: seconds (setup excluded) and the ratio of its max-norm
- *   error to that of the fully converged solution (fmgErrorRatio);
- * - peak resident memory so far (VmHWM from /proc/self/status, Linux).
+ * - one FMG pass with one V(2,1) per level: its seconds alone (`fmgSeconds`, timed like the cycle,
+ *   alternating with the triad), and the ratio of the max-norm error of a `solve` stopped after
+ *   that pass to the error of the fully converged solution (`fmgErrorRatio`);
+ * - peak resident memory of the process right after the full solves at this n (VmHWM from
+ *   /proc/self/status on Linux): the sampled problem plus the solver, before the benchmark's own
+ *   extra allocations at that n.
  * Timed runs are repeated (best of `--repeat`, default 2) because the machine is shared.
  * Prints a table, or with `--json` one JSON object per line.
  *
@@ -22,6 +25,7 @@
 import {
   buildHierarchy,
   cycle,
+  fullMultigrid,
   resolveOptions,
   solve,
   type SolveResult,
@@ -84,19 +88,36 @@ function peakRssMiB(): number {
   return Deno.memoryUsage().rss / 2 ** 20;
 }
 
+/** Max-norm difference of two arrays. */
 function maxError(u: Float64Array, exact: Float64Array): number {
   let e = 0;
   for (let k = 0; k < u.length; k++) e = Math.max(e, Math.abs(u[k] - exact[k]));
   return e;
 }
 
-function best(runs: number, f: () => SolveResult): SolveResult {
-  let out: SolveResult | undefined;
+interface Summary {
+  seconds: number;
+  setupSeconds: number;
+  cycles: number;
+  reason: string;
+  averageFactor: number;
+  maxError: number;
+}
+
+/** Best (smallest solve − setup) of `runs` solves, keeping only numbers (the solutions are dropped). */
+function best(runs: number, exact: Float64Array, f: () => SolveResult): Summary {
+  let out: Summary | undefined;
   for (let r = 0; r < runs; r++) {
     const res = f();
-    if (out === undefined || res.seconds - res.setupSeconds < out.seconds - out.setupSeconds) {
-      out = res;
-    }
+    const s: Summary = {
+      seconds: res.seconds,
+      setupSeconds: res.setupSeconds,
+      cycles: res.cycles,
+      reason: res.reason,
+      averageFactor: res.averageFactor,
+      maxError: maxError(res.solution, exact),
+    };
+    if (out === undefined || s.seconds - s.setupSeconds < out.seconds - out.setupSeconds) out = s;
   }
   return out!;
 }
@@ -104,25 +125,29 @@ function best(runs: number, f: () => SolveResult): SolveResult {
 function measure(n: number, repeat: number): Row {
   const { problem, exact } = benchProblem(n);
   const unknowns = (n + 1) * (n + 1);
-  // Triad and cycle measured alternately, best of 5 each, so both see the same machine load.
-  const h = buildHierarchy(problem, resolveOptions());
-  let triad = Infinity, cycleSeconds = Infinity;
-  for (let rep = 0; rep < 5; rep++) {
-    triad = Math.min(triad, triadSeconds(unknowns));
-    const t0 = performance.now();
-    cycle(h, 0, 1, { pre: 2, post: 1 });
-    cycleSeconds = Math.min(cycleSeconds, (performance.now() - t0) / 1000);
-  }
-  h.levels.length = 0; // let the garbage collector take it before the solves
-  const full = best(repeat, () => solve(problem));
-  const err = maxError(full.solution, exact);
+  const full = best(repeat, exact, () => solve(problem));
+  // Peak memory of the process so far: the sampled problem plus full solves at this n (and
+  // everything at smaller n, which is less).
+  const peak = peakRssMiB();
   const fmg = best(
     repeat,
+    exact,
     () => solve(problem, { cycle: { type: "fmg" }, stop: { maxCycles: 1 } }),
   );
-  const fmgSeconds = fmg.seconds - fmg.setupSeconds;
-  const iterationSeconds = (full.seconds - full.setupSeconds) / full.cycles;
-  const fmgSolve = best(repeat, () => solve(problem, { cycle: { type: "fmg" } }));
+  const fmgSolve = best(repeat, exact, () => solve(problem, { cycle: { type: "fmg" } }));
+  // Triad and cycle measured alternately, best of 5 each, so both see the same machine load.
+  const h = buildHierarchy(problem, resolveOptions());
+  const params = { pre: 2, post: 1, fmgCycle: "V" as const, fmgCyclesPerLevel: 1 };
+  let triad = Infinity, cycleSeconds = Infinity, fmgSeconds = Infinity;
+  for (let rep = 0; rep < 5; rep++) {
+    triad = Math.min(triad, triadSeconds(unknowns));
+    let t0 = performance.now();
+    cycle(h, 0, 1, params);
+    cycleSeconds = Math.min(cycleSeconds, (performance.now() - t0) / 1000);
+    t0 = performance.now();
+    fullMultigrid(h, params);
+    fmgSeconds = Math.min(fmgSeconds, (performance.now() - t0) / 1000);
+  }
   return {
     n,
     unknowns,
@@ -133,16 +158,16 @@ function measure(n: number, repeat: number): Row {
     stopReason: full.reason,
     convergenceFactor: full.averageFactor,
     secondsPerCycle: cycleSeconds,
-    iterationSeconds,
+    iterationSeconds: (full.seconds - full.setupSeconds) / full.cycles,
     fmgSolveSeconds: fmgSolve.seconds,
     fmgSolveCycles: fmgSolve.cycles,
     fmgSeconds,
-    fmgErrorRatio: maxError(fmg.solution, exact) / err,
-    discretizationError: err,
+    fmgErrorRatio: fmg.maxError / full.maxError,
+    discretizationError: full.maxError,
     cyclePerTriad: cycleSeconds / triad,
     fmgPerTriad: fmgSeconds / triad,
     solvePerTriad: full.seconds / triad,
-    peakRssMiB: peakRssMiB(),
+    peakRssMiB: peak,
   };
 }
 

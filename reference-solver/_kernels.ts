@@ -275,7 +275,6 @@ export function addToNodes(op: LevelOperator, v: Float64Array, c: number): void 
   }
 }
 
-
 /**
  * fine += P·coarse for bilinear interpolation when both directions are coarsened (the common
  * case, kept free of closures and per-node branches): even fine rows take the coarse row, odd

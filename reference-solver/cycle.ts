@@ -10,7 +10,9 @@ import { removeMean, residual } from "./_kernels.ts";
 
 /** Sweeps before and after the coarse-grid correction, and FMG settings. */
 export interface CycleParams {
+  /** Pre-smoothing sweeps ν1. */
   pre: number;
+  /** Post-smoothing sweeps ν2. */
   post: number;
   /** Cycle used per level inside full multigrid. Default "V". */
   fmgCycle?: "V" | "W" | "F";

@@ -34,7 +34,9 @@ import { isDirichletLike, isSingular } from "./validate.ts";
 
 /** The operator of a level and the right-hand side of its own problem (padded layout). */
 export interface Discretization {
+  /** Stencil arrays of every node. */
   op: LevelOperator;
+  /** Right-hand side of every row (Dirichlet rows: the boundary value). */
   rhs: Float64Array;
 }
 

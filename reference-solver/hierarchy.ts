@@ -19,13 +19,17 @@ export type Coarsening = "both" | "x" | "y" | "direct";
 
 /** One level with its work vectors (all padded, see `level.ts`). */
 export interface Level {
+  /** The level's operator. */
   op: LevelOperator;
   /** Right-hand side of this level's own discretized problem (coarse f and boundary data injected). */
   rhs: Float64Array;
-  /** Work vectors: iterate (or coarse error), right-hand side of the current equation, residual. */
+  /** Iterate on the finest level, error of the coarse-grid equation on coarser ones. */
   u: Float64Array;
+  /** Right-hand side of the current equation (on the finest level: `rhs` itself). */
   f: Float64Array;
+  /** Residual work vector. */
   r: Float64Array;
+  /** How this level passes to the next coarser one. */
   coarsening: Coarsening;
   /** Present on every level but the coarsest. */
   smoother?: Smoother;
@@ -40,6 +44,7 @@ export interface Level {
  * the coarsest; level l + 1 is coarser than level l.
  */
 export interface Hierarchy {
+  /** The levels, finest first. */
   levels: Level[];
 }
 

@@ -15,11 +15,13 @@
 
 /** One level's operator (see the module doc for the layout). */
 export interface LevelOperator {
-  /** Intervals along x and y. */
+  /** Intervals along x. */
   readonly nx: number;
+  /** Intervals along y. */
   readonly ny: number;
-  /** Mesh widths. */
+  /** Mesh width along x. */
   readonly hx: number;
+  /** Mesh width along y. */
   readonly hy: number;
   /** Row stride of the padded layout: nx + 3. */
   readonly stride: number;
@@ -30,9 +32,13 @@ export interface LevelOperator {
    * first-order terms and only Dirichlet-like sides, `E === W` and `N === S` (the same arrays).
    */
   readonly W: Float64Array;
+  /** Coefficient of the east neighbour u[k + 1]. */
   readonly E: Float64Array;
+  /** Coefficient of the south neighbour u[k − stride]. */
   readonly S: Float64Array;
+  /** Coefficient of the north neighbour u[k + stride]. */
   readonly N: Float64Array;
+  /** Diagonal coefficient (1 on Dirichlet rows). */
   readonly C: Float64Array;
   /** 1 / C (1 in the halo, never used there). */
   readonly invC: Float64Array;

@@ -87,6 +87,7 @@ export { createDirectSolver, type DirectSolver, MAX_BAND_STORAGE } from "./direc
 export {
   buildHierarchy,
   buildLevel,
+  chooseCoarsening,
   type Coarsening,
   coarsenProblem,
   describeLevels,

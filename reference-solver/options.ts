@@ -33,6 +33,7 @@ export interface SolveOptions {
     /** First-order upwinding of b·u_x and d·u_y (formal order 1). Default: false (central, order 2). */
     upwind?: boolean;
   };
+  /** Cycle type and sweeps. */
   cycle?: {
     /** Cycle type. Default: "V". */
     type?: CycleName;
@@ -45,16 +46,19 @@ export interface SolveOptions {
     /** Cycles per level in full multigrid. Default: 1. */
     fmgCyclesPerLevel?: number;
   };
+  /** The smoother. */
   smoother?: {
     /** Default: "red-black". */
     name?: SmootherName;
     /** Weight ω of weighted Jacobi. Default: 0.8 (4/5, optimal smoothing for 2-D Poisson). */
     omega?: number;
   };
+  /** Grid transfers. */
   transfer?: {
     /** Default: "full-weighting". Interpolation is always bilinear. */
     restriction?: RestrictionName;
   };
+  /** Coarse levels and the coarsest-grid solve. */
   coarse?: {
     /** Default: "rediscretize". */
     operator?: CoarseOperatorName;
@@ -71,6 +75,7 @@ export interface SolveOptions {
      */
     maxLevels?: number;
   };
+  /** Stopping rules. */
   stop?: {
     /** Relative residual tolerance ‖r‖₂/‖r₀‖₂. Default: 1e-10. */
     tolerance?: number;
@@ -92,7 +97,9 @@ export type StopReason = "converged" | "max-cycles" | "diverged" | "stagnated";
 export interface SolveResult {
   /** The discrete solution at every node (x fastest). */
   solution: Float64Array;
+  /** Whether the tolerance was reached (reason "converged"). */
   converged: boolean;
+  /** Why the solve stopped. */
   reason: StopReason;
   /** Number of cycles done (FMG counts as one). */
   cycles: number;
@@ -118,17 +125,28 @@ export interface SolveResult {
 
 /** The `describe()` record stored beside every number. */
 export interface SolverDescription {
+  /** Which solver. */
   solver: "gridproof-multigrid";
+  /** Discretization of the first-order terms. */
   scheme: "central" | "upwind";
+  /** Cycle type ("V", "W", "F", or "fmg+V" etc.). */
   cycle: string;
+  /** Pre-smoothing sweeps. */
   pre: number;
+  /** Post-smoothing sweeps. */
   post: number;
+  /** The smoother's own `describe()` record. */
   smoother: Record<string, unknown>;
+  /** Restriction operator. */
   restriction: RestrictionName;
+  /** Interpolation operator. */
   interpolation: "bilinear";
+  /** How coarse operators were built. */
   coarseOperator: CoarseOperatorName;
   /** Finest first. */
   levels: { nx: number; ny: number; coarsening: "both" | "x" | "y" | "direct" }[];
+  /** Relative residual tolerance. */
   tolerance: number;
+  /** Cycle limit. */
   maxCycles: number;
 }

@@ -36,14 +36,19 @@ export type BoundaryCondition =
 
 /** The rectangle. */
 export interface Domain {
+  /** West edge. */
   x0: number;
+  /** East edge (> x0). */
   x1: number;
+  /** South edge. */
   y0: number;
+  /** North edge (> y0). */
   y1: number;
 }
 
 /** A discrete elliptic problem on a vertex-centred grid (see the module doc for the layout). */
 export interface Problem {
+  /** The rectangle. */
   domain: Domain;
   /** Number of intervals along x (≥ 2). */
   nx: number;
@@ -61,6 +66,7 @@ export interface Problem {
   e: Float64Array;
   /** Right-hand side at the nodes. */
   f: Float64Array;
+  /** The condition on each side. */
   boundary: Record<Side, BoundaryCondition>;
 }
 

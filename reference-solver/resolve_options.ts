@@ -25,7 +25,9 @@ export const CYCLE_NAMES: readonly CycleName[] = ["V", "W", "F", "fmg"];
 
 /** {@link SolveOptions} with every default filled in (see `options.ts` for each default). */
 export interface ResolvedSolveOptions {
+  /** Discretization. */
   scheme: { upwind: boolean };
+  /** Cycle type, sweeps and FMG settings. */
   cycle: {
     type: CycleName;
     pre: number;
@@ -33,16 +35,22 @@ export interface ResolvedSolveOptions {
     fmgCycle: "V" | "W" | "F";
     fmgCyclesPerLevel: number;
   };
+  /** Smoother name and Jacobi weight. */
   smoother: { name: SmootherName; omega: number };
+  /** Restriction (interpolation is bilinear). */
   transfer: { restriction: RestrictionName };
+  /** Coarsening and the coarsest-grid solve. */
   coarse: {
     operator: "rediscretize";
     maxDirectUnknowns: number;
     semiCoarsening: boolean;
     maxLevels: number;
   };
+  /** Stopping rules. */
   stop: { tolerance: number; maxCycles: number; divergenceFactor: number };
+  /** Handling of singular problems. */
   singular: "refuse" | "mean-zero";
+  /** Initial guess, if any. */
   initialGuess: Float64Array | undefined;
 }
 

@@ -14,7 +14,7 @@ Deno.test("gridproof cases lists the library as a table and as JSON", async () =
   const table = await runCli(["cases"]);
   assert.equal(table.code, 0, table.stderr);
   assert.match(table.stdout, /^id\s+title\s+W E S N\s+order\s+tags/);
-  assert.match(table.stdout, /weak-singularity .* N D D D {2}2 \(max 1\.5, l2 1\.5\)/);
+  assert.match(table.stdout, /weak-singularity .* N D D D {2}2 \(max 1\.5, l2 1\.5, l1 1\.5\)/);
   const json = await runCli(["cases", "--json"]);
   const rows = JSON.parse(json.stdout);
   assert.ok(rows.length >= 14);

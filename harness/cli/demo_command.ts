@@ -52,7 +52,9 @@ export function registerDemoCommand(program: Command, setExitCode: SetExitCode):
 /** What the demonstration expects the report to show; each unmet expectation in words. */
 export function unmetExpectations(result: CampaignResult): string[] {
   const failing = (solver: string) =>
-    result.studies.filter((s) => s.solver === solver && s.verdicts.some((v) => v.status === "fail"));
+    result.studies.filter((s) =>
+      s.solver === solver && s.verdicts.some((v) => v.status === "fail")
+    );
   const unmet: string[] = [];
   for (const solver of ["reference", RELEASED]) {
     const bad = failing(solver).map((s) => s.caseId);
@@ -112,7 +114,9 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
     JSON.stringify(result, (_k, v) => typeof v === "number" && !Number.isFinite(v) ? null : v, 1) +
       "\n",
   );
-  for (const [format, file] of [["html", "report.html"], ["md", "report.md"], ["junit", "report.xml"]]) {
+  for (
+    const [format, file] of [["html", "report.html"], ["md", "report.md"], ["junit", "report.xml"]]
+  ) {
     await writeReport(result, { format, out: `${out}/${file}` });
   }
   log(summaryText(result));

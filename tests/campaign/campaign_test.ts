@@ -112,7 +112,8 @@ Deno.test("check: an interrupted campaign keeps its finished solves and resumes 
   assert.deepEqual(second.solves[0].errors, first.solves[0].errors);
   // a different configuration is refused rather than mixed in
   await assert.rejects(
-    () => runCampaign([kase], [createReferenceSolver()], { grids: [8, 16], outDir: out, resume: true }),
+    () =>
+      runCampaign([kase], [createReferenceSolver()], { grids: [8, 16], outDir: out, resume: true }),
     /another --out folder|same options/,
   );
   await Deno.remove(out, { recursive: true });

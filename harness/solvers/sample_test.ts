@@ -1,0 +1,34 @@
+import assert from "node:assert/strict";
+import { testCase } from "../../tests/protocol/_case.ts";
+import { sampleCase } from "./sample.ts";
+
+Deno.test("sampleCase() puts cell values at centres and boundary data at face centres", () => {
+  const c = testCase();
+  const p = sampleCase(c, 4, 8, "cell");
+  assert.equal(p.source.length, 32);
+  // cell (1, 2): centre (0.375, 0.625) on [0,1]×[0,2] with hx = hy = 0.25
+  assert.equal(p.source[2 * 4 + 1], c.source(0.375, 0.625));
+  assert.equal(p.coefficients.a[2 * 4 + 1], 1.375);
+  // east face centres at x = 1, y = 0.125, 0.375, …; south at y = 0, x = 0.125, …
+  assert.equal(p.boundary.east.values.length, 8);
+  assert.equal(p.boundary.east.values[1], Math.exp(1 + 0.375 / 2));
+  assert.equal(p.boundary.south.values[3], 0.75 * Math.exp(0.875));
+  assert.equal(p.boundary.south.kind, "robin");
+  assert.equal(p.boundary.south.alpha, 1);
+});
+
+Deno.test("sampleCase() takes vertex samples from the case itself", () => {
+  const c = testCase();
+  const p = sampleCase(c, 4, 8, "vertex");
+  assert.deepEqual(p.source, c.sample(4, 8).f);
+  assert.equal(p.boundary.west.values.length, 9);
+});
+
+Deno.test("sampleCase() refuses a case that is not elliptic at a cell centre", () => {
+  const c = testCase();
+  const bad = { ...c, coefficients: { ...c.coefficients, c: (x: number) => (x > 0.5 ? -1 : 1) } };
+  assert.throws(
+    () => sampleCase(bad, 4, 4, "cell"),
+    /not elliptic at cell centre \(0\.625, 0\.25\)/,
+  );
+});

@@ -1,0 +1,76 @@
+import assert from "node:assert/strict";
+import { InputError } from "../cli/errors.ts";
+import { loadSolverFile } from "./solver_file.ts";
+
+async function withFile(text: string, f: (path: string) => Promise<void>): Promise<void> {
+  const dir = await Deno.makeTempDir();
+  try {
+    await Deno.writeTextFile(`${dir}/solvers.json`, text);
+    await f(`${dir}/solvers.json`);
+  } finally {
+    await Deno.remove(dir, { recursive: true });
+  }
+}
+
+Deno.test("loadSolverFile() fills every documented default and records the file's folder", async () => {
+  await withFile(JSON.stringify({ solvers: [{ name: "a", command: ["./run"] }] }), async (path) => {
+    const [spec] = await loadSolverFile(path);
+    assert.deepEqual(spec, {
+      name: "a",
+      command: ["./run"],
+      mode: "once",
+      encoding: "numbers",
+      layout: "vertex",
+      scheme: "central",
+      timeLimitSeconds: 300,
+      skipCases: [],
+      maxReplyMiB: 1024,
+      solverFileDir: path.slice(0, path.lastIndexOf("/")),
+    });
+  });
+});
+
+Deno.test("loadSolverFile() lists every problem with the file and the field", async (t) => {
+  await t.step("schema violations", async () => {
+    const text = JSON.stringify({
+      solvers: [{
+        name: "bad name",
+        command: [],
+        mode: "daemon",
+        shell: "sh",
+        timeLimitSeconds: 0,
+      }],
+    });
+    await withFile(text, async (path) => {
+      await assert.rejects(loadSolverFile(path), (e: InputError) => {
+        assert.ok(e instanceof InputError);
+        assert.equal(e.where, path);
+        assert.deepEqual(
+          e.problems.sort(),
+          [
+            'solvers[0].mode: must be one of "once", "session"',
+            "solvers[0].command: must NOT have fewer than 1 items",
+            'solvers[0].name: must match pattern "^[A-Za-z0-9._-]+$"',
+            "solvers[0].shell: unknown field; see harness/solvers/solvers.schema.json for the fields",
+            "solvers[0].timeLimitSeconds: must be > 0",
+          ].sort(),
+        );
+        return true;
+      });
+    });
+  });
+  await t.step("duplicate names", async () => {
+    const text = JSON.stringify({
+      solvers: [{ name: "a", command: ["x"] }, { name: "a", command: ["y"] }],
+    });
+    await withFile(text, async (path) => {
+      await assert.rejects(loadSolverFile(path), /solvers\[1\]\.name: "a" is used twice/);
+    });
+  });
+  await t.step("bad JSON and a missing file", async () => {
+    await withFile("{ solvers: [", async (path) => {
+      await assert.rejects(loadSolverFile(path), /the solver file is not valid JSON/);
+      await assert.rejects(loadSolverFile(path + ".missing"), /cannot read the solver file/);
+    });
+  });
+});
