@@ -8,7 +8,7 @@
  */
 import type { MathNode } from "mathjs";
 import type { Side } from "../reference-solver/mod.ts";
-import { InputError } from "../harness/cli/errors.ts";
+import { InputError } from "../errors/mod.ts";
 import { loadMath, type MathTools } from "./_mathjs.ts";
 import type { LocatedJson } from "./_json.ts";
 import type { CaseFile, CaseProblem } from "./case_file.ts";

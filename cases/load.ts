@@ -5,7 +5,7 @@
  *
  * @module
  */
-import { InputError } from "../harness/cli/errors.ts";
+import { InputError } from "../errors/mod.ts";
 import { type CaseFile, type CaseProblem, formatProblem } from "./case_file.ts";
 import { buildCase } from "./engine.ts";
 import { closestName } from "./_suggest.ts";

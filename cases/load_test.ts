@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { InputError } from "../harness/cli/errors.ts";
+import { InputError } from "../errors/mod.ts";
 import { checkCaseFiles, libraryIds, loadCase, loadCaseFiles, loadLibrary } from "./load.ts";
 
 const fixture = (name: string) => `testdata/cases/${name}`;

@@ -86,7 +86,10 @@ export interface SolveOptions {
   };
   /** What to do with a singular problem (only Neumann sides, e ≡ 0). Default: "refuse". */
   singular?: "refuse" | "mean-zero";
-  /** Initial guess (length (nx+1)(ny+1)); default: zero in the interior, Dirichlet values on the boundary. */
+  /**
+   * Initial guess (length (nx+1)(ny+1)); default: zero in the interior, Dirichlet values on the
+   * boundary. Dirichlet nodes of a given guess are overwritten with their boundary values.
+   */
   initialGuess?: Float64Array;
 }
 

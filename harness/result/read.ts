@@ -8,7 +8,7 @@
 // The named export: the default export of this CommonJS module does not type-check under Deno
 import { Ajv2020, type ErrorObject, type ValidateFunction } from "ajv/dist/2020";
 import schema from "./result.schema.json" with { type: "json" };
-import { InputError } from "../cli/errors.ts";
+import { InputError } from "../../errors/mod.ts";
 import { type CampaignResult, RESULT_FORMAT, RESULT_VERSION } from "./types.ts";
 
 /**

@@ -3,7 +3,7 @@ import { Ajv2020 } from "ajv/dist/2020";
 import { checkResult, parseResult, readResult } from "./read.ts";
 import schema from "./result.schema.json" with { type: "json" };
 import { RESULT_VERSION } from "./types.ts";
-import { InputError } from "../cli/errors.ts";
+import { InputError } from "../../errors/mod.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 
 const FIXTURE = new URL("../../testdata/report/result.json", import.meta.url);

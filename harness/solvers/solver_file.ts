@@ -6,7 +6,7 @@
  */
 import { dirname, resolve } from "node:path";
 import { Ajv2020, type ErrorObject } from "ajv/dist/2020";
-import { InputError } from "../cli/errors.ts";
+import { InputError } from "../../errors/mod.ts";
 import solverFileSchema from "./solvers.schema.json" with { type: "json" };
 import type { ExternalSolverSpec } from "./types.ts";
 

@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { InputError } from "../cli/errors.ts";
+import { InputError } from "../../errors/mod.ts";
 import { loadSolverFile } from "./solver_file.ts";
 
 async function withFile(text: string, f: (path: string) => Promise<void>): Promise<void> {
