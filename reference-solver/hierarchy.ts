@@ -160,8 +160,8 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
  * ```ts
  * import { describeLevels } from "./hierarchy.ts";
  * const levels = describeLevels({ nx: 64, ny: 64 });
- * // 64×64 (both) → 32×32 (direct: 33² = 1089 unknowns)
- * if (levels.length !== 2) throw new Error("levels");
+ * // 64×64 → 32×32 → 16×16 (both) → 8×8 (direct: 9² = 81 unknowns)
+ * if (levels.length !== 4) throw new Error("levels");
  * ```
  */
 export function describeLevels(

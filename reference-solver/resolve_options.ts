@@ -99,7 +99,7 @@ function bool(path: string, value: unknown): boolean {
  * Returns the fully defaulted options of a solve.
  *
  * Defaults: central scheme; V(2,1) cycles (FMG uses one V per level); red–black Gauss–Seidel
- * (ω = 0.8 for Jacobi); full weighting; rediscretized coarse operators, direct solve at ≤ 1089
+ * (ω = 0.8 for Jacobi); full weighting; rediscretized coarse operators, direct solve at ≤ 81
  * unknowns, semi-coarsening allowed, at most 50 levels; tolerance 1e-10, 100 cycles, divergence
  * factor 1e3; singular problems refused; no initial guess.
  *
@@ -186,7 +186,7 @@ export function resolveOptions(options: SolveOptions = {}): ResolvedSolveOptions
     },
     coarse: {
       operator: "rediscretize",
-      maxDirectUnknowns: integer("coarse.maxDirectUnknowns", coarse.maxDirectUnknowns ?? 1089, 1),
+      maxDirectUnknowns: integer("coarse.maxDirectUnknowns", coarse.maxDirectUnknowns ?? 81, 1),
       semiCoarsening: bool("coarse.semiCoarsening", coarse.semiCoarsening ?? true),
       maxLevels: integer("coarse.maxLevels", coarse.maxLevels ?? 50, 1),
     },

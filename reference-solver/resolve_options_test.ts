@@ -10,7 +10,7 @@ Deno.test("resolveOptions() fills every documented default", () => {
     transfer: { restriction: "full-weighting" },
     coarse: {
       operator: "rediscretize",
-      maxDirectUnknowns: 1089,
+      maxDirectUnknowns: 81,
       semiCoarsening: true,
       maxLevels: 50,
     },

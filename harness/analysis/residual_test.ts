@@ -138,3 +138,21 @@ Deno.test("scalingRecord() lists failed, unconverged and stagnating solves", () 
     "32×8: the residual stagnated (factor near 1 for several iterations)",
   ]);
 });
+
+Deno.test("scalingRecord() treats a one-iteration spread on the finest grids as grid-independent", () => {
+  // Iteration counts are whole numbers: 3, 3, 4 over 16× more unknowns fits N^0.1 (exactly
+  // log(4/3)/log(16) ≈ 0.104, derived) but is no trend; 4, 6, 9 is growth (N^0.29).
+  const s = (n: number, it: number) => ({
+    nx: n,
+    ny: n,
+    unknowns: (n + 1) ** 2,
+    status: "ok" as const,
+    residualHistory: [],
+    iterations: it,
+    converged: true,
+    averageFactor: 0.1,
+    seconds: 0.01,
+  });
+  assert.equal(scalingRecord([s(16, 2), s(32, 3), s(64, 3), s(128, 4)]).gridIndependent, true);
+  assert.equal(scalingRecord([s(32, 4), s(64, 6), s(128, 9)]).gridIndependent, false);
+});

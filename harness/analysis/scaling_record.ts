@@ -33,7 +33,11 @@ export interface ScalingOptions {
  *
  * Criterion: grid-independent when the iterations exponent ≤ `independenceTolerance` (default 0.1:
  * iterations may grow by at most 2^0.1 ≈ 7 % per fourfold increase of unknowns — our choice;
- * multigrid theory predicts h-independent factors, Trottenberg et al. 2001; Briggs et al. 2000).
+ * multigrid theory predicts h-independent factors, Trottenberg et al. 2001; Briggs et al. 2000),
+ * or when the iteration counts of the finest grids differ by at most one (counts are whole
+ * numbers: 3, 3, 4 is no trend, though its fitted exponent is 0.2). The iterations exponent is
+ * fitted over the finest three grids (the asymptotic trend: the coarsest grids of a study are
+ * often solved directly or are pre-asymptotic); the factor and time exponents over every grid.
  * Only solves with status "ok" enter the fits. A problem is a solve that failed, stopped without
  * converging, stagnated or diverged ({@link residualMetrics}), listed as "nx×ny: reason".
  *
@@ -80,14 +84,20 @@ export function scalingRecord(
     }
   }
   const unknowns = ok.map((s) => s.unknowns);
-  const iterationsExponent = powerLawExponent(unknowns, ok.map((s) => s.iterations));
+  const finest = ok.slice(-3);
+  const iterationsExponent = powerLawExponent(
+    finest.map((s) => s.unknowns),
+    finest.map((s) => s.iterations),
+  );
+  const counts = finest.map((s) => s.iterations).filter((n): n is number => n !== null);
+  const spreadOfOne = counts.length >= 2 && Math.max(...counts) - Math.min(...counts) <= 1;
   const factorExponent = powerLawExponent(unknowns, ok.map((s) => s.averageFactor));
   const timeExponent = powerLawExponent(unknowns, ok.map((s) => s.seconds));
   return {
     iterationsExponent,
     factorExponent,
     timeExponent,
-    gridIndependent: iterationsExponent === null ? null : iterationsExponent <= tol,
+    gridIndependent: iterationsExponent === null ? null : iterationsExponent <= tol || spreadOfOne,
     problems,
   };
 }
