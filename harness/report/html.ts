@@ -199,26 +199,31 @@ function figure(plot: PlotSpec, svg: string): string {
 }
 
 function overview(result: CampaignResult): string {
+  // One row per case, one column per solver: the worst verdict and the failing criteria.
+  const solvers = result.solvers.map((s) => s.name);
   const rows: string[] = [];
   for (const id of caseIds(result)) {
-    for (const solver of pairs(result, id)) {
+    const cells = solvers.map((solver) => {
       const study = result.studies.find((s) => s.caseId === id && s.solver === solver);
       const verdicts = [
         ...(study?.verdicts ?? []),
         ...result.baselineVerdicts.filter((v) => v.caseId === id && v.solver === solver),
       ];
-      const status = worst(verdicts);
-      const failing = verdicts.filter((v) => v.status === "fail").map((v) => v.criterion);
-      rows.push(
-        `<tr><td><a href="#case-${esc(encodeURIComponent(id))}">${esc(id)}</a></td>${
-          td(solver)
-        }<td>${badge(status)} ${esc(failing.join(", "))}</td></tr>`,
-      );
-    }
+      if (verdicts.length === 0) return `<td class="muted">—</td>`;
+      const failing = [
+        ...new Set(verdicts.filter((v) => v.status === "fail").map((v) => v.criterion)),
+      ];
+      return `<td>${badge(worst(verdicts))} ${esc(failing.join(", "))}</td>`;
+    });
+    rows.push(
+      `<tr><td><a href="#case-${esc(encodeURIComponent(id))}">${esc(id)}</a></td>${
+        cells.join("")
+      }</tr>`,
+    );
   }
-  return `<table><thead><tr><th>case</th><th>solver</th><th>result</th></tr></thead><tbody>${
-    rows.join("")
-  }</tbody></table>`;
+  return `<table><thead><tr><th>case</th>${
+    solvers.map((s) => `<th>${esc(s)}</th>`).join("")
+  }</tr></thead><tbody>${rows.join("")}</tbody></table>`;
 }
 
 function environment(result: CampaignResult): string {
