@@ -5,7 +5,7 @@ import { compileExpr, compileFused, compileRowSampler, pointSource } from "./com
 import { checkTree, parseExpression, toExpr } from "./expression.ts";
 import { deriveTrees } from "./derive.ts";
 import { libraryFiles } from "./load.ts";
-import { mulberry32 } from "./_test_random.ts";
+import { mulberry32 } from "../testing/mod.ts";
 
 Deno.test("compiled functions agree with mathjs evaluate to round-off on every built-in case", async (t) => {
   // Independent library: mathjs's own evaluator (CHECK-VALUES.md, "Independent libraries").

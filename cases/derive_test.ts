@@ -2,7 +2,7 @@ import assert from "node:assert/strict";
 import { assertClose } from "../testing/mod.ts";
 import { buildCase } from "./engine.ts";
 import { loadLibrary } from "./load.ts";
-import { mulberry32 } from "./_test_random.ts";
+import { mulberry32 } from "../testing/mod.ts";
 import { testCase } from "./_test_case.ts";
 import type { PointFn } from "./types.ts";
 

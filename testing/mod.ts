@@ -49,3 +49,5 @@ export async function findScipyPython(): Promise<string | undefined> {
   }
   return undefined;
 }
+
+export { mulberry32, normalDeviates } from "./random.ts";

@@ -3,7 +3,7 @@ import { assertClose } from "../../testing/mod.ts";
 import { pairwiseOrders } from "./pairwise_orders.ts";
 import { fittedOrder } from "./fitted_order.ts";
 import { asymptoticRange, orderRecord } from "./order_record.ts";
-import { mulberry32, normalDeviates } from "./_random.ts";
+import { mulberry32, normalDeviates } from "../../testing/mod.ts";
 
 const H = [1 / 8, 1 / 12, 1 / 18, 1 / 27, 1 / 40.5]; // ratio 1.5, non-integer grids
 

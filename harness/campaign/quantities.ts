@@ -23,17 +23,13 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
+import type { SolveOutcome } from "../solvers/mod.ts";
 
-/** Where the values of a discrete solution sit. */
-export interface DiscreteField {
-  layout: "vertex" | "cell" | "points";
-  nx: number;
-  ny: number;
-  x: Float64Array;
-  y: Float64Array;
-  weights: Float64Array;
-  values: Float64Array;
-}
+/** Where the values of a discrete solution sit: the parts of a solver's outcome used here. */
+export type DiscreteField = Pick<
+  SolveOutcome,
+  "layout" | "nx" | "ny" | "x" | "y" | "weights" | "values"
+>;
 
 /** Names and labels of the quantities, in report order. */
 export const QUANTITIES = [

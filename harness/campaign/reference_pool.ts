@@ -6,7 +6,7 @@
  * @module
  */
 import type { SolveOptions } from "../../reference-solver/mod.ts";
-import type { SolveOutcome, Solver, SolveTask } from "../solvers/mod.ts";
+import { emptyOutcome, type SolveOutcome, type Solver, type SolveTask } from "../solvers/mod.ts";
 import type { SolverInfo } from "../result/types.ts";
 
 /** A task sent to a worker: the case by reference (the worker compiles it itself). */
@@ -102,22 +102,11 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
           );
         });
         if (reply.outcome) return reply.outcome;
-        return {
-          status: "failed",
-          reason: `the reference solver failed: ${reply.error}`,
+        return emptyOutcome("failed", `the reference solver failed: ${reply.error}`, {
           layout: "vertex",
           nx: task.nx,
           ny: task.ny,
-          x: new Float64Array(0),
-          y: new Float64Array(0),
-          weights: new Float64Array(0),
-          values: new Float64Array(0),
-          residualHistory: [],
-          iterations: null,
-          converged: null,
-          solverSeconds: null,
-          seconds: (performance.now() - started) / 1000,
-        };
+        }, { seconds: (performance.now() - started) / 1000 });
       } finally {
         release(worker);
       }

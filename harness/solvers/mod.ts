@@ -25,6 +25,7 @@ export type {
   SolveTask,
 } from "./types.ts";
 export { createReferenceSolver, type ReferenceSolverOptions } from "./reference.ts";
+export { emptyOutcome } from "./outcome.ts";
 export { createExternalSolver, type ExternalSolverOptions } from "./external.ts";
 export { loadSolverFile } from "./solver_file.ts";
 export { sampleCase } from "./sample.ts";

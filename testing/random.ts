@@ -1,11 +1,10 @@
 /**
- * A small seeded pseudo-random generator for the statistical tests of this folder (and the demo's
- * synthetic noise): mulberry32 (Tommy Ettinger's 32-bit generator, public domain) and standard
- * normal deviates by the Box–Muller transform. Not for cryptography.
+ * A small seeded pseudo-random generator for reproducible tests: mulberry32 (Tommy Ettinger's
+ * 32-bit generator, public domain) and standard normal deviates by the Box–Muller transform. Not
+ * for cryptography.
  *
  * @module
  */
-
 /** Returns a function giving uniform deviates in [0, 1) from a 32-bit seed (mulberry32). */
 export function mulberry32(seed: number): () => number {
   let a = seed >>> 0;
