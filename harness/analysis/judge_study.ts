@@ -192,9 +192,14 @@ function f2(x: number | null): string {
   return x === null ? "n/a" : x.toFixed(2);
 }
 
-function describeOrder(p: number): string {
+function describeOrder(p: number, expected?: number): string {
   if (p < 0.5) return "looks inconsistent (its error hardly shrinks)";
   const n = Math.round(p);
+  if (expected !== undefined && n >= expected) {
+    // close to the expected order but outside the tolerance: name the shortfall, not the order
+    return `falls short of order ${expected} (${p.toFixed(2)}): it may still be pre-asymptotic — ` +
+      `refine further before calling it a defect`;
+  }
   const words = ["zeroth", "first", "second", "third", "fourth"];
   if (Math.abs(p - n) <= 0.2 && n < words.length) return `looks ${words[n]}-order`;
   return `looks of order about ${p.toFixed(1)}`;
@@ -256,12 +261,15 @@ function judgeOrder(
       "still pre-asymptotic — refine further";
   } else if (band !== null && inner !== null && band < expected - tol && inner >= expected - tol) {
     hint = `the boundary band converges at ${f2(band)} while the interior shows ${f2(inner)}: ` +
-      `the boundary treatment ${describeOrder(band)}`;
+      `the boundary treatment ${describeOrder(band, expected)}`;
   } else if (rec && !rec.asymptotic) {
     hint = `the pairwise orders (${rec.pairwise.map(f2).join(", ")}) have not settled: refine ` +
       `further, or look for a singularity or a coarse-grid effect`;
   } else {
-    hint = `the discretization ${describeOrder(worst)}; compare the interior (${f2(inner)}) and ` +
+    hint =
+      `the discretization ${describeOrder(worst, expected)}; compare the interior (${
+        f2(inner)
+      }) and ` +
       `boundary-band (${f2(band)}) orders to locate the defect`;
   }
   emit("order", "fail", `${observed}: ${hint}`, details);
@@ -311,7 +319,7 @@ function judgeBoundary(
       "boundary-order",
       "fail",
       `${head}, while the interior shows ${f2(w.inner)}: the boundary treatment ${
-        describeOrder(w.band!)
+        describeOrder(w.band!, w.expected)
       }`,
       details,
     );
@@ -334,7 +342,7 @@ function judgeBoundary(
       "fail",
       `${head}, and ${f2(w.inner)} in the interior; the largest errors sit in the boundary band ` +
         `(${bandMax.toExponential(2)} against ${innerMax.toExponential(2)} inside): the boundary ` +
-        `treatment ${describeOrder(w.band!)} and pollutes the interior`,
+        `treatment ${describeOrder(w.band!, w.expected)} and pollutes the interior`,
       { ...details, finestMaxError: { boundary: bandMax, interior: innerMax } },
     );
     return;
