@@ -41,7 +41,10 @@ export interface RunOptions {
   finished?: Map<string, SolveRecord>;
   /** Called after each solve. */
   onProgress?: (event: ProgressEvent) => void;
-  /** When aborted, no new solve starts; running ones finish and are kept. */
+  /**
+   * When aborted, no new solve starts, and solves that end after the abort (interrupted ones) are
+   * neither recorded nor journaled.
+   */
   signal?: AbortSignal;
 }
 
@@ -115,6 +118,9 @@ export async function runSolves(
         scheme: p.solver.info.scheme,
         tolerance,
       });
+      // A solve that ended because the campaign was interrupted (its process killed) did not
+      // finish: it is not recorded, so a resume runs it again.
+      if (options.signal?.aborted) return;
       const record = measureOutcome(p.kase, p.solver.info.name, outcome, tolerance);
       records[index] = record;
       if (outcome.status === "ok" && outcome.layout === "vertex") {

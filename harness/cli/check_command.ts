@@ -196,7 +196,9 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const cases = await selectCases(flags);
   const solvers = await selectSolvers(flags, jobs);
   const stopSolvers = () => Promise.all(solvers.map((s) => s.close()));
+  const interrupt = new AbortController();
   const onInterrupt = () => {
+    interrupt.abort();
     console.error(
       `\ngridproof: interrupted; every finished solve is in ${flags.out}/journal.jsonl — ` +
         `run the same command with --resume to continue`,
@@ -215,6 +217,7 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       outDir: flags.out,
       resume: flags.resume ?? false,
       environment: environmentRecord(),
+      signal: interrupt.signal,
       onProgress: flags.progress === false || flags.json ? undefined : progressPrinter(),
     });
   } finally {

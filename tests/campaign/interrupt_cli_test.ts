@@ -1,0 +1,64 @@
+/**
+ * Ctrl-C in the middle of `gridproof check`: every finished solve stays in the journal, the
+ * command says how to continue, and `--resume` runs only what is missing.
+ */
+import assert from "node:assert/strict";
+
+const DENO = "./node_modules/.bin/deno";
+const PERMS = ["--allow-read", "--allow-write", "--allow-env", "--allow-run", "--allow-sys"];
+
+function journalSolves(path: string): number {
+  try {
+    return Deno.readTextFileSync(path).split("\n").filter((l) => l.includes('"kind":"solve"'))
+      .length;
+  } catch {
+    return 0;
+  }
+}
+
+Deno.test("an interrupted check keeps its finished solves and --resume completes the rest", async () => {
+  const dir = await Deno.makeTempDir();
+  // the SOR example is slow on purpose (work ~ N^1.5): the 256 and 384 grids take seconds, so
+  // the interrupt lands while one of them runs
+  const args = [
+    "run",
+    "--quiet",
+    ...PERMS,
+    "cli.ts",
+    "check",
+    "--solvers",
+    "examples/solvers.json",
+    "--solver",
+    "deno-sor",
+    "--cases",
+    "smooth-baseline",
+    "--grids",
+    "16,32,256,384",
+    "--jobs",
+    "1",
+    "--out",
+    dir,
+    "--no-progress",
+  ];
+  const child = new Deno.Command(DENO, { args, stdout: "piped", stderr: "piped" }).spawn();
+  const journal = `${dir}/journal.jsonl`;
+  while (journalSolves(journal) < 2) await new Promise((r) => setTimeout(r, 50));
+  child.kill("SIGINT");
+  const first = await child.output();
+  const stderr = new TextDecoder().decode(first.stderr);
+  assert.equal(first.code, 130, stderr);
+  assert.match(stderr, /interrupted; every finished solve is in .*journal\.jsonl.*--resume/);
+  const kept = journalSolves(journal);
+  assert.ok(kept >= 2 && kept < 4, `journal holds ${kept} solves`);
+
+  const second = await new Deno.Command(DENO, {
+    args: [...args.filter((a) => a !== "--no-progress"), "--resume"],
+    stdout: "piped",
+    stderr: "piped",
+  }).output();
+  const progress = new TextDecoder().decode(second.stderr);
+  assert.equal(second.code, 0, progress + new TextDecoder().decode(second.stdout));
+  assert.equal((progress.match(/from the journal/g) ?? []).length, kept);
+  assert.equal(journalSolves(journal), 4);
+  await Deno.remove(dir, { recursive: true });
+});
