@@ -27,6 +27,11 @@ export interface ExpectedOrder {
    * not an order check): the verdict asks for errors at round-off level instead of an order.
    */
   exact?: boolean;
+  /**
+   * Grid sequence on which this scheme shows its order, when it differs from the case's `grids`
+   * (a first-order scheme often needs finer grids to leave the pre-asymptotic range).
+   */
+  grids?: number[];
 }
 
 /** One side's boundary condition of a compiled case, with its derived data as a point function. */

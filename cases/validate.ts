@@ -167,18 +167,25 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
   if (!(c.domain.y0 < c.domain.y1)) {
     push("/domain", `y0 must be less than y1, found y0 = ${c.domain.y0}, y1 = ${c.domain.y1}`);
   }
-  for (let k = 1; k < c.grids.length; k++) {
-    if (!(c.grids[k] > c.grids[k - 1])) {
-      push(`/grids/${k}`, `grids must increase, found ${c.grids[k]} after ${c.grids[k - 1]}`);
-    }
-  }
   const aspect = c.aspect ?? 1;
-  for (let k = 0; k < c.grids.length; k++) {
-    if (Math.round(c.grids[k] * aspect) < 2) {
-      push(
-        `/grids/${k}`,
-        `grid ${c.grids[k]} gives ny = round(${c.grids[k]} · ${aspect}) < 2; use larger grids`,
-      );
+  const sequences: [string, number[]][] = [["/grids", c.grids]];
+  for (const scheme of ["central", "upwind"] as const) {
+    const grids = c.expected[scheme]?.grids;
+    if (grids) sequences.push([`/expected/${scheme}/grids`, grids]);
+  }
+  for (const [pointer, grids] of sequences) {
+    for (let k = 1; k < grids.length; k++) {
+      if (!(grids[k] > grids[k - 1])) {
+        push(`${pointer}/${k}`, `grids must increase, found ${grids[k]} after ${grids[k - 1]}`);
+      }
+    }
+    for (let k = 0; k < grids.length; k++) {
+      if (Math.round(grids[k] * aspect) < 2) {
+        push(
+          `${pointer}/${k}`,
+          `grid ${grids[k]} gives ny = round(${grids[k]} · ${aspect}) < 2; use larger grids`,
+        );
+      }
     }
   }
   for (const name of Object.keys(c.parameters ?? {})) {

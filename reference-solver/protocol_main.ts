@@ -62,10 +62,8 @@ function requestId(text: string): string | undefined {
 /** Answers one request text with one reply message. */
 function answer(text: string, forced: ArrayEncoding | undefined): Record<string, unknown> {
   let read;
-  const A0 = performance.now();
   try {
     read = readSolveRequest(text);
-    console.error(`C readSolveRequest ${(performance.now() - A0).toFixed(0)}`);
   } catch (error) {
     const id = requestId(text);
     return {
@@ -89,7 +87,6 @@ function answer(text: string, forced: ArrayEncoding | undefined): Record<string,
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
     });
-    console.error(`C solve ${(performance.now() - A0).toFixed(0)} (cum)`);
     return buildSolutionReply(message.id, result.solution, {
       encoding: forced ?? message.encoding,
       residualHistory: result.residualHistory.filter(Number.isFinite),
@@ -139,7 +136,6 @@ class LineReader {
 
   /** The next line without its newline (chunks joined once: linear in the line length). */
   async line(): Promise<string | undefined> {
-    let F0 = 0;
     const chunks: Uint8Array[] = [];
     let chunk: Uint8Array | undefined = this.#pending;
     this.#pending = new Uint8Array(0);
@@ -149,16 +145,8 @@ class LineReader {
         if (nl >= 0) {
           chunks.push(chunk.subarray(0, nl));
           this.#pending = chunk.slice(nl + 1);
-          const J0 = performance.now();
-          const r = this.#join(chunks);
-          if (r.length > 1e6) {
-            console.error(
-              `C read ${(J0 - F0).toFixed(0)} join+decode ${(performance.now() - J0).toFixed(0)}`,
-            );
-          }
-          return r;
+          return this.#join(chunks);
         }
-        if (F0 === 0) F0 = performance.now();
         chunks.push(chunk);
       }
       chunk = await this.#next();
@@ -219,14 +207,10 @@ async function main(args: string[]): Promise<number> {
   });
   while (true) {
     const line = await input.line();
-    const C0 = performance.now();
     if (line === undefined) return 0;
     if (line.trim() === "") continue;
     if (messageType(line) === "goodbye") return 0;
-    const rep = answer(line, forced);
-    const C1 = performance.now();
-    await send(rep);
-    console.error(`C answer ${(C1 - C0).toFixed(0)} send ${(performance.now() - C1).toFixed(0)}`);
+    await send(answer(line, forced));
   }
 }
 

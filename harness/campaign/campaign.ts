@@ -43,9 +43,16 @@ export interface CampaignOptions {
   now?: () => Date;
 }
 
-/** The grids a case runs on in this campaign. */
-export function gridsOf(kase: CompiledCase, options: { grids?: number[] }): number[] {
-  return options.grids ?? kase.grids;
+/**
+ * The grids a case runs on for a scheme: the campaign's grids when given, else the grids the case
+ * suggests for that scheme, else the case's grids.
+ */
+export function gridsOf(
+  kase: CompiledCase,
+  options: { grids?: number[] },
+  scheme: "central" | "upwind" = "central",
+): number[] {
+  return options.grids ?? kase.expected[scheme]?.grids ?? kase.grids;
 }
 
 /** A fingerprint of what determines the solves (for refusing a resume with another setup). */
@@ -55,7 +62,7 @@ export function fingerprint(
   options: CampaignOptions,
 ): string {
   return JSON.stringify({
-    cases: cases.map((c) => [c.id, c.origin, c.parameters, gridsOf(c, options)]),
+    cases: cases.map((c) => [c.id, c.origin, c.parameters, gridsOf(c, options), c.expected]),
     solvers: solvers.map((
       s,
     ) => [s.info.name, s.info.scheme, s.info.layout, s.info.command ?? null]),
@@ -95,7 +102,9 @@ export async function runCampaign(
   const plan: PlannedSolve[] = [];
   for (const kase of cases) {
     for (const solver of solvers) {
-      for (const n of gridsOf(kase, options)) plan.push({ kase, solver, ...gridFor(kase, n) });
+      for (const n of gridsOf(kase, options, solver.info.scheme)) {
+        plan.push({ kase, solver, ...gridFor(kase, n) });
+      }
     }
   }
   const print = fingerprint(cases, solvers, options);

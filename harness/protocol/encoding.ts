@@ -7,9 +7,10 @@
 import type { ArrayEncoding, WireArray } from "./types.ts";
 
 /** true when this machine stores float64 little-endian (then the bytes need no swapping). */
-const LITTLE_ENDIAN = new Uint8Array(new Float64Array([1]).buffer)[7] === 0x3f;
+export const LITTLE_ENDIAN = new Uint8Array(new Float64Array([1]).buffer)[7] === 0x3f;
 
-function swapEach8(bytes: Uint8Array): void {
+/** Reverses the byte order of each 8-byte group in place (float64 between byte orders). */
+export function swapEach8(bytes: Uint8Array): void {
   for (let k = 0; k < bytes.length; k += 8) {
     for (let m = 0; m < 4; m++) {
       const t = bytes[k + m];

@@ -200,9 +200,7 @@ class Runner {
     const limitSeconds = task.timeLimitSeconds ?? spec.timeLimitSeconds;
     let bytes: Uint8Array;
     try {
-      const T0 = performance.now();
       const sampled = sampleCase(task.case, task.nx, task.ny, layout);
-      const T1 = performance.now();
       const f = task.case.formulas;
       const message = buildSolveRequest(sampled, {
         id,
@@ -223,15 +221,7 @@ class Runner {
         encoding: spec.encoding,
         constants: spec.constantArrays ?? false,
       });
-      const T2 = performance.now();
-      const txt = serializeMessage(message);
-      const T3 = performance.now();
-      bytes = new TextEncoder().encode(txt);
-      console.error(
-        `H sample ${(T1 - T0).toFixed(0)} build ${(T2 - T1).toFixed(0)} stringify ${
-          (T3 - T2).toFixed(0)
-        } encode ${(performance.now() - T3).toFixed(0)}`,
-      );
+      bytes = new TextEncoder().encode(serializeMessage(message));
     } catch (error) {
       return emptyOutcome(
         "failed",
@@ -460,8 +450,6 @@ class Session {
           `before the request was sent (${wrote.written} of ${p.bytes.length} bytes); it will be restarted`,
       );
     }
-    const TW = performance.now();
-    console.error(`H write ${(TW - started).toFixed(0)}`);
     let line;
     do {
       line = await within(proc.readLine(this.runner.maxReplyBytes), deadline - performance.now());
@@ -487,13 +475,10 @@ class Session {
     }
     if (line.kind !== "line") return await fail("unexpected output");
     const seconds = elapsed();
-    const TR = performance.now();
-    console.error(`H wait+readLine ${(TR - TW).toFixed(0)}`);
     const outcome = this.runner.judge(line.text, p, {
       seconds,
       stderrTail: proc.stderr.text(mark),
     }, description);
-    console.error(`H judge ${(performance.now() - TR).toFixed(0)}`);
     // after a bad reply the conversation may be out of step: start afresh next time
     if (outcome.status === "failed") await this.#kill();
     return outcome;

@@ -34,6 +34,24 @@ Deno.test("gridproof check passes every built-in case with the reference solver 
   await Deno.remove(dir, { recursive: true });
 });
 
+Deno.test("gridproof check --upwind passes every built-in case at first order", async () => {
+  // first-order upwinding of b·u_x and d·u_y: formal order 1 (common practice; derived from the
+  // Taylor expansion of the one-sided difference); cases without convection keep order 2, since
+  // their upwind and central stencils are identical (exact identity)
+  const dir = await Deno.makeTempDir();
+  const run = await gridproof(["check", "--upwind", "--out", dir, "--no-progress"]);
+  assert.equal(run.code, 0, run.stdout + run.stderr);
+  const result = JSON.parse(await Deno.readTextFile(`${dir}/result.json`));
+  const expected = Object.fromEntries(
+    result.studies.map((
+      s: { caseId: string; expectedOrder: number },
+    ) => [s.caseId, s.expectedOrder]),
+  );
+  assert.equal(expected["smooth-baseline"], 1);
+  assert.equal(expected["quartic-poisson"], 2);
+  await Deno.remove(dir, { recursive: true });
+});
+
 Deno.test("gridproof check refuses bad flags with exit code 2 and says what to fix", async (t) => {
   const cases: [string[], RegExp][] = [
     [["--cases", "no-such-case"], /unknown case "no-such-case": valid ids are/],
