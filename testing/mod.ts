@@ -51,3 +51,4 @@ export async function findScipyPython(): Promise<string | undefined> {
 }
 
 export { mulberry32, normalDeviates } from "./random.ts";
+export { CLI_PERMISSIONS, type CliRun, runGridproof } from "./cli.ts";

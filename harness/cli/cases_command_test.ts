@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { runCli } from "./_run_cli_test_helper.ts";
+import { runGridproof as runCli } from "../../testing/mod.ts";
 
 const fixture = (name: string) => `testdata/cases/${name}`;
 

@@ -1,32 +1,12 @@
 import assert from "node:assert/strict";
-import { assertClose } from "../../testing/mod.ts";
+import { assertClose, runGridproof } from "../../testing/mod.ts";
 import { InputError } from "./errors.ts";
 import { formatRefine, readStudyCsv, type RefineResult, refineStudy } from "./refine_command.ts";
 
 const DATA = new URL("../../testdata/refine/", import.meta.url);
 const read = (name: string) => Deno.readTextFileSync(new URL(name, DATA));
 
-async function cli(args: string[]) {
-  const deno = new URL("../../node_modules/.bin/deno", import.meta.url).pathname;
-  const root = new URL("../../", import.meta.url).pathname;
-  const out = await new Deno.Command(deno, {
-    args: [
-      "run",
-      "--allow-read",
-      "--allow-write",
-      "--allow-env",
-      "--allow-run",
-      "--allow-sys",
-      "cli.ts",
-      ...args,
-    ],
-    cwd: root,
-    stdout: "piped",
-    stderr: "piped",
-  }).output();
-  const decode = (b: Uint8Array) => new TextDecoder().decode(b);
-  return { code: out.code, stdout: decode(out.stdout), stderr: decode(out.stderr) };
-}
+const cli = (args: string[]) => runGridproof(args);
 
 Deno.test("refineStudy() reproduces the NASA NPARC tutorial from a CSV", () => {
   const result = refineStudy(readStudyCsv(read("nparc.csv"), { file: "nparc.csv" }));

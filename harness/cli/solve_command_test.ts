@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { runCli } from "./_run_cli_test_helper.ts";
+import { runGridproof as runCli } from "../../testing/mod.ts";
 
 Deno.test("gridproof solve --json prints one object with errors, residual history and timing", async () => {
   const run = await runCli(["solve", "--case", "smooth-baseline", "--n", "32", "--json"]);

@@ -5,20 +5,9 @@
  * requested reports, and refuses bad flags with exit code 2.
  */
 import assert from "node:assert/strict";
+import { runGridproof } from "../../testing/mod.ts";
 
-const DENO = "./node_modules/.bin/deno";
-const PERMS = ["--allow-read", "--allow-write", "--allow-env", "--allow-run", "--allow-sys"];
-
-async function gridproof(args: string[]) {
-  const out = await new Deno.Command(DENO, {
-    args: ["run", "--quiet", ...PERMS, "cli.ts", ...args],
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const decode = (b: Uint8Array) => new TextDecoder().decode(b);
-  return { code: out.code, stdout: decode(out.stdout), stderr: decode(out.stderr) };
-}
+const gridproof = (args: string[]) => runGridproof(args);
 
 Deno.test("gridproof check passes every built-in case with the reference solver and writes its reports", async () => {
   const dir = await Deno.makeTempDir();

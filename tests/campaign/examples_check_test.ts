@@ -6,23 +6,12 @@
  * direct solve: SciPy's spsolve), and the seeded first-order defect fails in the boundary band.
  */
 import assert from "node:assert/strict";
-import { findScipyPython } from "../../testing/mod.ts";
+import { findScipyPython, runGridproof } from "../../testing/mod.ts";
 
-const DENO = "./node_modules/.bin/deno";
-const PERMS = ["--allow-read", "--allow-write", "--allow-env", "--allow-run", "--allow-sys"];
 const SCIPY = await findScipyPython();
 const SKIP = SCIPY ? "" : " (skipped: Debian python3-scipy not installed)";
 
-async function gridproof(args: string[]) {
-  const out = await new Deno.Command(DENO, {
-    args: ["run", "--quiet", ...PERMS, "cli.ts", ...args],
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const decode = (b: Uint8Array) => new TextDecoder().decode(b);
-  return { code: out.code, stdout: decode(out.stdout), stderr: decode(out.stderr) };
-}
+const gridproof = (args: string[]) => runGridproof(args);
 
 async function buildC(): Promise<void> {
   const made = await new Deno.Command("make", {

@@ -1,20 +1,9 @@
 /** `gridproof probe` end to end: exit 0 when every check passes, 1 on misbehaviour, 2 for bad usage. */
 import assert from "node:assert/strict";
+import { runGridproof } from "../../testing/mod.ts";
 
-const root = new URL("../../", import.meta.url).pathname;
 
-async function gridproof(
-  args: string[],
-): Promise<{ code: number; stdout: string; stderr: string }> {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "--quiet", "--allow-all", "cli.ts", ...args],
-    cwd: root,
-    stdout: "piped",
-    stderr: "piped",
-  }).output();
-  const text = (b: Uint8Array) => new TextDecoder().decode(b);
-  return { code: out.code, stdout: text(out.stdout), stderr: text(out.stderr) };
-}
+const gridproof = (args: string[]) => runGridproof(args);
 
 Deno.test("gridproof probe exits 0 for the reference protocol program and reports overheads", async () => {
   const r = await gridproof([

@@ -3,6 +3,7 @@
  * fixture result (testdata/report/result.json, test data made by testdata/report/fixture.ts).
  */
 import assert from "node:assert/strict";
+import { runGridproof } from "../../testing/mod.ts";
 import { parse } from "csv-parse/sync";
 import { parseResult } from "../../harness/result/read.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
@@ -10,17 +11,9 @@ import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 const ROOT = new URL("../../", import.meta.url).pathname;
 const FIXTURE = "testdata/report/result.json";
 
-async function gridproof(args: string[], env: Record<string, string> = {}) {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "--allow-read", "--allow-write", "--allow-env", "cli.ts", ...args],
-    cwd: ROOT,
-    env: { NO_COLOR: "1", ...env },
-    stdout: "piped",
-    stderr: "piped",
-  }).output();
-  const dec = new TextDecoder();
-  return { code: out.code, stdout: dec.decode(out.stdout), stderr: dec.decode(out.stderr) };
-}
+// `report` only reads a result and writes files: it runs with no --allow-run and no --allow-sys.
+const gridproof = (args: string[], env: Record<string, string> = {}) =>
+  runGridproof(args, { env, permissions: ["--allow-read", "--allow-write", "--allow-env"] });
 
 Deno.test("gridproof report writes every format from a saved result", async () => {
   const dir = await Deno.makeTempDir();
