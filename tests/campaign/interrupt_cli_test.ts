@@ -3,9 +3,9 @@
  * command says how to continue, and `--resume` runs only what is missing.
  */
 import assert from "node:assert/strict";
+import { CLI_PERMISSIONS } from "../../testing/mod.ts";
 
-const DENO = "./node_modules/.bin/deno";
-const PERMS = ["--allow-read", "--allow-write", "--allow-env", "--allow-run", "--allow-sys"];
+const DENO = Deno.execPath();
 
 function journalSolves(path: string): number {
   try {
@@ -23,7 +23,7 @@ Deno.test("an interrupted check keeps its finished solves and --resume completes
   const args = [
     "run",
     "--quiet",
-    ...PERMS,
+    ...CLI_PERMISSIONS,
     "cli.ts",
     "check",
     "--solvers",
