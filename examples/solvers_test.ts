@@ -5,6 +5,7 @@ import { loadSolverFile } from "../harness/solvers/mod.ts";
 import {
   buildRequest,
   decodeValues,
+  DOMAIN,
   exactValues,
   maxDifference,
   MIXES,
@@ -25,7 +26,7 @@ interface Entry {
   env?: Record<string, string>;
   mode?: "once" | "session";
   encoding?: "numbers" | "base64";
-  layout?: "vertex" | "cell";
+  layout?: "vertex" | "cell" | "points";
 }
 
 /** Resolves a solver-file path the way docs/protocol.md says: relative to the file's folder. */
@@ -67,10 +68,12 @@ for (const entry of FILE.solvers) {
         : entry.command[0];
       const cwd = resolvePath(entry.cwd ?? ".");
       const layout = entry.layout ?? "vertex";
+      // a solver on its own points is sent the vertex layout (docs/protocol.md)
+      const requestLayout = layout === "cell" ? "cell" : "vertex";
       // Only Dirichlet sides: the seeded defect of the defective entry stays dormant, and the
       // cell-centred scheme's ghost cells are exact only for linear data, so it gets a looser check.
       const req = buildRequest(QUADRATIC, MIXES["all dirichlet"], { nx: 6, ny: 5 }, {
-        layout,
+        layout: requestLayout,
         encoding: entry.encoding ?? "numbers",
       });
       const hello = { protocol: "gridproof-protocol/1", type: "hello" };
@@ -86,6 +89,21 @@ for (const entry of FILE.solvers) {
       const reply = run.replies[run.replies.length - 1];
       if (entry.mode === "session") assert.equal(run.replies[0].type, "ready");
       assert.equal(reply.type, "solution", JSON.stringify(reply).slice(0, 300));
+      if (layout === "points") {
+        // deno-sor --reply-points: cell centres valued by the four-node average of a solution
+        // exact at the nodes, i.e. u(c) + (hx²·u_xx + hy²·u_yy)/8 (derived by Taylor expansion)
+        const points = reply.points as Record<string, unknown>;
+        const x = decodeValues(points.x), y = decodeValues(points.y);
+        const hx = (DOMAIN.x1 - DOMAIN.x0) / 6, hy = (DOMAIN.y1 - DOMAIN.y0) / 5;
+        const expected = x.map((xi, k) =>
+          QUADRATIC.u(xi, y[k]) +
+          (hx * hx * QUADRATIC.uxx(xi, y[k]) + hy * hy * QUADRATIC.uyy(xi, y[k])) / 8
+        );
+        assert.equal(x.length, 30);
+        const err = maxDifference(decodeValues(reply.values), expected);
+        assert.ok(err < 1e-9, `max error ${err}`);
+        return;
+      }
       const err = maxDifference(decodeValues(reply.values), exactValues(QUADRATIC, layout, 6, 5));
       // Source: derived — the vertex scheme is exact for quadratics; the cell-centred one has an
       // O(h²) error (about 1e-2 here), so only its size is checked.

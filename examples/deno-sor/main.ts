@@ -2,11 +2,17 @@
  * gridproof example solver: plain SOR on the vertex-centred 5-point system, speaking
  * gridproof-protocol/1 on stdin/stdout (docs/protocol.md). Logs go to stderr.
  *
- * Usage: `deno run main.ts [--omega W] [--max-sweeps N] [--seeded-defect one-sided]`
+ * Usage: `deno run main.ts [--omega W] [--max-sweeps N] [--seeded-defect one-sided] [--reply-points]`
  *
  * `--seeded-defect one-sided` is a DELIBERATE DEFECT for gridproof's demo: Neumann and Robin
  * sides get a first-order one-sided boundary row instead of the second-order ghost node, so the
  * boundary band converges at order 1.
+ *
+ * `--reply-points` answers like a solver on its own mesh (docs/protocol.md, "Replying on your own
+ * points"): it still solves on the requested vertex grid, then replies with the cell centres as
+ * its own points, each valued by the average of its four nodes, with weights hx·hy
+ * (`cell_points.ts` derives why that stays second-order accurate). Its solver-file entry declares
+ * `"layout": "points"`.
  *
  * The mode is chosen by the first line on stdin: a hello message starts a session (one message
  * per line until goodbye or end of input); anything else is one request (once mode).
@@ -16,6 +22,7 @@
 import { encodeArray, PROTOCOL, readProblem, RequestError } from "./problem.ts";
 import { sorSolve } from "./sor.ts";
 import { assembleStencil } from "./stencil.ts";
+import { cellPoints } from "./cell_points.ts";
 
 const VERSION = "1.0.0";
 /** Largest grid accepted: SOR needs about 10^10 operations at 1024 × 1024. */
@@ -30,12 +37,18 @@ interface Flags {
   omega?: number;
   maxSweeps?: number;
   defect?: "one-sided";
+  /** Reply on the cell centres (own points) instead of the requested nodes. */
+  points?: boolean;
 }
 
 function parseFlags(args: string[]): Flags {
   const flags: Flags = {};
   for (let k = 0; k < args.length; k++) {
     const [key, inline] = args[k].split("=", 2);
+    if (key === "--reply-points" && inline === undefined) {
+      flags.points = true;
+      continue;
+    }
     const value = inline ?? args[++k];
     const num = Number(value);
     if (key === "--omega" && num > 0 && num < 2) flags.omega = num;
@@ -45,7 +58,7 @@ function parseFlags(args: string[]): Flags {
       console.error(
         `deno-sor: unknown or bad option '${
           args[k]
-        }'; use --omega W (0 < W < 2), --max-sweeps N or --seeded-defect one-sided`,
+        }'; use --omega W (0 < W < 2), --max-sweeps N, --seeded-defect one-sided or --reply-points`,
       );
       Deno.exit(2);
     }
@@ -53,18 +66,21 @@ function parseFlags(args: string[]): Flags {
   return flags;
 }
 
-const READY = {
-  protocol: PROTOCOL,
-  type: "ready",
-  solver: { name: NAME, version: VERSION },
-  supports: {
-    boundaryKinds: ["dirichlet", "neumann", "robin"],
-    schemes: ["central", "upwind"],
-    layouts: ["vertex"],
-    encodings: ["numbers", "base64"],
-    largestGrid: { nx: LARGEST, ny: LARGEST },
-  },
-};
+function ready(flags: Flags): Json {
+  return {
+    protocol: PROTOCOL,
+    type: "ready",
+    solver: { name: NAME, version: VERSION },
+    supports: {
+      boundaryKinds: ["dirichlet", "neumann", "robin"],
+      schemes: ["central", "upwind"],
+      // requests come on the vertex layout either way; the reply's layout is what is declared
+      layouts: [flags.points ? "points" : "vertex"],
+      encodings: ["numbers", "base64"],
+      largestGrid: { nx: LARGEST, ny: LARGEST },
+    },
+  };
+}
 
 function msg(type: string, fields: Record<string, unknown>): Json {
   return { protocol: PROTOCOL, type, ...fields };
@@ -131,9 +147,22 @@ function solve(req: Json, flags: Flags): Json {
   if (!result.solution.every(Number.isFinite)) {
     return msg("error", { id, reason: `SOR ${result.reason} and produced non-finite values` });
   }
+  const encoding = req.encoding ?? "numbers";
+  const own = flags.points
+    ? cellPoints(result.solution, { ...p.domain, nx: p.nx, ny: p.ny })
+    : null;
   return msg("solution", {
     id,
-    values: encodeArray(result.solution, req.encoding ?? "numbers"),
+    values: encodeArray(own ? own.values : result.solution, encoding),
+    ...(own
+      ? {
+        points: {
+          x: encodeArray(own.x, encoding),
+          y: encodeArray(own.y, encoding),
+          weights: encodeArray(own.weights, encoding),
+        },
+      }
+      : {}),
     residualHistory: result.residualHistory,
     iterations: result.sweeps,
     converged: result.converged,
@@ -141,6 +170,7 @@ function solve(req: Json, flags: Flags): Json {
     solver: { name: NAME, version: VERSION },
     notes: `lexicographic SOR, omega ${result.omega.toFixed(6)}, ${scheme} scheme, ` +
       `stopped: ${result.reason}` +
+      (own ? `; replied at the ${own.values.length} cell centres (averages of four nodes)` : "") +
       (result.restarts.length > 0
         ? `; restarted after divergence with omega ${
           result.restarts.map((o) => o.toFixed(4)).join(", ")
@@ -160,7 +190,7 @@ function answer(req: Json, flags: Flags): Json {
       reason: `this solver speaks '${PROTOCOL}' only; the message says '${req.protocol}'`,
     });
   }
-  if (req.type === "hello") return READY;
+  if (req.type === "hello") return ready(flags);
   if (req.type !== "solve") {
     return msg("error", { ...idField, reason: `unknown message type '${req.type}'` });
   }

@@ -2,6 +2,7 @@ import assert from "node:assert/strict";
 import {
   buildRequest,
   decodeValues,
+  DOMAIN,
   exactValues,
   maxDifference,
   MIXES,
@@ -122,5 +123,46 @@ Deno.test("deno-sor --seeded-defect one-sided shows order 1 with Neumann/Robin s
   await t.step("all dirichlet: order 2", async () => {
     const p = await finestOrder("all dirichlet", defect);
     assert.ok(Math.abs(p - 2) < 0.1, `order ${p}`);
+  });
+});
+
+Deno.test("deno-sor --reply-points replies at the cell centres with four-node averages and weights hx·hy", async (t) => {
+  for (const encoding of ["numbers", "base64"] as const) {
+    await t.step(encoding, async () => {
+      const req = buildRequest(QUADRATIC, MIXES["mixed with a dirichlet side"], { nx: 8, ny: 6 }, {
+        encoding,
+      });
+      const run = await runExample([...COMMAND, "--reply-points"], HERE, JSON.stringify(req));
+      assert.equal(run.code, 0, run.stderr);
+      const reply = run.replies[0];
+      assert.equal(reply.type, "solution", JSON.stringify(reply));
+      const points = reply.points as Record<string, unknown>;
+      const x = decodeValues(points.x), y = decodeValues(points.y);
+      const w = decodeValues(points.weights);
+      const hx = (DOMAIN.x1 - DOMAIN.x0) / 8, hy = (DOMAIN.y1 - DOMAIN.y0) / 6;
+      assert.equal(x.length, 48);
+      // cell (i, j) at index j·nx + i, centre (x0 + (i + ½)hx, y0 + (j + ½)hy) — docs/protocol.md
+      assert.ok(Math.abs(x[8 * 2 + 3] - (DOMAIN.x0 + 3.5 * hx)) < 1e-15);
+      assert.ok(Math.abs(y[8 * 2 + 3] - (DOMAIN.y0 + 2.5 * hy)) < 1e-15);
+      assert.ok(w.every((v) => Math.abs(v - hx * hy) < 1e-17));
+      // derived: the nodes are exact for a quadratic; their four-node average at the centre is
+      // u(c) + (hx²·u_xx + hy²·u_yy)/8
+      const expected = x.map((xi, k) =>
+        QUADRATIC.u(xi, y[k]) +
+        (hx * hx * QUADRATIC.uxx(xi, y[k]) + hy * hy * QUADRATIC.uyy(xi, y[k])) / 8
+      );
+      const err = maxDifference(decodeValues(reply.values), expected);
+      assert.ok(err < 1e-9, `max error ${err}`);
+    });
+  }
+  await t.step("its session's ready message declares the points layout", async () => {
+    const hello = { protocol: "gridproof-protocol/1", type: "hello" };
+    const run = await runExample(
+      [...COMMAND, "--reply-points"],
+      HERE,
+      JSON.stringify(hello) + "\n",
+    );
+    const supports = run.replies[0].supports as { layouts: string[] };
+    assert.deepEqual(supports.layouts, ["points"]);
   });
 });

@@ -11,14 +11,18 @@
  * - `maximum`: the largest value of u, refined on structured grids by the peak of the quadratic
  *   fitted to the 3×3 (or 3-point, on a side) neighbourhood of the largest value: the peak of
  *   the fit is within O(h³) of the peak of the sampled function (its gradient vanishes there),
- *   so the discretization error, O(h²), dominates and the order is clean (derived);
+ *   so the discretization error, O(h²), dominates and the order is clean (derived). On a
+ *   solver's own points it is the largest point value, unrefined (free points have no stencil to
+ *   fit): second order at an interior peak, but only first order when the peak lies on a side the
+ *   points do not reach — e.g. cell centres, h/2 inside, where the gradient is not zero (derived
+ *   by Taylor expansion); its observed order then says so, and its GCI uses that order;
  * - `east-flux`: ∫ ∂u/∂n dy over the east side, with the one-sided second-order derivative
  *   (3u_N − 4u_{N−1} + u_{N−2})/(2h) on vertex grids and (2u_1 − 3u_2 + u_3)/h from the three
  *   cell centres nearest the face on cell grids (both exact for quadratics in x — derived by
  *   Lagrange interpolation), trapezoid/midpoint in y (structured layouts only).
  *
- * All are second-order accurate functionals of a second-order solution (common practice), so
- * their observed orders and GCIs are meaningful.
+ * Apart from that case of the maximum, all are second-order accurate functionals of a
+ * second-order solution (common practice), so their observed orders and GCIs are meaningful.
  *
  * @module
  */
@@ -35,7 +39,11 @@ export type DiscreteField = Pick<
 export const QUANTITIES = [
   { name: "integral", label: "integral of u over the domain" },
   { name: "point", label: "u at the centre of the domain, bilinear interpolation" },
-  { name: "maximum", label: "largest value of u (quadratic fit around the largest nodal value)" },
+  {
+    name: "maximum",
+    label: "largest value of u (quadratic fit around the largest nodal value; on a solver's own " +
+      "points, the largest point value)",
+  },
   { name: "east-flux", label: "integral of the outward normal derivative over the east side" },
 ] as const;
 

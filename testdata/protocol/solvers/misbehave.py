@@ -8,6 +8,7 @@ decoder, so the "echo" modes double as an independent check of the encoding.
 import base64
 import json
 import os
+import resource
 import signal
 import struct
 import subprocess
@@ -42,6 +43,20 @@ def solution(request, values, encoding="numbers", **extra):
     return reply
 
 
+def address_space_limit():
+    """The soft RLIMIT_AS of this process in bytes, or "unlimited"."""
+    soft = resource.getrlimit(resource.RLIMIT_AS)[0]
+    return "unlimited" if soft == resource.RLIM_INFINITY else str(soft)
+
+
+def allocate(mib):
+    """Allocates and zero-fills MIB MiB, as a solver building a large matrix would. Under an
+    address-space limit below that, CPython raises MemoryError, left uncaught on purpose."""
+    sys.stderr.write("address-space limit %s; allocating %d MiB\n" % (address_space_limit(), mib))
+    sys.stderr.flush()
+    return bytearray(mib * 1024 * 1024)
+
+
 def once(mode, arg):
     if mode == "closestdin":
         os.close(0)
@@ -67,6 +82,11 @@ def once(mode, arg):
         reply = solution(request, [x + y for x, y in zip(xs, ys)])
         reply["points"] = {"x": xs, "y": ys}
         out(reply)
+    elif mode == "allocate":
+        # ARG MiB, then a good reply whose notes report the address-space limit seen
+        block = allocate(int(arg))
+        out(solution(request, source, notes="address-space limit %s; held %d bytes"
+                     % (address_space_limit(), len(block))))
     elif mode == "exit3":
         sys.stderr.write("solver: matrix is singular at row 17\n")
         return 3
@@ -121,7 +141,8 @@ def once(mode, arg):
 
 def session(mode, arg):
     """Session modes: session (good), session-crash N (exit 5 on request N),
-    session-hang N (hang on request N), session-logs (a log line before each reply)."""
+    session-hang N (hang on request N), session-logs (a log line before each reply),
+    session-allocate N (allocate 2 GiB on request N, which fails under a smaller memory limit)."""
     hello = json.loads(sys.stdin.readline())
     assert hello["type"] == "hello"
     out({"protocol": VERSION, "type": "ready", "solver": {"name": "misbehave", "version": "1"},
@@ -140,6 +161,8 @@ def session(mode, arg):
             return 5
         if mode == "session-hang" and count == int(arg):
             time.sleep(300)
+        if mode == "session-allocate" and count == int(arg):
+            allocate(2048)
         if mode == "session-logs":
             print("log line on stdout")
         out(solution(message, decode(message["source"]), "base64", iterations=count,
