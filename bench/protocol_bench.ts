@@ -2,7 +2,10 @@
  * Protocol benchmark (a script, not a test): `deno run -A bench/protocol_bench.ts [--quick]`.
  *
  * 1. Encode + decode throughput of a request and a reply at n = 1024 (1025² ≈ 1.05 M nodes) in
- *    both array encodings, in MB/s of JSON text.
+ *    both array encodings, in MB/s of JSON text, along the paths the subprocess exchange takes:
+ *    requests written as bytes by solveRequestBytes and read by a LineScanner (as
+ *    reference-solver/protocol_main.ts reads them), replies written by solutionReplyBytes and read
+ *    by readReply from their text (as the harness reads them).
  * 2. Overhead of the reference solver as a subprocess (reference-solver/protocol_main.ts, base64
  *    arrays) against the same solver in process, at n = 256, 512, 1024, measured side by side in
  *    one run (once mode: a fresh process per solve; session mode: one warm process).
@@ -13,11 +16,12 @@
  */
 import { loadCase } from "../cases/mod.ts";
 import {
-  buildSolutionReply,
-  buildSolveRequest,
+  LineScanner,
+  type MessageBytes,
   readReply,
   readSolveRequest,
-  serializeMessage,
+  solutionReplyBytes,
+  solveRequestBytes,
 } from "../harness/protocol/mod.ts";
 import {
   createExternalSolver,
@@ -42,8 +46,20 @@ function time<T>(f: () => T): [T, number] {
   return [r, (performance.now() - t) / 1000];
 }
 
+/** All the bytes of a message line, written piece by piece into one buffer (as into a pipe). */
+function collect(line: MessageBytes): Uint8Array {
+  const out = new Uint8Array(line.byteLength);
+  let at = 0;
+  for (const piece of line.pieces()) {
+    out.set(piece, at);
+    at += piece.length;
+  }
+  return out;
+}
+
 // ---- 1. encode + decode throughput ----
 {
+  const scanner = new LineScanner();
   const n = 1024;
   const sampled = sampleCase(compiled, n, n, "vertex");
   const f = compiled.formulas;
@@ -57,8 +73,8 @@ function time<T>(f: () => T): [T, number] {
     let requestBytes = 0;
     let replyBytes = 0;
     for (let rep = 0; rep < 3; rep++) {
-      const [requestText, tEncReq] = time(() =>
-        serializeMessage(buildSolveRequest(sampled, {
+      const [requestLine, tEncReq] = time(() =>
+        collect(solveRequestBytes(sampled, {
           id: "bench",
           caseId: compiled.id,
           expressions: {
@@ -76,12 +92,16 @@ function time<T>(f: () => T): [T, number] {
           encoding,
         }))
       );
-      const [, tDecReq] = time(() => readSolveRequest(requestText));
-      const [replyText, tEncRep] = time(() =>
-        serializeMessage(buildSolutionReply("bench", solution, { encoding, iterations: 5 }))
+      const [, tDecReq] = time(() => {
+        const end = scanner.scan(requestLine);
+        const line = requestLine.subarray(0, end);
+        return readSolveRequest(scanner.finish(line) ?? new TextDecoder().decode(line));
+      });
+      const [replyLine, tEncRep] = time(() =>
+        collect(solutionReplyBytes("bench", solution, { encoding, iterations: 5 }))
       );
       const [check, tDecRep] = time(() =>
-        readReply(replyText, {
+        readReply(new TextDecoder().decode(replyLine), {
           id: "bench",
           layout: "vertex",
           nx: n,
@@ -90,8 +110,8 @@ function time<T>(f: () => T): [T, number] {
         })
       );
       if (!check.ok) throw new Error(check.reason);
-      requestBytes = requestText.length;
-      replyBytes = replyText.length;
+      requestBytes = requestLine.length;
+      replyBytes = replyLine.length;
       rows.push([tEncReq, tDecReq, tEncRep, tDecRep]);
     }
     const [eq, dq, ep, dp] = [0, 1, 2, 3].map((k) => median(rows.map((r) => r[k])));

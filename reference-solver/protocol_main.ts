@@ -13,20 +13,23 @@
  */
 import {
   type ArrayEncoding,
-  buildSolutionReply,
+  LineScanner,
+  type MessageBytes,
+  messageBytes,
+  type ParsedMessage,
   PROTOCOL_VERSION,
   readSolveRequest,
   type SampledProblem,
-  serializeMessage,
+  solutionReplyBytes,
 } from "../harness/protocol/mod.ts";
 import { type Problem, solve } from "./mod.ts";
 
-const encoder = new TextEncoder();
-
-async function send(message: object): Promise<void> {
-  const bytes = encoder.encode(serializeMessage(message));
-  let at = 0;
-  while (at < bytes.length) at += await Deno.stdout.write(bytes.subarray(at));
+/** Writes one message line to stdout, piece by piece (arrays are encoded as they are written). */
+async function send(line: MessageBytes): Promise<void> {
+  for (const piece of line.pieces()) {
+    let at = 0;
+    while (at < piece.length) at += await Deno.stdout.write(piece.subarray(at));
+  }
 }
 
 function toProblem(p: SampledProblem): Problem {
@@ -50,44 +53,52 @@ function toProblem(p: SampledProblem): Problem {
   };
 }
 
-function requestId(text: string): string | undefined {
-  try {
-    const id = (JSON.parse(text) as { id?: unknown }).id;
-    return typeof id === "string" ? id : undefined;
-  } catch {
-    return undefined;
+/** One line of input: its message when it was parsed on the way, else its text. */
+type Line = ParsedMessage | string;
+
+/** A field of a line's message (a text of more than 4 KiB is not parsed again just for this). */
+function field(line: Line, name: "id" | "type"): string | undefined {
+  let value: unknown = typeof line === "string" ? undefined : line.value;
+  if (typeof line === "string" && line.length <= 4096) {
+    try {
+      value = JSON.parse(line);
+    } catch {
+      return undefined;
+    }
   }
+  const v = (value as Record<string, unknown> | null | undefined)?.[name];
+  return typeof v === "string" ? v : undefined;
 }
 
-/** Answers one request text with one reply message. */
-function answer(text: string, forced: ArrayEncoding | undefined): Record<string, unknown> {
+/** Answers one request with one reply line. */
+function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
   let read;
   try {
     read = readSolveRequest(text);
   } catch (error) {
-    const id = requestId(text);
-    return {
+    const id = field(text, "id");
+    return messageBytes({
       protocol: PROTOCOL_VERSION,
       type: "error",
       ...(id !== undefined ? { id } : {}),
       reason: (error as Error).message,
-    };
+    });
   }
   const { message, problem } = read;
   if (problem.layout !== "vertex") {
-    return {
+    return messageBytes({
       protocol: PROTOCOL_VERSION,
       type: "not-applicable",
       id: message.id,
       reason: "the reference solver is vertex-centred; it does not solve on the cell layout",
-    };
+    });
   }
   try {
     const result = solve(toProblem(problem), {
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
     });
-    return buildSolutionReply(message.id, result.solution, {
+    return solutionReplyBytes(message.id, result.solution, {
       encoding: forced ?? message.encoding,
       residualHistory: result.residualHistory.filter(Number.isFinite),
       iterations: result.cycles,
@@ -97,81 +108,84 @@ function answer(text: string, forced: ArrayEncoding | undefined): Record<string,
       notes: `stop reason: ${result.reason}; average factor ${result.averageFactor}`,
     });
   } catch (error) {
-    return {
+    return messageBytes({
       protocol: PROTOCOL_VERSION,
       type: "error",
       id: message.id,
       reason: (error as Error).message,
-    };
+    });
   }
 }
 
-/** Reads stdin as lines; `rest()` returns everything not yet consumed. */
+/**
+ * Reads stdin as lines into one buffer, kept and grown as needed from line to line, and scans each
+ * line while it arrives (base64 arrays are decoded on the way, see LineScanner): a request of
+ * tens of megabytes is ready soon after its last byte, and the next one lands in memory already
+ * touched. Reads block: this program has nothing else to do while it waits for input.
+ */
 class LineReader {
-  #reader = Deno.stdin.readable.getReader();
-  #pending: Uint8Array = new Uint8Array(0);
+  #buffer = new Uint8Array(1 << 16);
+  /** Start of the bytes not yet consumed. */
+  #start = 0;
+  /** End of the bytes read. */
+  #end = 0;
   #done = false;
   #decoder = new TextDecoder();
+  #scanner = new LineScanner();
 
-  async #next(): Promise<Uint8Array | undefined> {
-    if (this.#done) return undefined;
-    const { value, done } = await this.#reader.read();
-    if (done) {
+  /** Reads more input after what is kept; false at the end of input. */
+  #fill(): boolean {
+    if (this.#done) return false;
+    if (this.#end === this.#buffer.length) {
+      const kept = this.#buffer.subarray(this.#start, this.#end);
+      const target = 2 * kept.length > this.#buffer.length
+        ? new Uint8Array(2 * this.#buffer.length)
+        : this.#buffer;
+      target.set(kept);
+      this.#buffer = target;
+      this.#start = 0;
+      this.#end = kept.length;
+    }
+    const n = Deno.stdin.readSync(this.#buffer.subarray(this.#end));
+    if (n === null) {
       this.#done = true;
-      return undefined;
+      return false;
     }
-    return value;
+    this.#end += n;
+    return true;
   }
 
-  #join(chunks: Uint8Array[]): string {
-    const size = chunks.reduce((s, c) => s + c.length, 0);
-    const out = new Uint8Array(size);
-    let at = 0;
-    for (const c of chunks) {
-      out.set(c, at);
-      at += c.length;
-    }
-    return this.#decoder.decode(out);
+  #take(length: number, skip: number): Line {
+    const bytes = this.#buffer.subarray(this.#start, this.#start + length);
+    this.#start += length + skip;
+    return this.#scanner.finish(bytes) ?? this.#decoder.decode(bytes);
   }
 
-  /** The next line without its newline (chunks joined once: linear in the line length). */
-  async line(): Promise<string | undefined> {
-    const chunks: Uint8Array[] = [];
-    let chunk: Uint8Array | undefined = this.#pending;
-    this.#pending = new Uint8Array(0);
+  /** The next line without its newline, or undefined at the end of input. */
+  line(): Line | undefined {
+    // all consumed: start again at the front, in memory already touched
+    if (this.#start === this.#end) this.#start = this.#end = 0;
     while (true) {
-      if (chunk && chunk.length > 0) {
-        const nl = chunk.indexOf(10);
-        if (nl >= 0) {
-          chunks.push(chunk.subarray(0, nl));
-          this.#pending = chunk.slice(nl + 1);
-          return this.#join(chunks);
-        }
-        chunks.push(chunk);
+      const nl = this.#scanner.scan(this.#buffer.subarray(this.#start, this.#end));
+      if (nl >= 0) return this.#take(nl, 1);
+      if (!this.#fill()) {
+        return this.#start === this.#end ? undefined : this.#take(this.#end - this.#start, 0);
       }
-      chunk = await this.#next();
-      if (!chunk) return chunks.length === 0 ? undefined : this.#join(chunks);
     }
   }
 
-  async rest(): Promise<string> {
-    const chunks = [this.#pending];
-    this.#pending = new Uint8Array(0);
-    for (let c = await this.#next(); c; c = await this.#next()) chunks.push(c);
-    return this.#join(chunks);
+  /** Everything not yet consumed, as text. */
+  rest(): string {
+    while (this.#fill());
+    const text = this.#decoder.decode(this.#buffer.subarray(this.#start, this.#end));
+    this.#start = this.#end;
+    return text;
   }
 }
 
-function messageType(text: string): string | undefined {
-  try {
-    const t = (JSON.parse(text) as { type?: unknown }).type;
-    return typeof t === "string" ? t : undefined;
-  } catch {
-    return undefined;
-  }
-}
+const isBlank = (line: Line) => typeof line === "string" && line.trim() === "";
 
-async function main(args: string[]): Promise<number> {
+function main(args: string[]): Promise<number> | number {
   let forced: ArrayEncoding | undefined;
   const at = args.indexOf("--encoding");
   if (at >= 0) {
@@ -182,19 +196,34 @@ async function main(args: string[]): Promise<number> {
     }
     forced = value;
   }
-  const input = new LineReader();
-  let first = await input.line();
-  while (first !== undefined && first.trim() === "") first = await input.line();
+  return serve(new LineReader(), forced);
+}
+
+async function serve(input: LineReader, forced: ArrayEncoding | undefined): Promise<number> {
+  let first = input.line();
+  while (first !== undefined && isBlank(first)) first = input.line();
   if (first === undefined) {
     console.error("no request on stdin");
     return 2;
   }
-  if (messageType(first) !== "hello") {
+  if (field(first, "type") !== "hello") {
     // once mode: the request may span several lines
-    await send(answer(first + "\n" + (await input.rest()), forced));
+    const rest = input.rest();
+    if (typeof first !== "string" && rest.trim() !== "") {
+      const id = field(first, "id");
+      await send(messageBytes({
+        protocol: PROTOCOL_VERSION,
+        type: "error",
+        ...(id !== undefined ? { id } : {}),
+        reason: `a request without hello must be the only message on stdin; more text follows ` +
+          `it: ${JSON.stringify(rest.trim().slice(0, 60))}`,
+      }));
+      return 0;
+    }
+    await send(answer(typeof first === "string" ? first + "\n" + rest : first, forced));
     return 0;
   }
-  await send({
+  await send(messageBytes({
     protocol: PROTOCOL_VERSION,
     type: "ready",
     solver: { name: "gridproof-reference", version: "1" },
@@ -204,12 +233,12 @@ async function main(args: string[]): Promise<number> {
       layouts: ["vertex"],
       encodings: ["numbers", "base64"],
     },
-  });
+  }));
   while (true) {
-    const line = await input.line();
+    const line = input.line();
     if (line === undefined) return 0;
-    if (line.trim() === "") continue;
-    if (messageType(line) === "goodbye") return 0;
+    if (isBlank(line)) continue;
+    if (field(line, "type") === "goodbye") return 0;
     await send(answer(line, forced));
   }
 }

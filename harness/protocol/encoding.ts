@@ -27,6 +27,14 @@ function isConstant(values: Float64Array): boolean {
   return true;
 }
 
+/** The `{ constant, length }` form of an array whose entries are all equal and finite, else undefined. */
+export function constantForm(
+  values: Float64Array,
+): { constant: number; length: number } | undefined {
+  if (values.length === 0 || !isConstant(values)) return undefined;
+  return { constant: values[0], length: values.length };
+}
+
 /**
  * Writes an array in the given encoding; with `constants`, an array whose entries are all equal
  * (and finite) is written as `{ constant, length }` instead (an opt-in form, see docs/protocol.md).
@@ -47,9 +55,8 @@ export function encodeArray(
   encoding: ArrayEncoding,
   options: { constants?: boolean } = {},
 ): WireArray {
-  if (options.constants && values.length > 0 && isConstant(values)) {
-    return { constant: values[0], length: values.length };
-  }
+  const constant = options.constants ? constantForm(values) : undefined;
+  if (constant) return constant;
   if (encoding === "numbers") return Array.from(values);
   let bytes = new Uint8Array(values.buffer, values.byteOffset, values.byteLength);
   if (!LITTLE_ENDIAN) {
@@ -66,6 +73,8 @@ export function encodeArray(
  *
  * @param wire a number array or { base64 }
  * @param path JSON path of the array in its message, used in error messages
+ * @param decoded arrays already decoded by `parseMessage`, by the text that stands for them
+ *   (default: none)
  * @returns the values (entries may be non-finite when they came from base64)
  * @throws RangeError naming the path when the array cannot be decoded
  *
@@ -75,7 +84,11 @@ export function encodeArray(
  * decodeArray({ base64: "AAAAAAAA8D8=" }, "/values"); // Float64Array [1]
  * ```
  */
-export function decodeArray(wire: unknown, path: string): Float64Array {
+export function decodeArray(
+  wire: unknown,
+  path: string,
+  decoded?: ReadonlyMap<string, Float64Array>,
+): Float64Array {
   if (Array.isArray(wire)) {
     const out = new Float64Array(wire.length);
     for (let k = 0; k < wire.length; k++) {
@@ -101,6 +114,8 @@ export function decodeArray(wire: unknown, path: string): Float64Array {
     typeof (wire as { base64: unknown }).base64 === "string"
   ) {
     const text = (wire as { base64: string }).base64;
+    const done = decoded?.get(text);
+    if (done) return done;
     let bytes: Uint8Array;
     try {
       bytes = Uint8Array.fromBase64(text);

@@ -2,7 +2,9 @@
  * The gridproof solver protocol, `gridproof-protocol/1` (documented in docs/protocol.md): message
  * types, JSON Schemas for every message, the two array encodings (JSON numbers, base64 of
  * little-endian float64), building requests and reading replies with every violation reported
- * with its JSON path. A leaf module: it imports no other part of gridproof and no Deno API.
+ * with its JSON path. Large messages are written as bytes in pieces ({@link solveRequestBytes},
+ * {@link solutionReplyBytes}) and read with base64 decoded straight from the text
+ * ({@link parseMessage}). A leaf module: it imports no other part of gridproof and no Deno API.
  *
  * @example
  * ```ts
@@ -20,6 +22,9 @@
  */
 export * from "./types.ts";
 export { decodeArray, describeValue, encodeArray } from "./encoding.ts";
+export { type MessageBytes, messageBytes } from "./message_bytes.ts";
+export { LineScanner } from "./line_scanner.ts";
+export { type ParsedMessage, parseMessage } from "./parse_message.ts";
 export { MESSAGE_SCHEMAS, type MessageName, validateMessage } from "./schemas.ts";
 export {
   firstBytes,
@@ -39,4 +44,6 @@ export {
   type RequestDetails,
   serializeMessage,
   type SolutionExtras,
+  solutionReplyBytes,
+  solveRequestBytes,
 } from "./request.ts";

@@ -6,6 +6,7 @@
  * @module
  */
 import { decodeArray, describeValue } from "./encoding.ts";
+import { parseMessage } from "./parse_message.ts";
 import { validateMessage } from "./schemas.ts";
 import {
   type DecodedReply,
@@ -77,11 +78,16 @@ function markNonFiniteTokens(text: string): string | undefined {
   return found ? out + text.slice(last) : undefined;
 }
 
-type Parsed = { ok: true; value: unknown; logLines: string[] } | { ok: false; reason: string };
+type Decoded = ReadonlyMap<string, Float64Array>;
+type Parsed =
+  | { ok: true; value: unknown; logLines: string[]; decoded?: Decoded }
+  | { ok: false; reason: string };
 
-function tryParse(text: string): { ok: true; value: unknown } | { ok: false; error: string } {
+function tryParse(
+  text: string,
+): { ok: true; value: unknown; decoded?: Decoded } | { ok: false; error: string } {
   try {
-    return { ok: true, value: JSON.parse(text) };
+    return { ok: true, ...parseMessage(text) };
   } catch (error) {
     const marked = markNonFiniteTokens(text);
     if (marked !== undefined) {
@@ -105,7 +111,7 @@ function isMessage(v: unknown): boolean {
 function parseStdout(text: string, what: string): Parsed {
   if (text.trim() === "") return { ok: false, reason: `the solver wrote no ${what} on stdout` };
   const whole = tryParse(text);
-  if (whole.ok) return { ok: true, value: whole.value, logLines: [] };
+  if (whole.ok) return { ok: true, value: whole.value, logLines: [], decoded: whole.decoded };
   const lines = text.split("\n");
   // A one-line message among other lines.
   for (let k = lines.length - 1; k >= 0; k--) {
@@ -243,7 +249,7 @@ export function readReply(text: string, expect: ReplyExpectation): ReplyCheck {
     return { ok: true, reply: { type, id, reason: message.reason as string } };
   }
   if (message.id !== expect.id) return fail(idProblem(message.id as string, expect.id));
-  return decodeSolution(message, expect);
+  return decodeSolution(message, expect, parsed.decoded);
 }
 
 function idProblem(got: string, wanted: string): string {
@@ -256,19 +262,30 @@ function fail(reason: string): { ok: false; reason: string; problems: string[] }
   return { ok: false, reason, problems: [reason] };
 }
 
-function decodeSolution(message: Record<string, unknown>, expect: ReplyExpectation): ReplyCheck {
+function decodeSolution(
+  message: Record<string, unknown>,
+  expect: ReplyExpectation,
+  decoded: Decoded | undefined,
+): ReplyCheck {
   let values: Float64Array;
   let points: DecodedSolution["points"];
   let residualHistory: number[] | undefined;
   try {
-    values = decodeArray(message.values, "/values");
+    values = decodeArray(message.values, "/values", decoded);
     if (message.points !== undefined) {
       const p = message.points as Record<string, unknown>;
-      points = { x: decodeArray(p.x, "/points/x"), y: decodeArray(p.y, "/points/y") };
-      if (p.weights !== undefined) points.weights = decodeArray(p.weights, "/points/weights");
+      points = {
+        x: decodeArray(p.x, "/points/x", decoded),
+        y: decodeArray(p.y, "/points/y", decoded),
+      };
+      if (p.weights !== undefined) {
+        points.weights = decodeArray(p.weights, "/points/weights", decoded);
+      }
     }
     if (message.residualHistory !== undefined) {
-      residualHistory = Array.from(decodeArray(message.residualHistory, "/residualHistory"));
+      residualHistory = Array.from(
+        decodeArray(message.residualHistory, "/residualHistory", decoded),
+      );
     }
   } catch (error) {
     return fail(`the reply could not be decoded: ${(error as Error).message}`);

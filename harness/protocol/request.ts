@@ -5,7 +5,9 @@
  *
  * @module
  */
-import { decodeArray, encodeArray } from "./encoding.ts";
+import { constantForm, decodeArray, encodeArray } from "./encoding.ts";
+import { type MessageBytes, messageBytes } from "./message_bytes.ts";
+import { type ParsedMessage, parseMessage } from "./parse_message.ts";
 import { firstBytes, layoutPointCount } from "./reply.ts";
 import { validateMessage } from "./schemas.ts";
 import {
@@ -73,8 +75,60 @@ export function buildSolveRequest(
   details: RequestDetails,
 ): SolveRequestMessage {
   const constants = details.constants ?? false;
-  const enc = (v: Float64Array) => encodeArray(v, details.encoding, { constants });
-  const boundary = {} as SolveRequestMessage["boundary"];
+  return assembleRequest(problem, details, (v) => encodeArray(v, details.encoding, { constants }));
+}
+
+/**
+ * Builds a solve request and serializes it as one line of UTF-8 bytes: the same bytes as
+ * `serializeMessage(buildSolveRequest(problem, details))` encoded, written without building the
+ * text (see {@link messageBytes}).
+ *
+ * @param problem arrays at the layout's points; read when the bytes are, so keep them unchanged
+ * @param details id, case, expressions, hints and the array encoding
+ * @returns the size and the bytes of the line
+ *
+ * @example
+ * ```ts
+ * import { solveRequestBytes } from "./request.ts";
+ * const z = new Float64Array(9);
+ * const side = { kind: "dirichlet" as const, values: new Float64Array(3) };
+ * const line = solveRequestBytes(
+ *   {
+ *     domain: { x0: 0, x1: 1, y0: 0, y1: 1 }, nx: 2, ny: 2, layout: "vertex",
+ *     coefficients: { a: z, b: z, c: z, d: z, e: z }, source: z,
+ *     boundary: { west: side, east: side, south: side, north: side },
+ *   },
+ *   {
+ *     id: "r1", caseId: "demo", scheme: "central", tolerance: 1e-10, timeLimitSeconds: 10,
+ *     encoding: "base64",
+ *     expressions: { a: "1", b: "0", c: "1", d: "0", e: "0", source: "0",
+ *       boundary: { west: "0", east: "0", south: "0", north: "0" } },
+ *   },
+ * );
+ * line.byteLength > 0; // true
+ * ```
+ */
+export function solveRequestBytes(problem: SampledProblem, details: RequestDetails): MessageBytes {
+  const constants = details.constants ?? false;
+  // a Float64Array left in the message is written as base64 by messageBytes
+  const lazy = (v: Float64Array): WireArray | Float64Array => {
+    const constant = constants ? constantForm(v) : undefined;
+    if (constant) return constant;
+    return details.encoding === "base64" ? v : Array.from(v);
+  };
+  return messageBytes(assembleRequest(problem, details, lazy));
+}
+
+/** The request message with each array written by `enc`. */
+function assembleRequest<A>(
+  problem: SampledProblem,
+  details: RequestDetails,
+  enc: (v: Float64Array) => A,
+) {
+  const boundary = {} as Record<
+    SideName,
+    { kind: SampledSide["kind"]; alpha?: number; beta?: number; values: A }
+  >;
   for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];
     boundary[side] = b.kind === "robin"
@@ -85,8 +139,8 @@ export function buildSolveRequest(
   const caseInfo: SolveRequestMessage["case"] = { id: details.caseId };
   if (details.caseTitle !== undefined) caseInfo.title = details.caseTitle;
   return {
-    protocol: PROTOCOL_VERSION,
-    type: "solve",
+    protocol: PROTOCOL_VERSION as typeof PROTOCOL_VERSION,
+    type: "solve" as const,
     id: details.id,
     case: caseInfo,
     domain: { ...problem.domain },
@@ -94,7 +148,7 @@ export function buildSolveRequest(
       nx: problem.nx,
       ny: problem.ny,
       layout: problem.layout,
-      order: "x-fastest",
+      order: "x-fastest" as const,
       points: layoutPointCount(problem.layout, problem.nx, problem.ny),
     },
     encoding: details.encoding,
@@ -123,7 +177,8 @@ export interface ReadRequest {
  * Reads and checks a solve request (for solvers written in TypeScript and for tests): parses the
  * JSON, validates it against the schema, decodes every array and checks its length.
  *
- * @param text the request text
+ * @param text the request text, or the request already parsed (by `parseMessage` or a
+ *   `LineScanner`)
  * @returns the decoded request
  * @throws RangeError listing every problem (an adapter answers it with an `error` reply)
  *
@@ -133,14 +188,15 @@ export interface ReadRequest {
  * const { problem } = readSolveRequest(await new Response(Deno.stdin.readable).text());
  * ```
  */
-export function readSolveRequest(text: string): ReadRequest {
+export function readSolveRequest(text: string | ParsedMessage): ReadRequest {
   let value: unknown;
+  let decoded: ReadonlyMap<string, Float64Array>;
   try {
-    value = JSON.parse(text);
+    ({ value, decoded } = typeof text === "string" ? parseMessage(text) : text);
   } catch (error) {
     throw new RangeError(
       `the request is not valid JSON (${(error as Error).message}); it began with ${
-        firstBytes(text)
+        firstBytes(text as string)
       }`,
     );
   }
@@ -158,7 +214,7 @@ export function readSolveRequest(text: string): ReadRequest {
   const { nx, ny, layout } = message.grid;
   const count = layoutPointCount(layout, nx, ny);
   const read = (wire: WireArray, path: string, length: number) => {
-    const v = decodeArray(wire, path);
+    const v = decodeArray(wire, path, decoded);
     if (v.length !== length) {
       throw new RangeError(`${path}: has ${v.length} values, expected ${length}`);
     }
@@ -227,19 +283,53 @@ export function buildSolutionReply(
   options: SolutionExtras & { encoding?: ArrayEncoding } = {},
 ): Record<string, unknown> {
   const encoding = options.encoding ?? "numbers";
+  return assembleReply(id, values, options, (v) => encodeArray(v, encoding));
+}
+
+/**
+ * Builds a `solution` reply and serializes it as one line of UTF-8 bytes: the same bytes as
+ * `serializeMessage(buildSolutionReply(id, values, options))` encoded, written without building
+ * the text (see {@link messageBytes}).
+ *
+ * @param id the request id
+ * @param values the solution; read when the bytes are, so keep it unchanged until then
+ * @param options extras and the encoding of the arrays (default "numbers")
+ * @returns the size and the bytes of the line
+ *
+ * @example
+ * ```ts
+ * import { solutionReplyBytes } from "./request.ts";
+ * const line = solutionReplyBytes("r1", new Float64Array([1]), { encoding: "base64" });
+ * new TextDecoder().decode(line.bytes()).endsWith('"values":{"base64":"AAAAAAAA8D8="}}\n'); // true
+ * ```
+ */
+export function solutionReplyBytes(
+  id: string,
+  values: Float64Array,
+  options: SolutionExtras & { encoding?: ArrayEncoding } = {},
+): MessageBytes {
+  const base64 = options.encoding === "base64";
+  // a Float64Array left in the message is written as base64 by messageBytes
+  return messageBytes(assembleReply(id, values, options, (v) => base64 ? v : Array.from(v)));
+}
+
+/** The reply message with each array written by `enc`. */
+function assembleReply(
+  id: string,
+  values: Float64Array,
+  options: SolutionExtras,
+  enc: (v: Float64Array) => unknown,
+): Record<string, unknown> {
   const reply: Record<string, unknown> = {
     protocol: PROTOCOL_VERSION,
     type: "solution",
     id,
-    values: encodeArray(values, encoding),
+    values: enc(values),
   };
   if (options.points) {
     const p = options.points;
-    const points: Record<string, unknown> = {
-      x: encodeArray(p.x, encoding),
-      y: encodeArray(p.y, encoding),
-    };
-    if (p.weights) points.weights = encodeArray(p.weights, encoding);
+    const points: Record<string, unknown> = { x: enc(p.x), y: enc(p.y) };
+    if (p.weights) points.weights = enc(p.weights);
     reply.points = points;
   }
   for (

@@ -7,14 +7,15 @@
  */
 import { resolve } from "node:path";
 import {
-  buildSolveRequest,
   type Capabilities,
+  type MessageBytes,
   PROTOCOL_VERSION,
   readReady,
   readReply,
   type ReadyMessage,
   type ReplyExpectation,
   serializeMessage,
+  solveRequestBytes,
 } from "../protocol/mod.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
 import { describeExit, GroupProcess, within } from "./process.ts";
@@ -30,7 +31,8 @@ const GOODBYE_GRACE_MS = 2000;
 
 interface Prepared {
   task: SolveTask;
-  bytes: Uint8Array;
+  /** The request line; its arrays are encoded while it is written. */
+  request: MessageBytes;
   expect: ReplyExpectation;
   limitSeconds: number;
 }
@@ -190,7 +192,7 @@ class Runner {
     return undefined;
   }
 
-  /** Builds the request bytes, or an outcome when the task does not apply or cannot be sampled. */
+  /** Builds the request, or an outcome when the task does not apply or cannot be sampled. */
   prepare(task: SolveTask, id: string, caps: Capabilities | undefined): Prepared | SolveOutcome {
     const spec = this.spec;
     const grid = { layout: spec.layout, nx: task.nx, ny: task.ny };
@@ -198,11 +200,11 @@ class Runner {
     if (refusal) return refusal;
     const layout = requestLayout(spec);
     const limitSeconds = task.timeLimitSeconds ?? spec.timeLimitSeconds;
-    let bytes: Uint8Array;
+    let request: MessageBytes;
     try {
       const sampled = sampleCase(task.case, task.nx, task.ny, layout);
       const f = task.case.formulas;
-      const message = buildSolveRequest(sampled, {
+      request = solveRequestBytes(sampled, {
         id,
         caseId: task.case.id,
         caseTitle: task.case.title,
@@ -221,7 +223,6 @@ class Runner {
         encoding: spec.encoding,
         constants: spec.constantArrays ?? false,
       });
-      bytes = new TextEncoder().encode(serializeMessage(message));
     } catch (error) {
       return emptyOutcome(
         "failed",
@@ -231,7 +232,7 @@ class Runner {
     }
     return {
       task,
-      bytes,
+      request,
       limitSeconds,
       expect: { id, layout, nx: task.nx, ny: task.ny, domain: task.case.domain },
     };
@@ -269,7 +270,7 @@ class Runner {
     if (typeof proc === "string") return emptyOutcome("failed", proc, grid, { seconds: elapsed() });
     const deadline = started + p.limitSeconds * 1000;
     const left = () => deadline - performance.now();
-    const writing = proc.write(p.bytes).then(async (r) => {
+    const writing = proc.write(p.request.pieces()).then(async (r) => {
       await proc.closeStdin();
       return r;
     });
@@ -309,10 +310,10 @@ class Runner {
     const tail = proc.stderr.text();
     const extra = { seconds, stderrTail: tail };
     const bytes = read.kind === "data" ? read.bytes : new Uint8Array(0);
-    const shortWrite = write.written >= 0 && write.written < p.bytes.length;
+    const shortWrite = write.written >= 0 && write.written < p.request.byteLength;
     if (!status.success) {
       const input = shortWrite
-        ? ` after reading ${write.written} of ${p.bytes.length} bytes of the request`
+        ? ` after reading ${write.written} of ${p.request.byteLength} bytes of the request`
         : "";
       return emptyOutcome(
         "failed",
@@ -325,7 +326,7 @@ class Runner {
       return emptyOutcome(
         "failed",
         `the solver closed its standard input after taking ${write.written} of ` +
-          `${p.bytes.length} bytes of the request (${write.error ?? "pipe closed"})` +
+          `${p.request.byteLength} bytes of the request (${write.error ?? "pipe closed"})` +
           (bytes.length === 0 ? " and wrote no reply" : "") +
           `; it must read the whole request`,
         grid,
@@ -437,7 +438,7 @@ class Session {
       });
     };
     const deadline = started + p.limitSeconds * 1000;
-    const wrote = await within(proc.write(p.bytes), deadline - performance.now());
+    const wrote = await within(proc.write(p.request.pieces()), deadline - performance.now());
     if (wrote === undefined) {
       return await fail(
         `the session did not read the request within the time limit of ${p.limitSeconds} s; process group killed`,
@@ -447,7 +448,7 @@ class Session {
       const status = await within(proc.status, 1000);
       return await fail(
         `the session process ${status ? describeExit(status) : "closed its standard input"} ` +
-          `before the request was sent (${wrote.written} of ${p.bytes.length} bytes); it will be restarted`,
+          `before the request was sent (${wrote.written} of ${p.request.byteLength} bytes); it will be restarted`,
       );
     }
     let line;

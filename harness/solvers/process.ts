@@ -130,18 +130,25 @@ export class GroupProcess {
   }
 
   /**
-   * Writes bytes to stdin in pieces, counting what got through.
+   * Writes bytes to stdin in pieces of at most 1 MiB, counting what got through. Each piece is
+   * written before the next is taken, so an iterable may reuse one buffer for its pieces.
    *
+   * @param data the bytes, or the bytes in pieces
    * @returns bytes written and, when the pipe broke, the error text
    */
-  async write(bytes: Uint8Array): Promise<{ written: number; error?: string }> {
-    const piece = 1 << 16;
+  async write(
+    data: Uint8Array | Iterable<Uint8Array>,
+  ): Promise<{ written: number; error?: string }> {
+    const most = 1 << 20;
+    const pieces = data instanceof Uint8Array ? [data] : data;
     let written = 0;
     try {
-      while (written < bytes.length) {
-        const end = Math.min(bytes.length, written + piece);
-        await this.#writer.write(bytes.subarray(written, end));
-        written = end;
+      for (const piece of pieces) {
+        for (let at = 0; at < piece.length; at += most) {
+          const part = piece.subarray(at, Math.min(piece.length, at + most));
+          await this.#writer.write(part);
+          written += part.length;
+        }
       }
       return { written };
     } catch (error) {

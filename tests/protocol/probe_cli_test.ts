@@ -2,7 +2,6 @@
 import assert from "node:assert/strict";
 import { runGridproof } from "../../testing/mod.ts";
 
-
 const gridproof = (args: string[]) => runGridproof(args);
 
 Deno.test("gridproof probe exits 0 for the reference protocol program and reports overheads", async () => {
