@@ -317,7 +317,7 @@ class Runner {
         : "";
       return emptyOutcome(
         "failed",
-        `the solver ${describeExit(status)}${input}${stderrGist(tail)}`,
+        `the solver ${describeExit(status, this.spec.memoryLimitMiB)}${input}${stderrGist(tail)}`,
         grid,
         extra,
       );
@@ -399,7 +399,9 @@ class Session {
     if (line.kind === "eof") {
       const status = await within(proc.status, 2000);
       return await abandon(
-        `the process ${status ? describeExit(status) : "closed stdout"} before answering hello`,
+        `the process ${
+          status ? describeExit(status, this.runner.spec.memoryLimitMiB) : "closed stdout"
+        } before answering hello`,
       );
     }
     if (line.kind !== "line") return await abandon("unexpected output");
@@ -447,7 +449,11 @@ class Session {
     if (wrote.error) {
       const status = await within(proc.status, 1000);
       return await fail(
-        `the session process ${status ? describeExit(status) : "closed its standard input"} ` +
+        `the session process ${
+          status
+            ? describeExit(status, this.runner.spec.memoryLimitMiB)
+            : "closed its standard input"
+        } ` +
           `before the request was sent (${wrote.written} of ${p.request.byteLength} bytes); it will be restarted`,
       );
     }
@@ -470,7 +476,9 @@ class Session {
     if (line.kind === "eof") {
       const status = await within(proc.status, 2000);
       return await fail(
-        `the session process ${status ? describeExit(status) : "closed stdout"} during the ` +
+        `the session process ${
+          status ? describeExit(status, this.runner.spec.memoryLimitMiB) : "closed stdout"
+        } during the ` +
           `solve; it will be restarted for the next solve`,
       );
     }

@@ -263,8 +263,17 @@ export async function within<T>(promise: Promise<T>, ms: number): Promise<T | un
   }
 }
 
-/** Describes how a process ended: "exited with code N" or "was killed by signal SIGX". */
-export function describeExit(status: Deno.CommandStatus): string {
-  if (status.signal) return `was killed by signal ${status.signal}`;
-  return `exited with code ${status.code}`;
+/**
+ * Describes how a process ended: "exited with code N" or "was killed by signal SIGX". With an
+ * address-space limit in force, adds that the limit may be the cause and how to raise it (an
+ * allocation beyond it fails: Python's MemoryError, a failed malloc, V8's "out of memory").
+ */
+export function describeExit(status: Deno.CommandStatus, memoryLimitMiB?: number): string {
+  const how = status.signal
+    ? `was killed by signal ${status.signal}`
+    : `exited with code ${status.code}`;
+  if (memoryLimitMiB === undefined) return how;
+  return `${how}; it ran under an address-space limit of ${memoryLimitMiB} MiB ` +
+    `(memoryLimitMiB in the solver file), and an allocation beyond it fails — raise ` +
+    `memoryLimitMiB if the solver needs more`;
 }

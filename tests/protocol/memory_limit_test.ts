@@ -75,6 +75,7 @@ Deno.test("a once solver that allocates 2 GiB under a 256 MiB limit fails with t
   const reason = hog.reason ?? "";
   // CPython raises MemoryError when malloc fails under RLIMIT_AS and, uncaught, exits with 1
   assert.match(reason, /the solver exited with code 1/);
+  assert.match(reason, /address-space limit of 256 MiB \(memoryLimitMiB/);
   assert.match(reason, /MemoryError/);
   assert.doesNotMatch(reason, /time limit/, "it failed at once, not by hanging");
   assert.equal(hog.values.length, 0);
@@ -100,7 +101,7 @@ Deno.test("a session solver that runs out of its memory limit fails that solve a
     assert.equal(second.status, "failed");
     assert.match(
       second.reason ?? "",
-      /session process exited with code 1 during the solve; it will be restarted.*MemoryError/s,
+      /session process exited with code 1; it ran under an address-space limit of 256 MiB.*during the solve; it will be restarted.*MemoryError/s,
     );
     // a fresh process (its request count starts again at one), under the same limit
     const third = await solver.solve(task);
