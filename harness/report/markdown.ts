@@ -19,14 +19,40 @@ import {
 } from "./_shared.ts";
 import { escapeMarkdown as md } from "./escape.ts";
 
-function item(v: Verdict): string {
-  return `- **${STATUS_WORD[v.status]}** ${md(v.caseId)} · ${md(v.solver)} · ` +
-    `${md(v.criterion)}: ${md(v.reason)}`;
+/**
+ * Failures of one case × solver as one bullet: each failing criterion once, with the reason of
+ * its first verdict (the order criterion has one verdict per norm; they say the same thing).
+ */
+function failureItems(failures: Verdict[]): string[] {
+  const groups = new Map<string, Verdict[]>();
+  for (const v of failures) {
+    const key = `${v.caseId}\u0000${v.solver}`;
+    groups.set(key, [...(groups.get(key) ?? []), v]);
+  }
+  return [...groups.values()].map((vs) => {
+    const first = new Map<string, Verdict>();
+    for (const v of vs) if (!first.has(v.criterion)) first.set(v.criterion, v);
+    const reasons = [...first.values()].map((v) => `${md(v.criterion)}: ${md(v.reason)}`);
+    return `- **FAIL** ${md(vs[0].caseId)} · ${md(vs[0].solver)} — ${reasons.join("; ")}`;
+  });
+}
+
+/** Warnings grouped by criterion: how many, which pairs (the first few), and one reason. */
+function warningItems(warnings: Verdict[], shown = 4): string[] {
+  const groups = new Map<string, Verdict[]>();
+  for (const v of warnings) groups.set(v.criterion, [...(groups.get(v.criterion) ?? []), v]);
+  return [...groups.entries()].map(([criterion, vs]) => {
+    const pairs = vs.slice(0, shown).map((v) => `${md(v.caseId)} · ${md(v.solver)}`);
+    const more = vs.length > shown ? ` and ${vs.length - shown} more` : "";
+    return `- **WARN** ${md(criterion)} (${vs.length}): ${pairs.join(", ")}${more} — e.g. ` +
+      `${md(vs[0].reason)}`;
+  });
 }
 
 /**
- * Renders a short Markdown summary: a headline with the counts, the failures and warnings with
- * their reasons, one table row per case × solver (failing rows first), and the caution.
+ * Renders a short Markdown summary: a headline with the counts, the failures (one bullet per
+ * case × solver, each failing criterion with its reason), the warnings grouped by criterion, one
+ * table row per case × solver (failing rows first), and the caution.
  *
  * @param result The campaign result.
  * @returns Markdown text (GitHub/GitLab flavoured tables).
@@ -52,10 +78,11 @@ export function renderMarkdown(result: CampaignResult): string {
       `${result.summary.exitCode}`,
   );
   if (failures.length > 0) {
-    out.push("", "**Failures**", "", ...failures.map(item));
+    out.push("", "**Failures**", "", ...failureItems(failures));
   }
   if (warnings.length > 0) {
-    out.push("", "**Warnings**", "", ...warnings.map(item));
+    out.push("", "**Warnings** (grouped by criterion; every one is in the full report)", "");
+    out.push(...warningItems(warnings));
   }
   const rows: { status: Verdict["status"]; line: string }[] = [];
   for (const id of caseIds(result)) {
@@ -70,9 +97,11 @@ export function renderMarkdown(result: CampaignResult): string {
       const finest = result.solves
         .filter((s) => s.caseId === id && s.solver === solver)
         .sort((a, b) => b.unknowns - a.unknowns)[0];
-      const failed = bySeverity(verdicts).filter((v) => v.status === "fail").map((v) =>
-        md(v.criterion)
-      );
+      const failed = [
+        ...new Set(
+          bySeverity(verdicts).filter((v) => v.status === "fail").map((v) => md(v.criterion)),
+        ),
+      ];
       rows.push({
         status,
         line: `| ${md(id)} | ${md(solver)} | ${order(max?.fitted.order)} | ` +
