@@ -19,6 +19,8 @@ async function main(args: string[]): Promise<number> {
     )
     .exitOverride()
     .showSuggestionAfterError(true)
+    // an unknown option or command prints the valid ones
+    .showHelpAfterError()
     .configureOutput({
       writeOut: (s) => Deno.stdout.writeSync(new TextEncoder().encode(s)),
       writeErr: (s) => Deno.stderr.writeSync(new TextEncoder().encode(s)),
