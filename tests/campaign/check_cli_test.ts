@@ -47,6 +47,7 @@ Deno.test("gridproof check refuses bad flags with exit code 2 and says what to f
     [["--grids", "16,x"], /--grids: "x" is not a whole number/],
     [["--ratio", "1.05", "--levels", "3"], /below 1\.1/],
     [["--jobs", "0"], /--jobs: "0" is not a positive number/],
+    [["--jobz", "2"], /unknown option '--jobz'[\s\S]*Did you mean --jobs\?[\s\S]*--jobs <n>/],
     [["--solver", "nobody"], /unknown solver "nobody": valid names are reference/],
     [
       ["--format", "pdf", "--cases", "quadratic-exact", "--grids", "8,16"],
