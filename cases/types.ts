@@ -32,6 +32,8 @@ export interface ExpectedOrder {
    * (a first-order scheme often needs finer grids to leave the pre-asymptotic range).
    */
   grids?: number[];
+  /** Allowed |observed − expected| order for this case; default: the campaign's (0.1). */
+  tolerance?: number;
 }
 
 /** One side's boundary condition of a compiled case, with its derived data as a point function. */

@@ -27,7 +27,7 @@ export interface CampaignOptions {
   jobs?: number;
   /** Relative residual tolerance asked of every solver. Default: 1e-10. */
   tolerance?: number;
-  /** Tolerance on observed orders. Default: 0.1 (per-case values take precedence when set). */
+  /** Tolerance on observed orders. Default: 0.1; a case's own `expected.<scheme>.tolerance` takes precedence. */
   orderTolerance?: number;
   /** Fail (not only warn) when iterations grow with the grid. Default: false. */
   requireGridIndependence?: boolean;

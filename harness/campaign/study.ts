@@ -56,7 +56,7 @@ export function buildStudies(
         caseId: kase.id,
         solver: solver.info.name,
         expected,
-        tolerance: options.orderTolerance,
+        tolerance: expected.tolerance ?? options.orderTolerance,
         gridIndependence: options.requireGridIndependence ? "fail" : "warn",
         solutionScale: scale,
         exactTolerance: { rel: exactnessBound(options.tolerance), abs: 1e-12 },
