@@ -22,9 +22,36 @@ export interface CycleParams {
 
 /**
  * Coarse-grid correction on level l for levels[l].u, levels[l].f: relax ν1 times, restrict the
- * residual, solve the error equation on level l + 1 by γ recursive cycles (exactly on the
- * coarsest), interpolate and correct, relax ν2 times. On a singular level the restricted residual
- * has its mean removed first (compatibility with the constant null space).
+ * residual, solve the error equation on level l + 1 with `solveCoarse` (exactly on the coarsest),
+ * interpolate and correct, relax ν2 times. On a singular level the restricted residual has its
+ * mean removed first (compatibility with the constant null space). Every cycle is this one
+ * function with a different coarse solve.
+ */
+function correct(
+  h: Hierarchy,
+  l: number,
+  params: CycleParams,
+  solveCoarse: (coarse: number) => void,
+): void {
+  const L = h.levels[l];
+  if (L.direct !== undefined) {
+    L.direct.solve(L.u, L.f);
+    return;
+  }
+  const Lc = h.levels[l + 1];
+  L.smoother!.smooth(L.u, L.f, params.pre);
+  residual(L.op, L.u, L.f, L.r);
+  if (L.op.singular) removeMean(L.op, L.r);
+  L.transfer!.restrict(L.r, Lc.f);
+  Lc.u.fill(0);
+  solveCoarse(l + 1);
+  L.transfer!.interpolateAdd(Lc.u, L.u);
+  L.smoother!.smooth(L.u, L.f, params.post);
+}
+
+/**
+ * V-cycle (γ = 1) or W-cycle (γ = 2) on level l: the coarse error equation is solved by γ
+ * recursive cycles (one exact solve when the coarse level is the coarsest).
  *
  * @param h The hierarchy.
  * @param l The level (0 = finest).
@@ -32,40 +59,18 @@ export interface CycleParams {
  * @param params Sweep counts.
  */
 export function cycle(h: Hierarchy, l: number, gamma: number, params: CycleParams): void {
-  const L = h.levels[l];
-  if (L.direct !== undefined) {
-    L.direct.solve(L.u, L.f);
-    return;
-  }
-  const Lc = h.levels[l + 1];
-  L.smoother!.smooth(L.u, L.f, params.pre);
-  residual(L.op, L.u, L.f, L.r);
-  if (L.op.singular) removeMean(L.op, L.r);
-  L.transfer!.restrict(L.r, Lc.f);
-  Lc.u.fill(0);
-  const times = Lc.direct !== undefined ? 1 : gamma;
-  for (let g = 0; g < times; g++) cycle(h, l + 1, gamma, params);
-  L.transfer!.interpolateAdd(Lc.u, L.u);
-  L.smoother!.smooth(L.u, L.f, params.post);
+  correct(h, l, params, (lc) => {
+    const times = h.levels[lc].direct !== undefined ? 1 : gamma;
+    for (let g = 0; g < times; g++) cycle(h, lc, gamma, params);
+  });
 }
 
 /** F-cycle on level l: like {@link cycle}, but the coarse error is found by an F-cycle followed by a V-cycle. */
 export function fCycle(h: Hierarchy, l: number, params: CycleParams): void {
-  const L = h.levels[l];
-  if (L.direct !== undefined) {
-    L.direct.solve(L.u, L.f);
-    return;
-  }
-  const Lc = h.levels[l + 1];
-  L.smoother!.smooth(L.u, L.f, params.pre);
-  residual(L.op, L.u, L.f, L.r);
-  if (L.op.singular) removeMean(L.op, L.r);
-  L.transfer!.restrict(L.r, Lc.f);
-  Lc.u.fill(0);
-  fCycle(h, l + 1, params);
-  if (Lc.direct === undefined) cycle(h, l + 1, 1, params);
-  L.transfer!.interpolateAdd(Lc.u, L.u);
-  L.smoother!.smooth(L.u, L.f, params.post);
+  correct(h, l, params, (lc) => {
+    fCycle(h, lc, params);
+    if (h.levels[lc].direct === undefined) cycle(h, lc, 1, params);
+  });
 }
 
 function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleParams): void {
