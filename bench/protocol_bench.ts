@@ -3,12 +3,18 @@
  *
  * 1. Encode + decode throughput of a request and a reply at n = 1024 (1025² ≈ 1.05 M nodes) in
  *    both array encodings, in MB/s of JSON text, along the paths the subprocess exchange takes:
- *    requests written as bytes by solveRequestBytes and read by a LineScanner (as
- *    reference-solver/protocol_main.ts reads them), replies written by solutionReplyBytes and read
- *    by readReply from their text (as the harness reads them).
+ *    requests written as bytes by solveRequestBytes and read by a LineScanner that reuses its
+ *    arrays (as reference-solver/protocol_main.ts reads them), replies written by
+ *    solutionReplyBytes and read by a LineScanner and readReply (as a session's harness reads
+ *    them).
  * 2. Overhead of the reference solver as a subprocess (reference-solver/protocol_main.ts, base64
  *    arrays) against the same solver in process, at n = 256, 512, 1024, measured side by side in
- *    one run (once mode: a fresh process per solve; session mode: one warm process).
+ *    one run (once mode: a fresh process per solve; session mode: one warm process). Every path
+ *    is timed around `solve()`, so each includes the same harness work (sampling the case, the
+ *    grid points of the outcome); each is warmed up by one solve of the same size first, and the
+ *    runs alternate between the paths so that machine noise hits all of them; best of 5, and the
+ *    median over rounds of each round's overhead. The solver gets `--allow-ffi` to enlarge its
+ *    pipes to 1 MiB (reference-solver/protocol_main.ts), except in the "64 KiB pipes" column.
  *
  * Target (issue 5): with base64, subprocess overhead < 15 % of the in-process solve at n = 1024.
  *
@@ -18,6 +24,7 @@ import { loadCase } from "../cases/mod.ts";
 import {
   LineScanner,
   type MessageBytes,
+  type ParsedMessage,
   readReply,
   readSolveRequest,
   solutionReplyBytes,
@@ -32,6 +39,8 @@ import {
 } from "../harness/solvers/mod.ts";
 
 const quick = Deno.args.includes("--quick");
+/** Timed runs of each path at each size (the best counts). */
+const REPEATS = quick ? 3 : 5;
 const root = new URL("../", import.meta.url).pathname;
 const compiled = await loadCase("smooth-baseline");
 
@@ -46,20 +55,47 @@ function time<T>(f: () => T): [T, number] {
   return [r, (performance.now() - t) / 1000];
 }
 
-/** All the bytes of a message line, written piece by piece into one buffer (as into a pipe). */
-function collect(line: MessageBytes): Uint8Array {
-  const out = new Uint8Array(line.byteLength);
-  let at = 0;
-  for (const piece of line.pieces()) {
-    out.set(piece, at);
-    at += piece.length;
+/**
+ * All the bytes of a message line, written piece by piece into a buffer kept from call to call
+ * (as into a pipe, whose memory is not fresh either).
+ */
+class Sink {
+  #buffer = new Uint8Array(0);
+
+  collect(line: MessageBytes): Uint8Array {
+    if (this.#buffer.length < line.byteLength) this.#buffer = new Uint8Array(line.byteLength);
+    let at = 0;
+    for (const piece of line.pieces()) {
+      this.#buffer.set(piece, at);
+      at += piece.length;
+    }
+    return this.#buffer.subarray(0, at);
   }
-  return out;
+}
+
+/**
+ * Reads one line as a reader of a stream does: scanned as 64 KiB arrive, then parsed (from its
+ * text when the scanner leaves it to the caller).
+ */
+function readLine<T>(
+  scanner: LineScanner,
+  bytes: Uint8Array,
+  read: (line: string | ParsedMessage) => T,
+): T {
+  let end = -1;
+  for (let got = 0; end < 0 && got < bytes.length;) {
+    got = Math.min(bytes.length, got + (1 << 16));
+    end = scanner.scan(bytes.subarray(0, got));
+  }
+  const line = bytes.subarray(0, end);
+  return read(scanner.finish(line) ?? new TextDecoder().decode(line));
 }
 
 // ---- 1. encode + decode throughput ----
 {
-  const scanner = new LineScanner();
+  const requestScanner = new LineScanner({ reuseArrays: true });
+  const replyScanner = new LineScanner();
+  const [requestSink, replySink] = [new Sink(), new Sink()];
   const n = 1024;
   const sampled = sampleCase(compiled, n, n, "vertex");
   const f = compiled.formulas;
@@ -74,7 +110,7 @@ function collect(line: MessageBytes): Uint8Array {
     let replyBytes = 0;
     for (let rep = 0; rep < 3; rep++) {
       const [requestLine, tEncReq] = time(() =>
-        collect(solveRequestBytes(sampled, {
+        requestSink.collect(solveRequestBytes(sampled, {
           id: "bench",
           caseId: compiled.id,
           expressions: {
@@ -92,22 +128,19 @@ function collect(line: MessageBytes): Uint8Array {
           encoding,
         }))
       );
-      const [, tDecReq] = time(() => {
-        const end = scanner.scan(requestLine);
-        const line = requestLine.subarray(0, end);
-        return readSolveRequest(scanner.finish(line) ?? new TextDecoder().decode(line));
-      });
+      const [, tDecReq] = time(() => readLine(requestScanner, requestLine, readSolveRequest));
       const [replyLine, tEncRep] = time(() =>
-        collect(solutionReplyBytes("bench", solution, { encoding, iterations: 5 }))
+        replySink.collect(solutionReplyBytes("bench", solution, { encoding, iterations: 5 }))
       );
+      const expect = {
+        id: "bench",
+        layout: "vertex" as const,
+        nx: n,
+        ny: n,
+        domain: compiled.domain,
+      };
       const [check, tDecRep] = time(() =>
-        readReply(new TextDecoder().decode(replyLine), {
-          id: "bench",
-          layout: "vertex",
-          nx: n,
-          ny: n,
-          domain: compiled.domain,
-        })
+        readLine(replyScanner, replyLine, (line) => readReply(line, expect))
       );
       if (!check.ok) throw new Error(check.reason);
       requestBytes = requestLine.length;
@@ -138,13 +171,20 @@ async function wall(
   return { seconds: (performance.now() - t) / 1000, iterations: o.iterations };
 }
 
-const spec = (mode: "once" | "session", constantArrays: boolean) => ({
-  name: `reference-${mode}${constantArrays ? "-constants" : ""}`,
-  constantArrays,
+/**
+ * The reference solver as an external solver. With `ffi`, it may enlarge its pipes to 1 MiB
+ * (reference-solver/protocol_main.ts, enlargePipes); without, they stay at Linux's 64 KiB.
+ */
+const spec = (mode: "once" | "session", options: { constantArrays?: boolean; ffi?: boolean }) => ({
+  name: `reference-${mode}${options.constantArrays ? "-constants" : ""}${
+    options.ffi ? "" : "-64k"
+  }`,
+  constantArrays: options.constantArrays ?? false,
   command: [
     Deno.execPath(),
     "run",
     "--quiet",
+    ...(options.ffi ? ["--allow-ffi"] : []),
     "--v8-flags=--max-old-space-size=4096",
     "reference-solver/protocol_main.ts",
   ],
@@ -158,46 +198,55 @@ const spec = (mode: "once" | "session", constantArrays: boolean) => ({
 });
 
 console.log(
-  "\n# reference solver: in process vs subprocess (base64), wall time around solve() incl. " +
-    "sampling and request encoding; best of 2",
+  `\n# reference solver: in process vs subprocess (base64), wall time around solve() incl. ` +
+    `sampling and grid points; warm-up at each size, runs alternating, best of ${REPEATS} ` +
+    `(overhead of the best times, and in brackets the median over rounds of each round's ` +
+    `overhead); --allow-ffi lets the solver enlarge its pipes to 1 MiB`,
 );
+const columns = [
+  ["once", createExternalSolver(spec("once", { ffi: true }), { solverFileDir: root })],
+  ["session (warm)", createExternalSolver(spec("session", { ffi: true }), { solverFileDir: root })],
+  [
+    "session, 64 KiB pipes (no --allow-ffi)",
+    createExternalSolver(spec("session", {}), { solverFileDir: root }),
+  ],
+  [
+    "session + constantArrays",
+    createExternalSolver(spec("session", { constantArrays: true, ffi: true }), {
+      solverFileDir: root,
+    }),
+  ],
+] as const;
 console.log(
-  "n | nodes | cycles | in process | once | overhead | session (warm) | overhead | " +
-    "session + constantArrays | overhead",
+  `n | nodes | cycles | in process | ${columns.map(([name]) => `${name} | overhead`).join(" | ")}`,
 );
-const inProcess = createReferenceSolver();
-const once = createExternalSolver(spec("once", false), { solverFileDir: root });
-const session = createExternalSolver(spec("session", false), { solverFileDir: root });
-const compact = createExternalSolver(spec("session", true), { solverFileDir: root });
+const solvers: Solver[] = [createReferenceSolver(), ...columns.map(([, solver]) => solver)];
 try {
-  // warm everything up (JIT in this process, session start-up) on a small grid
-  const warm = { case: compiled, nx: 64, ny: 64, scheme: "central" as const, tolerance: 1e-10 };
-  await wall(inProcess, warm);
-  await wall(session, warm);
-  await wall(compact, warm);
   for (const n of quick ? [256] : [256, 512, 1024]) {
     const task = { case: compiled, nx: n, ny: n, scheme: "central" as const, tolerance: 1e-10 };
-    const times: number[][] = [[], [], [], []];
+    // warm up at this size: JIT in both processes, memory the session keeps from solve to solve
+    for (const solver of solvers) await wall(solver, task);
+    const times: number[][] = solvers.map(() => []);
     let cycles: number | null = null;
-    for (let rep = 0; rep < 2; rep++) {
-      const r = await wall(inProcess, task);
-      cycles = r.iterations;
-      times[0].push(r.seconds);
-      times[1].push((await wall(once, task)).seconds);
-      times[2].push((await wall(session, task)).seconds);
-      times[3].push((await wall(compact, task)).seconds);
+    for (let rep = 0; rep < REPEATS; rep++) {
+      for (const [k, solver] of solvers.entries()) {
+        const r = await wall(solver, task);
+        if (k === 0) cycles = r.iterations;
+        times[k].push(r.seconds);
+      }
     }
-    const [ta, tb, tc, td] = times.map((t) => Math.min(...t));
-    const pct = (t: number) => `${(((t - ta) / ta) * 100).toFixed(1)} %`;
+    // best of each path, and the median over rounds of each round's own ratio
+    const [ta, ...others] = times.map((t) => Math.min(...t));
+    const pct = (r: number) => `${(r * 100).toFixed(1)} %`;
+    const cell = (k: number) => {
+      const paired = median(times[k].map((t, rep) => t / times[0][rep] - 1));
+      return `${others[k - 1].toFixed(3)} s | ${pct(others[k - 1] / ta - 1)} (${pct(paired)})`;
+    };
     console.log(
-      `${n} | ${(n + 1) ** 2} | ${cycles} | ${ta.toFixed(3)} s | ${tb.toFixed(3)} s | ${
-        pct(tb)
-      } | ` +
-        `${tc.toFixed(3)} s | ${pct(tc)} | ${td.toFixed(3)} s | ${pct(td)}`,
+      `${n} | ${(n + 1) ** 2} | ${cycles} | ${ta.toFixed(3)} s | ` +
+        others.map((_, k) => cell(k + 1)).join(" | "),
     );
   }
 } finally {
-  await session.close();
-  await once.close();
-  await compact.close();
+  for (const solver of solvers) await solver.close();
 }

@@ -7,7 +7,8 @@
  * end of stdin (once mode). Vertex layout only: a cell-layout request gets a `not-applicable`
  * reply. Replies use the request's array encoding unless `--encoding numbers|base64` says otherwise.
  *
- * Run: `deno run reference-solver/protocol_main.ts [--encoding base64]`
+ * Run: `deno run reference-solver/protocol_main.ts [--encoding base64]`; with `--allow-ffi` on
+ * Linux it also enlarges its stdin and stdout pipes (see {@link enlargePipes}).
  *
  * @module
  */
@@ -24,12 +25,51 @@ import {
 } from "../harness/protocol/mod.ts";
 import { type Problem, solve } from "./mod.ts";
 
-/** Writes one message line to stdout, piece by piece (arrays are encoded as they are written). */
-async function send(line: MessageBytes): Promise<void> {
-  for (const piece of line.pieces()) {
-    let at = 0;
-    while (at < piece.length) at += await Deno.stdout.write(piece.subarray(at));
+/** Linux `fcntl` command that sets the capacity of a pipe. */
+const F_SETPIPE_SZ = 1031;
+/** Capacity asked for: Linux's default limit for unprivileged processes (fs.pipe-max-size). */
+const PIPE_BYTES = 1 << 20;
+
+/**
+ * Enlarges the stdin and stdout pipes from Linux's 64 KiB to 1 MiB, when this runs on Linux with
+ * `--allow-ffi` (otherwise, or when the call fails, the pipes stay as they are). A request of
+ * tens of megabytes then crosses in 1 MiB steps instead of 64 KiB ones; every step is a hand-over
+ * between the two processes, and at a million nodes the thousand small ones cost tens of
+ * milliseconds (bench/protocol_bench.ts shows both).
+ */
+function enlargePipes(): void {
+  if (Deno.build.os !== "linux") return;
+  if (Deno.permissions.querySync({ name: "ffi" }).state !== "granted") return;
+  try {
+    const libc = Deno.dlopen("libc.so.6", {
+      fcntl: { parameters: ["i32", "i32", "i32"], result: "i32" },
+    });
+    // a result of -1 (not a pipe, a lower limit) leaves that pipe as it was
+    for (const fd of [0, 1]) libc.symbols.fcntl(fd, F_SETPIPE_SZ, PIPE_BYTES);
+    libc.close();
+  } catch {
+    // no glibc (e.g. musl): the default pipes work, only more slowly
   }
+}
+
+async function writeAll(piece: Uint8Array): Promise<void> {
+  let at = 0;
+  while (at < piece.length) at += await Deno.stdout.write(piece.subarray(at));
+}
+
+/**
+ * Writes one message line to stdout, piece by piece: arrays are encoded as they are written, the
+ * next piece while the last one is being written (pieces take turns in two buffers).
+ */
+async function send(line: MessageBytes): Promise<void> {
+  let previous = Promise.resolve();
+  for (const piece of line.pieces()) {
+    const current = previous.then(() => writeAll(piece));
+    current.catch(() => {}); // a broken pipe is reported by the await below
+    await previous;
+    previous = current;
+  }
+  await previous;
 }
 
 function toProblem(p: SampledProblem): Problem {
@@ -121,7 +161,9 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
  * Reads stdin as lines into one buffer, kept and grown as needed from line to line, and scans each
  * line while it arrives (base64 arrays are decoded on the way, see LineScanner): a request of
  * tens of megabytes is ready soon after its last byte, and the next one lands in memory already
- * touched. Reads block: this program has nothing else to do while it waits for input.
+ * touched. Its arrays, too, are decoded into the buffers of the last request's (`reuseArrays`):
+ * each request is answered before the next line is read. Reads block: this program has nothing
+ * else to do while it waits for input.
  */
 class LineReader {
   #buffer = new Uint8Array(1 << 16);
@@ -131,7 +173,7 @@ class LineReader {
   #end = 0;
   #done = false;
   #decoder = new TextDecoder();
-  #scanner = new LineScanner();
+  #scanner = new LineScanner({ reuseArrays: true });
 
   /** Reads more input after what is kept; false at the end of input. */
   #fill(): boolean {
@@ -196,6 +238,7 @@ function main(args: string[]): Promise<number> | number {
     }
     forced = value;
   }
+  enlargePipes();
   return serve(new LineReader(), forced);
 }
 

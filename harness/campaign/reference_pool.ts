@@ -73,9 +73,12 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
     all.push(worker);
   }
 
-  async function acquire(): Promise<Worker> {
-    while (idle.length === 0) await new Promise<void>((resolve) => waiting.push(resolve));
-    return idle.pop()!;
+  /** An idle worker, or undefined once the pool is closed. */
+  async function acquire(): Promise<Worker | undefined> {
+    while (idle.length === 0 && !closed) {
+      await new Promise<void>((resolve) => waiting.push(resolve));
+    }
+    return closed ? undefined : idle.pop();
   }
 
   function release(worker: Worker): void {
@@ -87,7 +90,15 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
     info,
     async solve(task: SolveTask): Promise<SolveOutcome> {
       const started = performance.now();
+      const stopped = () =>
+        emptyOutcome("failed", "the reference solver pool was stopped before this solve ended", {
+          layout: "vertex",
+          nx: task.nx,
+          ny: task.ny,
+        }, { seconds: (performance.now() - started) / 1000 });
       const worker = await acquire();
+      // closed while this solve waited for its turn: the worker is gone
+      if (worker === undefined || closed) return stopped();
       try {
         const id = nextId++;
         const reply = await new Promise<WorkerReply>((resolve) => {
@@ -115,6 +126,10 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
       if (!closed) {
         closed = true;
         for (const w of all) w.terminate();
+        // solves in flight or waiting for a worker end now, as failed: nothing hangs
+        for (const [id, resolve] of pending) resolve({ id, error: "stopped" });
+        pending.clear();
+        for (const wake of waiting.splice(0)) wake();
       }
       return Promise.resolve();
     },

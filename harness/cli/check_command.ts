@@ -196,14 +196,19 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const cases = await selectCases(flags);
   const solvers = await selectSolvers(flags, jobs);
   const stopSolvers = () => Promise.all(solvers.map((s) => s.close()));
+  // Ctrl-C: no new solve starts, running solvers are stopped, and the command ends with 130 —
+  // whichever comes first, the handler or the campaign returning, never with a result of 0.
   const interrupt = new AbortController();
-  const onInterrupt = () => {
-    interrupt.abort();
+  const endInterrupted = (): never => {
     console.error(
       `\ngridproof: interrupted; every finished solve is in ${flags.out}/journal.jsonl — ` +
         `run the same command with --resume to continue`,
     );
-    stopSolvers().finally(() => Deno.exit(130));
+    Deno.exit(130);
+  };
+  const onInterrupt = () => {
+    interrupt.abort();
+    stopSolvers().finally(endInterrupted);
   };
   Deno.addSignalListener("SIGINT", onInterrupt);
   let result: CampaignResult;
@@ -221,9 +226,10 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       onProgress: flags.progress === false || flags.json ? undefined : progressPrinter(),
     });
   } finally {
-    Deno.removeSignalListener("SIGINT", onInterrupt);
+    if (!interrupt.signal.aborted) Deno.removeSignalListener("SIGINT", onInterrupt);
     await stopSolvers();
   }
+  if (interrupt.signal.aborted) endInterrupted();
   if (baseline) {
     result.configuration.baseline = flags.baseline;
     result.baselineVerdicts = compareWithBaseline(result, baseline, { orderTolerance });

@@ -37,11 +37,23 @@ function charBoundary(bytes: Uint8Array, from: number, to: number): number {
   return to;
 }
 
+/** Options of {@link LineScanner}. */
+export interface LineScannerOptions {
+  /**
+   * Decode the k-th base64 array of every line into the same buffer, kept from line to line, so
+   * that a stream of lines of the same size touches no fresh memory. The arrays that
+   * {@link LineScanner.finish} returns are then views of those buffers, overwritten by the next
+   * line: use this only when a line's arrays are no longer needed once the next line is scanned
+   * (a solver answering one request at a time). Default: false (every array is a fresh copy).
+   */
+  reuseArrays?: boolean;
+}
+
 /**
  * Scans the lines of a message stream as their bytes arrive. Call {@link LineScanner.scan} with
  * the bytes received so far (counted from the start of the line) until it returns the offset of
  * the newline, then {@link LineScanner.finish} with the line; the scanner is then ready for the
- * next line (and keeps its decoding buffer, already touched, for it).
+ * next line (and keeps its decoding buffers, already touched, for it).
  *
  * @example
  * ```ts
@@ -65,14 +77,21 @@ export class LineScanner {
   /** The text of the line with decoded base64 texts replaced by markers. */
   #parts: string[] = [];
   #decoded = new Map<string, Float64Array>();
-  /** Base64 text being decoded: bytes so far, characters not yet decoded, padding seen. */
-  #bytes = new Uint8Array(1 << 16);
+  /** Buffers to decode into: one for all arrays, or with `reuseArrays` one per array of a line. */
+  #buffers: Uint8Array<ArrayBuffer>[] = [];
+  readonly #reuse: boolean;
+  /** Base64 text being decoded: the buffer it goes to, bytes so far, padding seen. */
+  #bytes = new Uint8Array(0);
   #written = 0;
-  #carry = "";
   #padded = false;
   /** Set when the line cannot take the fast way (then `finish` returns undefined). */
   #plain = false;
   #end = -1;
+
+  /** @param options whether decoded arrays reuse the scanner's buffers (default: no) */
+  constructor(options: LineScannerOptions = {}) {
+    this.#reuse = options.reuseArrays ?? false;
+  }
 
   /**
    * Scans the bytes not yet scanned.
@@ -89,12 +108,16 @@ export class LineScanner {
       const text = this.#decoder.decode(line.subarray(from, to));
       const newline = text.indexOf("\n");
       if (text.includes("\uFFFD")) this.#plain = true;
-      if (!this.#plain) this.#walk(text, newline < 0 ? text.length : newline);
+      const limit = newline < 0 ? text.length : newline;
+      const used = this.#plain ? limit : this.#walk(text, limit);
       if (newline >= 0) {
         this.#end = line.indexOf(10, from);
         return this.#end;
       }
-      this.#scanned = to;
+      // what is left unread is base64 text short of a group of 4, one byte per character
+      const next = to - (text.length - used);
+      if (next === from) break;
+      this.#scanned = next;
     }
     return -1;
   }
@@ -130,8 +153,11 @@ export class LineScanner {
     this.#end = -1;
   }
 
-  /** Runs the states over text[0, limit). */
-  #walk(text: string, limit: number): void {
+  /**
+   * Runs the states over text[0, limit); returns where it stopped: `limit`, or earlier in base64
+   * text when fewer than 4 characters are left (they are read again with the next bytes).
+   */
+  #walk(text: string, limit: number): number {
     let at = 0;
     while (at < limit && !this.#plain) {
       switch (this.#state) {
@@ -156,21 +182,22 @@ export class LineScanner {
             this.#state = COLON;
             at++;
           } else if (this.#state === COLON && c === 34) {
-            this.#state = BASE64;
-            this.#written = 0;
-            this.#carry = "";
-            this.#padded = false;
+            this.#startArray();
             at++;
           } else {
             this.#state = OUT;
           }
           break;
         }
-        case BASE64:
-          at = this.#inBase64(text, at, limit);
+        case BASE64: {
+          const stop = this.#inBase64(text, at, limit);
+          if (this.#state === BASE64) return stop;
+          at = stop;
           break;
+        }
       }
     }
+    return limit;
   }
 
   #openString(): void {
@@ -202,23 +229,43 @@ export class LineScanner {
     return stop + 1;
   }
 
+  #startArray(): void {
+    this.#state = BASE64;
+    const k = this.#reuse ? this.#decoded.size : 0;
+    this.#buffers[k] ??= new Uint8Array(1 << 16);
+    this.#bytes = this.#buffers[k];
+    this.#written = 0;
+    this.#padded = false;
+  }
+
+  /**
+   * Decodes the whole groups of 4 characters of base64 text from `at`; returns the index after
+   * the closing quote, or, while the text goes on, the index of the first character not decoded.
+   */
   #inBase64(text: string, at: number, limit: number): number {
     const quote = text.indexOf('"', at);
-    const stop = quote < 0 || quote >= limit ? limit : quote;
-    let chunk = this.#carry === "" ? text.slice(at, stop) : this.#carry + text.slice(at, stop);
-    const whole = chunk.length - (chunk.length % 4);
-    this.#carry = chunk.slice(whole);
-    chunk = chunk.slice(0, whole);
-    if (chunk.length > 0) this.#decodeChunk(chunk);
-    if (stop === limit) return limit;
-    if (this.#carry !== "" || this.#written % 8 !== 0) {
+    const closed = quote >= 0 && quote < limit;
+    const stop = closed ? quote : at + ((limit - at) & ~3);
+    if (closed && (stop - at) % 4 !== 0) {
       this.#plain = true;
       return limit;
     }
-    const values = new Float64Array(this.#written / 8);
-    const bytes = new Uint8Array(values.buffer);
-    bytes.set(this.#bytes.subarray(0, this.#written));
-    if (!LITTLE_ENDIAN) swapEach8(bytes);
+    if (stop > at) this.#decodeChunk(text.slice(at, stop));
+    if (!closed) return stop;
+    if (this.#written % 8 !== 0) {
+      this.#plain = true;
+      return limit;
+    }
+    let values: Float64Array;
+    if (this.#reuse) {
+      values = new Float64Array(this.#bytes.buffer, 0, this.#written / 8);
+      if (!LITTLE_ENDIAN) swapEach8(this.#bytes.subarray(0, this.#written));
+    } else {
+      values = new Float64Array(this.#written / 8);
+      const bytes = new Uint8Array(values.buffer);
+      bytes.set(this.#bytes.subarray(0, this.#written));
+      if (!LITTLE_ENDIAN) swapEach8(bytes);
+    }
     const key = MARK + this.#decoded.size;
     this.#decoded.set(key, values);
     this.#parts.push(JSON.stringify(key));
@@ -228,15 +275,16 @@ export class LineScanner {
 
   /** Decodes whole groups of 4 base64 characters after the bytes so far. */
   #decodeChunk(chunk: string): void {
+    if (this.#padded) {
+      this.#plain = true;
+      return;
+    }
     const padding = chunk.endsWith("==") ? 2 : chunk.endsWith("=") ? 1 : 0;
     const expected = (chunk.length / 4) * 3 - padding;
-    if (this.#padded || this.#written + expected > this.#bytes.length) {
-      if (this.#padded) {
-        this.#plain = true;
-        return;
-      }
+    if (this.#written + expected > this.#bytes.length) {
       const grown = new Uint8Array(Math.max(2 * this.#bytes.length, this.#written + expected));
       grown.set(this.#bytes.subarray(0, this.#written));
+      this.#buffers[this.#reuse ? this.#decoded.size : 0] = grown;
       this.#bytes = grown;
     }
     try {

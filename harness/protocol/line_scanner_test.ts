@@ -83,3 +83,33 @@ Deno.test("LineScanner leaves unusual lines to the caller, and reads the last li
   assert.ok(parsed);
   assert.deepEqual(Array.from(parsed.decoded.values()).map((v) => Array.from(v)), [[1]]);
 });
+
+Deno.test("LineScanner with reuseArrays decodes each line's arrays into the same buffers", () => {
+  // derived: the k-th array of every line lands in the k-th kept buffer, with the values of an
+  // independent decode (encodeArray's base64 read back by Uint8Array.fromBase64)
+  const scanner = new LineScanner({ reuseArrays: true });
+  const arrays = (seed: number, n: number) =>
+    [0, 1].map((k) => new Float64Array(n).map((_, m) => Math.cos(seed + 7 * k + m)));
+  let buffers: ArrayBufferLike[] = [];
+  for (const [seed, n] of [[1, 9000], [2, 9000], [3, 5000]]) {
+    const [a, b] = arrays(seed, n);
+    const bytes = messageBytes({ a, nested: { b } }).bytes();
+    const next = pieces(seed);
+    let end = -1;
+    for (let got = 0; end < 0;) {
+      got = Math.min(bytes.length, got + 1 + (next() % 5000));
+      end = scanner.scan(bytes.subarray(0, got));
+    }
+    const parsed = scanner.finish(bytes.subarray(0, end));
+    assert.ok(parsed);
+    const got = Array.from(parsed.decoded.values());
+    for (const [k, wanted] of [a, b].entries()) {
+      const text = (encodeArray(wanted, "base64") as { base64: string }).base64;
+      assert.deepEqual(got[k], new Float64Array(Uint8Array.fromBase64(text).buffer));
+    }
+    if (buffers.length > 0) {
+      assert.ok(got.every((v, k) => v.buffer === buffers[k]), "the arrays reuse the buffers");
+    }
+    buffers = got.map((v) => v.buffer);
+  }
+});

@@ -15,7 +15,7 @@ const MARK_IN_TEXT = /"\\u0000gridproof-array:(\d+)"/g;
 /** Input bytes per base64 call: a multiple of 3 (only the last call can end in `=`), 64 KiB out. */
 const PIECE_IN = 3 << 14;
 const PIECE_OUT = 4 << 14;
-/** Size of the reused output buffer (16 base64 calls). */
+/** Size of each of the two output buffers used in turn (16 base64 calls). */
 const BUFFER_BYTES = 1 << 20;
 
 /** A message serialized lazily: its size, and its bytes in order. */
@@ -23,8 +23,9 @@ export interface MessageBytes {
   /** Size in bytes, closing newline included. */
   readonly byteLength: number;
   /**
-   * The bytes in pieces of at most 1 MiB. A piece may be a view of a buffer that the next piece
-   * overwrites: write or copy each piece before asking for the next.
+   * The bytes in pieces of at most 1 MiB. A piece may be a view of a buffer that the piece after
+   * next overwrites: write or copy each piece before asking for the one after the next (so one
+   * write may be in flight while the next piece is made).
    */
   pieces(): Iterable<Uint8Array>;
   /** All the bytes in one new array. */
@@ -63,11 +64,22 @@ function splitAtMarkers(skeleton: string, count: number): string[] | undefined {
   return texts.length === count + 1 ? texts : undefined;
 }
 
-/** The bytes of texts[0], array 0, texts[1], …, array n−1, texts[n], in buffer-sized pieces. */
+/**
+ * The bytes of texts[0], array 0, texts[1], …, array n−1, texts[n], in buffer-sized pieces. Two
+ * buffers take turns, so a piece stays intact while the next one is made (a writer may keep one
+ * write in flight while it asks for the next piece).
+ */
 function* interleave(texts: Uint8Array[], arrays: Float64Array[]): Generator<Uint8Array> {
   const encoder = new TextEncoder();
-  const buffer = new Uint8Array(BUFFER_BYTES);
+  let buffer = new Uint8Array(BUFFER_BYTES);
+  let spare: Uint8Array<ArrayBuffer> | undefined;
   let used = 0;
+  function* flush(): Generator<Uint8Array> {
+    yield buffer.subarray(0, used);
+    spare ??= new Uint8Array(BUFFER_BYTES);
+    [buffer, spare] = [spare, buffer];
+    used = 0;
+  }
   for (let k = 0; k < texts.length; k++) {
     const text = texts[k];
     for (let at = 0; at < text.length;) {
@@ -75,18 +87,12 @@ function* interleave(texts: Uint8Array[], arrays: Float64Array[]): Generator<Uin
       buffer.set(text.subarray(at, at + n), used);
       used += n;
       at += n;
-      if (used === buffer.length) {
-        yield buffer;
-        used = 0;
-      }
+      if (used === buffer.length) yield* flush();
     }
     if (k === arrays.length) break;
     const bytes = littleEndianBytes(arrays[k]);
     for (let at = 0; at < bytes.length; at += PIECE_IN) {
-      if (buffer.length - used < PIECE_OUT) {
-        yield buffer.subarray(0, used);
-        used = 0;
-      }
+      if (buffer.length - used < PIECE_OUT) yield* flush();
       const piece = bytes.subarray(at, Math.min(bytes.length, at + PIECE_IN)).toBase64();
       used += encoder.encodeInto(piece, buffer.subarray(used)).written;
     }

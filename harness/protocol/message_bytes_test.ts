@@ -64,3 +64,25 @@ Deno.test("messageBytes() writes plain text when a string of the message imitate
     serializeMessage({ note: message.note, a: encodeArray(v, "base64") }),
   );
 });
+
+Deno.test("messageBytes() keeps each piece intact while the next one is made", () => {
+  // derived: a writer may hold piece k until it has piece k+1 (one write in flight), so piece k
+  // must still equal its bytes of the expected text then; 3 MiB of base64 make several pieces
+  const v = values(400000);
+  const expected = new TextEncoder().encode(plainText({ a: v, b: v }) + "\n");
+  let previous: { piece: Uint8Array; at: number } | undefined;
+  let at = 0;
+  let count = 0;
+  for (const piece of messageBytes({ a: v, b: v }).pieces()) {
+    if (previous) {
+      const { piece: held, at: from } = previous;
+      const intact = held.every((b, k) => b === expected[from + k]);
+      assert.ok(intact, `piece ${count - 1} changed when piece ${count} was made`);
+    }
+    previous = { piece, at };
+    at += piece.length;
+    count++;
+  }
+  assert.ok(count >= 4, `${count} pieces`);
+  assert.equal(at, expected.length);
+});

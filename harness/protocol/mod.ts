@@ -23,7 +23,7 @@
 export * from "./types.ts";
 export { decodeArray, describeValue, encodeArray } from "./encoding.ts";
 export { type MessageBytes, messageBytes } from "./message_bytes.ts";
-export { LineScanner } from "./line_scanner.ts";
+export { LineScanner, type LineScannerOptions } from "./line_scanner.ts";
 export { type ParsedMessage, parseMessage } from "./parse_message.ts";
 export { MESSAGE_SCHEMAS, type MessageName, validateMessage } from "./schemas.ts";
 export {

@@ -6,7 +6,7 @@
  * @module
  */
 import { decodeArray, describeValue } from "./encoding.ts";
-import { parseMessage } from "./parse_message.ts";
+import { type ParsedMessage, parseMessage } from "./parse_message.ts";
 import { validateMessage } from "./schemas.ts";
 import {
   type DecodedReply,
@@ -200,7 +200,8 @@ export function layoutPointCount(layout: GridLayout, nx: number, ny: number): nu
 /**
  * Reads the reply to a solve request from the solver's stdout text and checks it fully.
  *
- * @param text everything the solver wrote on stdout for this solve (once mode) or its reply line
+ * @param text everything the solver wrote on stdout for this solve (once mode) or its reply line,
+ *   or the reply line already parsed (by a `LineScanner`)
  * @param expect the request's id and grid
  * @returns the decoded reply, or the reason it is unusable and every problem found
  *
@@ -214,8 +215,10 @@ export function layoutPointCount(layout: GridLayout, nx: number, ny: number): nu
  * check.ok; // true
  * ```
  */
-export function readReply(text: string, expect: ReplyExpectation): ReplyCheck {
-  const parsed = parseStdout(text, "reply");
+export function readReply(text: string | ParsedMessage, expect: ReplyExpectation): ReplyCheck {
+  const parsed: Parsed = typeof text === "string"
+    ? parseStdout(text, "reply")
+    : { ok: true, value: text.value, logLines: [], decoded: text.decoded };
   if (!parsed.ok) return fail(parsed.reason);
   const value = parsed.value;
   const version = versionProblem(value);

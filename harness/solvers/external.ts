@@ -9,6 +9,7 @@ import { resolve } from "node:path";
 import {
   type Capabilities,
   type MessageBytes,
+  type ParsedMessage,
   PROTOCOL_VERSION,
   readReady,
   readReply,
@@ -336,9 +337,9 @@ class Runner {
     return this.judge(new TextDecoder().decode(bytes), p, extra, {});
   }
 
-  /** Turns reply text into an outcome. */
+  /** Turns a reply (its text, or its message parsed as it arrived) into an outcome. */
   judge(
-    text: string,
+    text: string | ParsedMessage,
     p: Prepared,
     extra: { seconds: number; stderrTail?: string },
     description: Record<string, unknown>,
@@ -459,7 +460,10 @@ class Session {
     }
     let line;
     do {
-      line = await within(proc.readLine(this.runner.maxReplyBytes), deadline - performance.now());
+      line = await within(
+        proc.readLine(this.runner.maxReplyBytes, { parse: true }),
+        deadline - performance.now(),
+      );
     } while (line?.kind === "line" && line.text.trim() === "");
     if (line === undefined) {
       return await fail(
@@ -482,9 +486,10 @@ class Session {
           `solve; it will be restarted for the next solve`,
       );
     }
-    if (line.kind !== "line") return await fail("unexpected output");
+    if (line.kind !== "line" && line.kind !== "message") return await fail("unexpected output");
     const seconds = elapsed();
-    const outcome = this.runner.judge(line.text, p, {
+    const reply = line.kind === "message" ? line.message : line.text;
+    const outcome = this.runner.judge(reply, p, {
       seconds,
       stderrTail: proc.stderr.text(mark),
     }, description);

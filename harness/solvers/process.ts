@@ -5,9 +5,12 @@
  *
  * @module
  */
+import { LineScanner, type ParsedMessage } from "../protocol/mod.ts";
 
 /** How much of stderr is kept per solve. */
 export const STDERR_TAIL_BYTES = 64 * 1024;
+/** Least room offered to one read of stdout (a pipe holds 64 KiB on Linux unless enlarged). */
+const READ_ROOM = 1 << 16;
 
 /** The last bytes written to a stream, with absolute offsets so a caller can take "since mark". */
 export class TailBuffer {
@@ -59,6 +62,8 @@ export class TailBuffer {
 export type ReadResult =
   | { kind: "data"; bytes: Uint8Array }
   | { kind: "line"; text: string }
+  /** A line read with `parse`, parsed as it arrived (it held base64 arrays). */
+  | { kind: "message"; message: ParsedMessage }
   | { kind: "eof"; partial: Uint8Array }
   | { kind: "overflow"; limit: number };
 
@@ -87,15 +92,21 @@ export class GroupProcess {
 
   #child: Deno.ChildProcess;
   #writer: WritableStreamDefaultWriter<Uint8Array>;
-  #reader: ReadableStreamDefaultReader<Uint8Array>;
-  #pending: Uint8Array = new Uint8Array(0);
+  #reader: ReadableStreamBYOBReader;
+  /**
+   * Stdout received and not yet returned: `#buffer[0, #held)`. Stdout is read straight into
+   * this buffer, kept (and grown when needed) from line to line.
+   */
+  #buffer = new Uint8Array(1 << 16);
+  #held = 0;
+  #scanner = new LineScanner();
   #eof = false;
 
   private constructor(child: Deno.ChildProcess) {
     this.#child = child;
     this.pid = child.pid;
     this.#writer = child.stdin.getWriter();
-    this.#reader = child.stdout.getReader();
+    this.#reader = child.stdout.getReader({ mode: "byob" });
     this.status = child.status.then((s) => {
       this.exitStatus = s;
       return s;
@@ -130,8 +141,9 @@ export class GroupProcess {
   }
 
   /**
-   * Writes bytes to stdin in pieces of at most 1 MiB, counting what got through. Each piece is
-   * written before the next is taken, so an iterable may reuse one buffer for its pieces.
+   * Writes bytes to stdin in pieces of at most 1 MiB, counting what got through. One piece is
+   * being written while the next is taken, so an iterable may reuse a buffer every other piece
+   * (as `MessageBytes.pieces()` does) and make its next piece while the pipe drains.
    *
    * @param data the bytes, or the bytes in pieces
    * @returns bytes written and, when the pipe broke, the error text
@@ -142,14 +154,23 @@ export class GroupProcess {
     const most = 1 << 20;
     const pieces = data instanceof Uint8Array ? [data] : data;
     let written = 0;
+    let previous: Promise<void> = Promise.resolve();
+    let previousLength = 0;
     try {
       for (const piece of pieces) {
         for (let at = 0; at < piece.length; at += most) {
           const part = piece.subarray(at, Math.min(piece.length, at + most));
-          await this.#writer.write(part);
-          written += part.length;
+          // the writer queues the part behind the one in flight
+          const current = this.#writer.write(part);
+          current.catch(() => {}); // a broken pipe is reported by the await below
+          await previous;
+          written += previousLength;
+          previous = current;
+          previousLength = part.length;
         }
       }
+      await previous;
+      written += previousLength;
       return { written };
     } catch (error) {
       return { written, error: (error as Error).message };
@@ -165,58 +186,81 @@ export class GroupProcess {
     }
   }
 
-  /** Next chunk of stdout, or undefined at the end. */
-  async #next(): Promise<Uint8Array | undefined> {
-    if (this.#eof) return undefined;
+  /** Reads more stdout after the bytes held; false at the end. */
+  async #fill(): Promise<boolean> {
+    if (this.#eof) return false;
+    if (this.#buffer.length - this.#held < READ_ROOM) {
+      const grown = new Uint8Array(Math.max(2 * this.#buffer.length, this.#held + READ_ROOM));
+      grown.set(this.#buffer.subarray(0, this.#held));
+      this.#buffer = grown;
+    }
+    const room = new Uint8Array(this.#buffer.buffer, this.#held);
     try {
-      const result = await this.#reader.read();
-      if (!result.done) return result.value;
+      const { value, done } = await this.#reader.read(room);
+      // the read hands the buffer back in a new ArrayBuffer (the old one is detached)
+      if (value) this.#buffer = new Uint8Array(value.buffer);
+      if (!done && value) {
+        this.#held += value.length;
+        return true;
+      }
     } catch {
       // the pipe broke because the process was killed: treat as the end
     }
+    if (this.#buffer.buffer.detached) {
+      // the stream was cancelled or broke with the buffer in it: what it held is gone
+      this.#buffer = new Uint8Array(0);
+      this.#held = 0;
+    }
     this.#eof = true;
-    return undefined;
+    return false;
+  }
+
+  /** Takes the bytes received and not yet returned (the buffer goes with them). */
+  #takeHeld(): Uint8Array {
+    const held = this.#buffer.subarray(0, this.#held);
+    this.#buffer = new Uint8Array(0);
+    this.#held = 0;
+    return held;
   }
 
   /** Reads stdout to its end, or stops once more than `limit` bytes arrived. */
   async readAll(limit: number): Promise<ReadResult> {
-    const chunks: Uint8Array[] = [];
-    let size = this.#pending.length;
-    if (size > 0) chunks.push(this.#pending);
-    this.#pending = new Uint8Array(0);
-    while (true) {
-      const chunk = await this.#next();
-      if (!chunk) break;
-      chunks.push(chunk);
-      size += chunk.length;
-      if (size > limit) return { kind: "overflow", limit };
-    }
-    return { kind: "data", bytes: concat(chunks, size) };
+    while (this.#held <= limit && await this.#fill());
+    if (this.#held > limit) return { kind: "overflow", limit };
+    return { kind: "data", bytes: this.#takeHeld() };
   }
 
-  /** Reads one line of stdout (without its newline), or EOF, or stops beyond `limit` bytes. */
-  async readLine(limit: number): Promise<ReadResult> {
-    // chunks are kept in a list and joined once, so a long line costs linear time
-    const chunks: Uint8Array[] = [];
-    let size = 0;
-    let chunk: Uint8Array | undefined = this.#pending;
-    this.#pending = new Uint8Array(0);
-    while (true) {
-      if (chunk && chunk.length > 0) {
-        const nl = chunk.indexOf(10);
-        if (nl >= 0) {
-          chunks.push(chunk.subarray(0, nl));
-          size += nl;
-          this.#pending = chunk.slice(nl + 1);
-          return { kind: "line", text: new TextDecoder().decode(concat(chunks, size)) };
+  /**
+   * Reads one line of stdout (without its newline), or EOF, or stops beyond `limit` bytes. The
+   * line is scanned while it arrives (a `LineScanner` decodes its base64 arrays on the way), into
+   * a buffer kept from line to line.
+   *
+   * @param limit most bytes of one line
+   * @param options `parse`: return a line that held base64 arrays as the message parsed on the
+   *   way (kind "message") instead of its text (default false)
+   */
+  async readLine(limit: number, options: { parse?: boolean } = {}): Promise<ReadResult> {
+    let end = this.#scanner.scan(this.#buffer.subarray(0, this.#held));
+    while (end < 0) {
+      if (this.#held > limit || !await this.#fill()) {
+        // start the next line afresh: drop what the scanner saw of this one
+        this.#scanner = new LineScanner();
+        if (this.#held > limit) {
+          this.#held = 0;
+          return { kind: "overflow", limit };
         }
-        chunks.push(chunk);
-        size += chunk.length;
-        if (size > limit) return { kind: "overflow", limit };
+        return { kind: "eof", partial: this.#takeHeld() };
       }
-      chunk = await this.#next();
-      if (!chunk) return { kind: "eof", partial: concat(chunks, size) };
+      end = this.#scanner.scan(this.#buffer.subarray(0, this.#held));
     }
+    const line = this.#buffer.subarray(0, end);
+    const message = this.#scanner.finish(line);
+    const result: ReadResult = message && options.parse
+      ? { kind: "message", message }
+      : { kind: "line", text: new TextDecoder().decode(line) };
+    this.#buffer.copyWithin(0, end + 1, this.#held);
+    this.#held -= end + 1;
+    return result;
   }
 
   /** Sends SIGKILL to the whole process group; a group that is already gone is fine. */
@@ -237,17 +281,6 @@ export class GroupProcess {
       // already closed
     }
   }
-}
-
-function concat(chunks: Uint8Array[], size: number): Uint8Array {
-  if (chunks.length === 1) return chunks[0];
-  const out = new Uint8Array(size);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.length;
-  }
-  return out;
 }
 
 /** Waits for a promise at most `ms` milliseconds; returns `undefined` on timeout. */
