@@ -26,7 +26,7 @@ The ghost treatment is first order locally at the boundary cells but the scheme 
 import numpy as np
 import scipy.sparse as sp
 
-from vertex import upwind_forward
+from vertex import stencil
 
 
 def _face_relation(bcside):
@@ -44,28 +44,9 @@ def assemble(problem, upwind=False):
     (x0, x1, y0, y1) = problem["domain"]
     nx, ny = problem["nx"], problem["ny"]
     hx, hy = (x1 - x0) / nx, (y1 - y0) / ny
-    a, b, c, d, e = (problem[k] for k in ("a", "b", "c", "d", "e"))
     bc = problem["boundary"]
-
-    cw = a / hx**2
-    ce = a / hx**2
-    cs = c / hy**2
-    cn = c / hy**2
-    cc = -2 * a / hx**2 - 2 * c / hy**2 + e
-    if upwind:
-        fx = upwind_forward(b, a)
-        fy = upwind_forward(d, c)
-        ce = ce + np.where(fx, b / hx, 0.0)
-        cw = cw - np.where(fx, 0.0, b / hx)
-        cc = cc + np.where(fx, -b / hx, b / hx)
-        cn = cn + np.where(fy, d / hy, 0.0)
-        cs = cs - np.where(fy, 0.0, d / hy)
-        cc = cc + np.where(fy, -d / hy, d / hy)
-    else:
-        cw = cw - b / (2 * hx)
-        ce = ce + b / (2 * hx)
-        cs = cs - d / (2 * hy)
-        cn = cn + d / (2 * hy)
+    # the same 5-point interior weights as the vertex scheme (at cell centres instead of nodes)
+    cc, cw, ce, cs, cn = stencil(problem, upwind)
     rhs = problem["f"].astype(float).copy()
 
     # ghost = (g - (alpha/2 - beta/h)*u_P) / (alpha/2 + beta/h), the same on every side.
