@@ -52,7 +52,13 @@ export function buildStudies(
       const mine = records.filter((r) => r.caseId === kase.id && r.solver === solver.info.name);
       if (mine.length === 0) continue;
       const expected = kase.expected[solver.info.scheme];
-      const study = buildStudy(mine, {
+      // Grids the solver declined (not applicable, e.g. beyond its largest grid) leave the
+      // sequence: the study judges the grids it did solve, and says which it did not.
+      const declined = mine.filter((r) => r.status === "not-applicable");
+      const judged = declined.length < mine.length
+        ? mine.filter((r) => !declined.includes(r))
+        : mine;
+      const study = buildStudy(judged, {
         caseId: kase.id,
         solver: solver.info.name,
         expected,
@@ -62,14 +68,33 @@ export function buildStudies(
         exactTolerance: { rel: exactnessBound(options.tolerance), abs: 1e-12 },
         quantities,
       });
-      if (mine.every((r) => r.status === "not-applicable")) {
+      const base = { caseId: kase.id, solver: solver.info.name, criterion: "applicability" };
+      if (declined.length === mine.length) {
         study.verdicts = [{
-          caseId: kase.id,
-          solver: solver.info.name,
-          criterion: "applicability",
+          ...base,
           status: "not-applicable",
           reason: mine[0].reason ?? "the solver does not handle this case",
         }];
+      } else if (declined.length > 0) {
+        const grids = declined.map((r) => `${r.nx}×${r.ny}`).join(", ");
+        const few = judged.length < 3;
+        study.verdicts.push({
+          ...base,
+          status: few ? "not-applicable" : "warn",
+          reason: `the solver declined ${grids} (${declined[0].reason ?? "not applicable"}); ` +
+            (few
+              ? `only ${judged.length} grid${
+                judged.length === 1 ? "" : "s"
+              } remain, too few to judge an order`
+              : `judged on the ${judged.length} grids it solved`),
+        });
+        if (few) {
+          study.verdicts = study.verdicts.map((v) =>
+            v.criterion === "order" || v.criterion === "boundary-order"
+              ? { ...v, status: "not-applicable", reason: `too few grids solved: ${v.reason}` }
+              : v
+          );
+        }
       }
       const agreement = solver.info.scheme === referenceScheme
         ? agreementVerdict(kase, solver, mine, references)

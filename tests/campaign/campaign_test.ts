@@ -8,7 +8,7 @@ import { loadCase } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { runCampaign } from "../../harness/campaign/campaign.ts";
 import { createPooledReferenceSolver } from "../../harness/campaign/reference_pool.ts";
-import { createReferenceSolver, type Solver } from "../../harness/solvers/mod.ts";
+import { createReferenceSolver, emptyOutcome, type Solver } from "../../harness/solvers/mod.ts";
 
 /**
  * A defective variant of the reference solver: the east side's Dirichlet data are taken half a
@@ -130,4 +130,38 @@ Deno.test("check: a case's own order tolerance takes precedence over the campaig
   const order = study.verdicts.filter((v) => v.criterion === "order");
   assert.equal(order.length, 3);
   assert.ok(order.every((v) => v.status === "pass"), JSON.stringify(order));
+});
+
+Deno.test("check: grids a solver declines leave the sequence, and the study says so", async () => {
+  const kase = await loadCase("smooth-baseline");
+  const inner = createReferenceSolver({ name: "small-only" });
+  // a solver whose largest grid is 64 (as an external solver declares in its hello)
+  const smallOnly: Solver = {
+    info: { ...inner.info, kind: "external", name: "small-only" },
+    solve: (task) =>
+      task.nx > 64
+        ? Promise.resolve(
+          emptyOutcome("not-applicable", "largest grid 64×64", {
+            layout: "vertex",
+            nx: task.nx,
+            ny: task.ny,
+          }),
+        )
+        : inner.solve(task),
+    close: () => inner.close(),
+  };
+  const result = await runCampaign([kase], [smallOnly], { grids: [16, 32, 64, 128] });
+  const study = result.studies[0];
+  assert.deepEqual(study.grids, [16, 32, 64]);
+  // order 2 of the central scheme (derived) on the grids it solved
+  assert.ok(
+    study.verdicts.filter((v) => v.criterion === "order").every((v) => v.status === "pass"),
+  );
+  const applicability = study.verdicts.find((v) => v.criterion === "applicability");
+  assert.equal(applicability?.status, "warn");
+  assert.match(
+    applicability!.reason,
+    /declined 128×128 \(largest grid 64×64\); judged on the 3 grids/,
+  );
+  assert.equal(result.summary.exitCode, 0);
 });
