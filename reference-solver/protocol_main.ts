@@ -93,6 +93,31 @@ function toProblem(p: SampledProblem): Problem {
   };
 }
 
+/**
+ * Anisotropy above which the program relaxes by alternating zebra lines instead of red–black
+ * Gauss–Seidel. Point smoothers lose their smoothing as the coupling ratio grows (LFA, Trottenberg
+ * et al. 2001: μ → 1 as ε → 0 for ε·u_xx + u_yy), while alternating line relaxation stays robust
+ * for any ratio; at 10 a point smoother still converges but noticeably slower (common practice).
+ */
+export const ANISOTROPY_FOR_LINES = 10;
+
+/**
+ * The smoother for a problem: "alternating-line" when the stencil's couplings are anisotropic
+ * somewhere — max over nodes of a·hy²/(c·hx²) or its inverse above {@link ANISOTROPY_FOR_LINES} —
+ * else "red-black". A request carries no advice, so the program decides from the coefficients (the
+ * in-process path uses the case's own advice).
+ */
+export function smootherFor(problem: Problem): "alternating-line" | "red-black" {
+  const hx = (problem.domain.x1 - problem.domain.x0) / problem.nx;
+  const hy = (problem.domain.y1 - problem.domain.y0) / problem.ny;
+  const scale = (hy * hy) / (hx * hx);
+  for (let k = 0; k < problem.a.length; k++) {
+    const ratio = (problem.a[k] * scale) / problem.c[k];
+    if (ratio > ANISOTROPY_FOR_LINES || ratio < 1 / ANISOTROPY_FOR_LINES) return "alternating-line";
+  }
+  return "red-black";
+}
+
 /** One line of input: its message when it was parsed on the way, else its text. */
 type Line = ParsedMessage | string;
 
@@ -134,7 +159,9 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
     });
   }
   try {
-    const result = solve(toProblem(problem), {
+    const discrete = toProblem(problem);
+    const result = solve(discrete, {
+      smoother: { name: smootherFor(discrete) },
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
     });
