@@ -8,6 +8,7 @@
  * @module
  */
 import assert from "node:assert/strict";
+import { runWithInput } from "../testing/mod.ts";
 
 /** A hand-written exact solution with its first and second derivatives. */
 export interface Exact {
@@ -246,21 +247,9 @@ export async function runExample(
   cwd: string | URL,
   input: string,
 ): Promise<RunOutcome> {
-  const child = new Deno.Command(command[0], {
-    args: command.slice(1),
-    cwd,
-    stdin: "piped",
-    stdout: "piped",
-    stderr: "piped",
-  }).spawn();
-  const writer = child.stdin.getWriter();
-  await writer.write(new TextEncoder().encode(input));
-  await writer.close();
-  const out = await child.output();
-  const stdout = new TextDecoder().decode(out.stdout);
-  const stderr = new TextDecoder().decode(out.stderr);
+  const { code, stdout, stderr } = await runWithInput(command, input, { cwd });
   const replies = stdout.split("\n").filter((l) => l.trim() !== "").map((l) => JSON.parse(l));
-  return { code: out.code, stdout, stderr, replies };
+  return { code, stdout, stderr, replies };
 }
 
 /** Largest |a_k − b_k| over max(1, max |b_k|). */

@@ -52,3 +52,4 @@ export async function findScipyPython(): Promise<string | undefined> {
 
 export { mulberry32, normalDeviates } from "./random.ts";
 export { CLI_PERMISSIONS, type CliRun, runGridproof } from "./cli.ts";
+export { type InputRun, runWithInput } from "./run_with_input.ts";

@@ -24,9 +24,8 @@ The ghost treatment is first order locally at the boundary cells but the scheme 
 """
 
 import numpy as np
-import scipy.sparse as sp
 
-from vertex import stencil
+from vertex import csr_from_stencil, stencil
 
 
 def _face_relation(bcside):
@@ -69,18 +68,5 @@ def assemble(problem, upwind=False):
         rhs[where] -= wg * g / den
         ghost_w[where] = 0.0
 
-    n = nx * ny
-    idx = np.arange(n).reshape(ny, nx)
-    rows, cols, vals = [idx.ravel()], [idx.ravel()], [cc.ravel()]
-    for w, di, dj in ((cw, -1, 0), (ce, 1, 0), (cs, 0, -1), (cn, 0, 1)):
-        jj, ii = np.nonzero(w)
-        ok = (ii + di >= 0) & (ii + di < nx) & (jj + dj >= 0) & (jj + dj < ny)
-        if not np.all(ok):
-            raise AssertionError("a stencil weight points outside the grid after folding")
-        rows.append(idx[jj, ii])
-        cols.append(idx[jj + dj, ii + di])
-        vals.append(w[jj, ii])
-    A = sp.csr_matrix(
-        (np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=(n, n)
-    )
+    A = csr_from_stencil(cc, cw, ce, cs, cn)
     return A, rhs.ravel()

@@ -93,6 +93,27 @@ def stencil(problem, upwind=False):
     return cc, cw, ce, cs, cn
 
 
+def csr_from_stencil(cc, cw, ce, cs, cn):
+    """The sparse matrix of a 5-point stencil given as five (rows, columns) weight arrays, points
+    numbered x fastest. Every non-zero off-diagonal weight must point inside the array (boundary
+    ghosts already folded in); the vertex and the cell-centred assemblies share this."""
+    ny, nx = cc.shape
+    n = nx * ny
+    idx = np.arange(n).reshape(ny, nx)
+    rows, cols, vals = [idx.ravel()], [idx.ravel()], [cc.ravel()]
+    for w, di, dj in ((cw, -1, 0), (ce, 1, 0), (cs, 0, -1), (cn, 0, 1)):
+        jj, ii = np.nonzero(w)
+        ok = (ii + di >= 0) & (ii + di < nx) & (jj + dj >= 0) & (jj + dj < ny)
+        if not np.all(ok):
+            raise AssertionError("a stencil weight points outside the grid after folding")
+        rows.append(idx[jj, ii])
+        cols.append(idx[jj + dj, ii + di])
+        vals.append(w[jj, ii])
+    return sp.csr_matrix(
+        (np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=(n, n)
+    )
+
+
 def _robin(bcside):
     """(alpha, beta) of a Neumann or Robin side (Neumann is alpha = 0, beta = 1)."""
     if bcside["kind"] == "neumann":
@@ -137,20 +158,7 @@ def assemble(problem, upwind=False, defect=None):
     cc[mask], cw[mask], ce[mask], cs[mask], cn[mask] = 1.0, 0.0, 0.0, 0.0, 0.0
     rhs[mask] = dvals[mask]
 
-    n = (nx + 1) * (ny + 1)
-    idx = np.arange(n).reshape(ny + 1, nx + 1)
-    rows, cols, vals = [idx.ravel()], [idx.ravel()], [cc.ravel()]
-    for w, di, dj in ((cw, -1, 0), (ce, 1, 0), (cs, 0, -1), (cn, 0, 1)):
-        jj, ii = np.nonzero(w)
-        ok = (ii + di >= 0) & (ii + di <= nx) & (jj + dj >= 0) & (jj + dj <= ny)
-        if not np.all(ok):
-            raise AssertionError("a stencil weight points outside the grid after folding")
-        rows.append(idx[jj, ii])
-        cols.append(idx[jj + dj, ii + di])
-        vals.append(w[jj, ii])
-    A = sp.csr_matrix(
-        (np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=(n, n)
-    )
+    A = csr_from_stencil(cc, cw, ce, cs, cn)
     return A, rhs.ravel()
 
 

@@ -1,20 +1,8 @@
 import assert from "node:assert/strict";
+import { restoreBase64 } from "./_restore_test_helper.ts";
 import { encodeArray } from "./encoding.ts";
 import { LineScanner } from "./line_scanner.ts";
 import { messageBytes } from "./message_bytes.ts";
-
-/** Replaces decoded arrays by their base64 text again, to compare with JSON.parse. */
-function restore(v: unknown, decoded: Map<string, Float64Array>): unknown {
-  if (v === null || typeof v !== "object") return v;
-  if (Array.isArray(v)) return v.map((x) => restore(x, decoded));
-  const out: Record<string, unknown> = {};
-  for (const [k, x] of Object.entries(v)) {
-    out[k] = k === "base64" && typeof x === "string" && decoded.has(x)
-      ? (encodeArray(decoded.get(x)!, "base64") as { base64: string }).base64
-      : restore(x, decoded);
-  }
-  return out;
-}
 
 /** A small deterministic generator (Park–Miller) for the sizes of the pieces that arrive. */
 function pieces(seed: number): () => number {
@@ -63,7 +51,11 @@ Deno.test("LineScanner finds each line and parses it as JSON.parse does, however
       const parsed = scanner.finish(line);
       if (parsed === undefined) continue;
       fast++;
-      assert.deepEqual(restore(parsed.value, parsed.decoded), JSON.parse(text), text.slice(0, 60));
+      assert.deepEqual(
+        restoreBase64(parsed.value, parsed.decoded),
+        JSON.parse(text),
+        text.slice(0, 60),
+      );
     }
   }
   // the messages written by messageBytes, the escaped-quote and the U+2028 lines take the fast way

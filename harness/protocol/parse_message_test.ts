@@ -1,19 +1,7 @@
 import assert from "node:assert/strict";
+import { restoreBase64 } from "./_restore_test_helper.ts";
 import { decodeArray, encodeArray } from "./encoding.ts";
 import { parseMessage } from "./parse_message.ts";
-
-/** Replaces decoded arrays by their base64 text again, to compare with JSON.parse. */
-function restore(v: unknown, decoded: Map<string, Float64Array>): unknown {
-  if (v === null || typeof v !== "object") return v;
-  if (Array.isArray(v)) return v.map((x) => restore(x, decoded));
-  const out: Record<string, unknown> = {};
-  for (const [k, x] of Object.entries(v)) {
-    out[k] = k === "base64" && typeof x === "string" && decoded.has(x)
-      ? (encodeArray(decoded.get(x)!, "base64") as { base64: string }).base64
-      : restore(x, decoded);
-  }
-  return out;
-}
 
 const ONE = "AAAAAAAA8D8="; // derived: little-endian float64 1.0 (see encoding_test.ts)
 
@@ -39,7 +27,7 @@ Deno.test("parseMessage() gives what JSON.parse gives, with base64 decoded on th
     await t.step(what, () => {
       const { value, decoded } = parseMessage(text);
       assert.equal(decoded.size, count);
-      assert.deepEqual(restore(value, decoded), JSON.parse(text));
+      assert.deepEqual(restoreBase64(value, decoded), JSON.parse(text));
     });
   }
 });

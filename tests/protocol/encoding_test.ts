@@ -1,7 +1,7 @@
 import assert from "node:assert/strict";
 import { Buffer } from "node:buffer";
 import { decodeArray, encodeArray } from "../../harness/protocol/mod.ts";
-import { findScipyPython } from "../../testing/mod.ts";
+import { findScipyPython, runWithInput } from "../../testing/mod.ts";
 
 // Values with awkward bit patterns: signed zero, subnormal, extremes, non-terminating decimals.
 const SAMPLES = new Float64Array([
@@ -73,16 +73,8 @@ Deno.test("base64 agrees with Python's struct '<d' (little-endian float64) in bo
     "print(json.dumps([v.hex() for v in vals]))",
     "print(base64.b64encode(struct.pack('<%dd' % len(vals), *vals)).decode())",
   ].join("\n");
-  const child = new Deno.Command(python, {
-    args: ["-c", script],
-    stdin: "piped",
-    stdout: "piped",
-  }).spawn();
-  const writer = child.stdin.getWriter();
-  await writer.write(new TextEncoder().encode(wire.base64));
-  await writer.close();
-  const out = await child.output();
-  const [hexLine, backLine] = new TextDecoder().decode(out.stdout).trim().split("\n");
+  const out = await runWithInput([python, "-c", script], wire.base64);
+  const [hexLine, backLine] = out.stdout.trim().split("\n");
   await t.step("Python reads the same numbers (compared as exact hex floats)", () => {
     const hex: string[] = JSON.parse(hexLine);
     for (let k = 0; k < SAMPLES.length; k++) {

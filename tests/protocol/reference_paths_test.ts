@@ -10,6 +10,7 @@ import {
   type SolveOutcome,
 } from "../../harness/solvers/mod.ts";
 import { testCase } from "./_case.ts";
+import { runWithInput } from "../../testing/mod.ts";
 
 const root = new URL("../../", import.meta.url).pathname;
 
@@ -81,17 +82,12 @@ Deno.test("the protocol program reproduces u = x² + y² exactly from the canned
       new URL("testdata/protocol/transcripts/vertex-2x2-once.json", `file://${root}`),
     ),
   );
-  const child = new Deno.Command(Deno.execPath(), {
-    args: ["run", "--quiet", "reference-solver/protocol_main.ts"],
-    cwd: root,
-    stdin: "piped",
-    stdout: "piped",
-  }).spawn();
-  const writer = child.stdin.getWriter();
-  await writer.write(new TextEncoder().encode(JSON.stringify(t.request)));
-  await writer.close();
-  const out = await child.output();
-  const reply = JSON.parse(new TextDecoder().decode(out.stdout));
+  const out = await runWithInput(
+    [Deno.execPath(), "run", "--quiet", "reference-solver/protocol_main.ts"],
+    JSON.stringify(t.request),
+    { cwd: root },
+  );
+  const reply = JSON.parse(out.stdout);
   assert.equal(reply.id, t.request.id);
   // derived: the 5-point stencil and the central ghost-node Neumann/Robin closures are exact
   // for quadratics, so the discrete solution equals x² + y² at the nodes up to round-off

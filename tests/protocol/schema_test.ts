@@ -11,6 +11,19 @@ import {
 import { sampleCase } from "../../harness/solvers/mod.ts";
 import { testCase } from "./_case.ts";
 
+/** A request for a 2×4 vertex grid of the test case, in plain numbers. */
+function smallRequest(c: ReturnType<typeof testCase>) {
+  return buildSolveRequest(sampleCase(c, 2, 4, "vertex"), {
+    id: "r",
+    caseId: c.id,
+    expressions: { ...c.formulas },
+    scheme: "central",
+    tolerance: 1e-10,
+    timeLimitSeconds: 5,
+    encoding: "numbers",
+  });
+}
+
 const transcriptsDir = new URL("../../testdata/protocol/transcripts/", import.meta.url);
 
 Deno.test("the canned once-mode transcript is valid and decodes to the values written by Python", async () => {
@@ -94,15 +107,7 @@ Deno.test("validateMessage() names missing fields and wrong constants", async (t
   });
   await t.step("a robin side without alpha", () => {
     const c = testCase();
-    const message = buildSolveRequest(sampleCase(c, 2, 4, "vertex"), {
-      id: "r",
-      caseId: c.id,
-      expressions: { ...c.formulas },
-      scheme: "central",
-      tolerance: 1e-10,
-      timeLimitSeconds: 5,
-      encoding: "numbers",
-    }) as unknown as { boundary: { south: Record<string, unknown> } };
+    const message = smallRequest(c) as unknown as { boundary: { south: Record<string, unknown> } };
     delete message.boundary.south.alpha;
     assert.deepEqual(validateMessage("solve", message), [
       '/boundary/south: missing field "alpha"',
@@ -120,15 +125,7 @@ Deno.test("validateMessage() names missing fields and wrong constants", async (t
 
 Deno.test("readSolveRequest() refuses another protocol version and wrong array lengths", async (t) => {
   const c = testCase();
-  const message = buildSolveRequest(sampleCase(c, 2, 4, "vertex"), {
-    id: "r",
-    caseId: c.id,
-    expressions: { ...c.formulas },
-    scheme: "central",
-    tolerance: 1e-10,
-    timeLimitSeconds: 5,
-    encoding: "numbers",
-  });
+  const message = smallRequest(c);
   await t.step("version", () => {
     assert.throws(
       () => readSolveRequest(JSON.stringify({ ...message, protocol: "gridproof-protocol/2" })),

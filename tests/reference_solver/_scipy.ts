@@ -6,6 +6,7 @@
  */
 import { fileURLToPath } from "node:url";
 import type { Problem } from "../../reference-solver/mod.ts";
+import { runWithInput } from "../../testing/mod.ts";
 
 const SCRIPT = fileURLToPath(new URL("./scipy_reference.py", import.meta.url));
 
@@ -36,21 +37,12 @@ export async function scipySolve(
     boundary,
     upwind: options.upwind ?? false,
   });
-  const child = new Deno.Command(python, {
-    args: [SCRIPT],
-    stdin: "piped",
-    stdout: "piped",
-    stderr: "piped",
-  }).spawn();
-  const writer = child.stdin.getWriter();
-  await writer.write(new TextEncoder().encode(input));
-  await writer.close();
-  const out = await child.output();
+  const out = await runWithInput([python, SCRIPT], input);
   if (!out.success) {
     throw new Error(
-      `scipy_reference.py failed (exit ${out.code}): ${new TextDecoder().decode(out.stderr)}`,
+      `scipy_reference.py failed (exit ${out.code}): ${out.stderr}`,
     );
   }
-  const reply = JSON.parse(new TextDecoder().decode(out.stdout));
+  const reply = JSON.parse(out.stdout);
   return { solution: Float64Array.from(reply.solution), scipy: reply.scipy };
 }
