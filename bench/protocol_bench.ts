@@ -33,6 +33,7 @@ import {
 import {
   createExternalSolver,
   createReferenceSolver,
+  expressionTexts,
   sampleCase,
   type Solver,
   type SolveTask,
@@ -98,7 +99,6 @@ function readLine<T>(
   const [requestSink, replySink] = [new Sink(), new Sink()];
   const n = 1024;
   const sampled = sampleCase(compiled, n, n, "vertex");
-  const f = compiled.formulas;
   const solution = compiled.sampleExact(n, n);
   console.log(`# encode/decode at n = ${n} (${(n + 1) ** 2} nodes), median of 3`);
   console.log(
@@ -113,15 +113,7 @@ function readLine<T>(
         requestSink.collect(solveRequestBytes(sampled, {
           id: "bench",
           caseId: compiled.id,
-          expressions: {
-            a: f.a,
-            b: f.b,
-            c: f.c,
-            d: f.d,
-            e: f.e,
-            source: f.source,
-            boundary: f.boundary,
-          },
+          expressions: expressionTexts(compiled.formulas),
           scheme: "central",
           tolerance: 1e-10,
           timeLimitSeconds: 60,

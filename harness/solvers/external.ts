@@ -22,7 +22,7 @@ import { SIDES } from "../../reference-solver/mod.ts";
 import { describeExit, GroupProcess, within } from "./process.ts";
 import { resolveProgram } from "./resolve_command.ts";
 import { emptyOutcome, solutionOutcome, stderrGist } from "./outcome.ts";
-import { sampleCase } from "./sample.ts";
+import { expressionTexts, sampleCase } from "./sample.ts";
 import type { ExternalSolverSpec, SolveOutcome, Solver, SolveTask } from "./types.ts";
 
 /** Longest wait for a session's `ready` answer. */
@@ -204,20 +204,11 @@ class Runner {
     let request: MessageBytes;
     try {
       const sampled = sampleCase(task.case, task.nx, task.ny, layout);
-      const f = task.case.formulas;
       request = solveRequestBytes(sampled, {
         id,
         caseId: task.case.id,
         caseTitle: task.case.title,
-        expressions: {
-          a: f.a,
-          b: f.b,
-          c: f.c,
-          d: f.d,
-          e: f.e,
-          source: f.source,
-          boundary: { ...f.boundary },
-        },
+        expressions: expressionTexts(task.case.formulas),
         scheme: task.scheme,
         tolerance: task.tolerance,
         timeLimitSeconds: limitSeconds,

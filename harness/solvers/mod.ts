@@ -28,7 +28,7 @@ export { createReferenceSolver, type ReferenceSolverOptions } from "./reference.
 export { emptyOutcome } from "./outcome.ts";
 export { createExternalSolver, type ExternalSolverOptions } from "./external.ts";
 export { loadSolverFile } from "./solver_file.ts";
-export { sampleCase } from "./sample.ts";
+export { expressionTexts, sampleCase } from "./sample.ts";
 export { freePoints, gridPoints, type LayoutPoints } from "./geometry.ts";
 export { resolveProgram } from "./resolve_command.ts";
 export { PROBE_ERROR_LIMIT, type ProbeCheck, type ProbeReport, probeSolver } from "./probe.ts";

@@ -7,7 +7,7 @@
  */
 import type { CompiledCase, PointFn } from "../../cases/types.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
-import type { SampledProblem, SampledSide, SideName } from "../protocol/mod.ts";
+import type { ExpressionTexts, SampledProblem, SampledSide, SideName } from "../protocol/mod.ts";
 
 /**
  * Samples a case for a request on the given layout.
@@ -118,4 +118,16 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
     source: f,
     boundary,
   };
+}
+
+/**
+ * The expressions a request carries for solvers that evaluate them: the operator, the source and
+ * the boundary data — never the exact solution (docs/protocol.md).
+ *
+ * @param formulas a compiled case's formulas
+ * @returns the expression texts of a solve request
+ */
+export function expressionTexts(formulas: CompiledCase["formulas"]): ExpressionTexts {
+  const { a, b, c, d, e, source } = formulas;
+  return { a, b, c, d, e, source, boundary: { ...formulas.boundary } };
 }

@@ -8,7 +8,7 @@ import {
   serializeMessage,
   validateMessage,
 } from "../../harness/protocol/mod.ts";
-import { sampleCase } from "../../harness/solvers/mod.ts";
+import { expressionTexts, sampleCase } from "../../harness/solvers/mod.ts";
 import { testCase } from "./_case.ts";
 
 /** A request for a 2×4 vertex grid of the test case, in plain numbers. */
@@ -16,7 +16,7 @@ function smallRequest(c: ReturnType<typeof testCase>) {
   return buildSolveRequest(sampleCase(c, 2, 4, "vertex"), {
     id: "r",
     caseId: c.id,
-    expressions: { ...c.formulas },
+    expressions: expressionTexts(c.formulas),
     scheme: "central",
     tolerance: 1e-10,
     timeLimitSeconds: 5,
@@ -57,7 +57,7 @@ Deno.test("a request built from a case matches the schema in both encodings and 
         const message = buildSolveRequest(sampled, {
           id: "r",
           caseId: c.id,
-          expressions: { ...c.formulas },
+          expressions: expressionTexts(c.formulas),
           scheme: "central",
           tolerance: 1e-10,
           timeLimitSeconds: 5,
@@ -70,6 +70,8 @@ Deno.test("a request built from a case matches the schema in both encodings and 
         assert.deepEqual(back.source, sampled.source);
         assert.deepEqual(back.coefficients.a, sampled.coefficients.a);
         assert.deepEqual(back.boundary.south, sampled.boundary.south);
+        // docs/protocol.md: the exact solution of a case is never sent
+        assert.equal(Object.hasOwn(JSON.parse(text).expressions, "exact"), false);
       });
     }
   }
