@@ -20,6 +20,7 @@
  *
  * @module
  */
+import { fileURLToPath } from "node:url";
 import { loadCase } from "../cases/mod.ts";
 import {
   LineScanner,
@@ -42,7 +43,7 @@ import {
 const quick = Deno.args.includes("--quick");
 /** Timed runs of each path at each size (the best counts). */
 const REPEATS = quick ? 3 : 5;
-const root = new URL("../", import.meta.url).pathname;
+const root = fileURLToPath(new URL("../", import.meta.url));
 const compiled = await loadCase("smooth-baseline");
 
 function median(xs: number[]): number {

@@ -4,6 +4,7 @@
  *
  * @module
  */
+import { fileURLToPath } from "node:url";
 
 /** Exit code, standard output and standard error of one run. */
 export interface CliRun {
@@ -21,7 +22,7 @@ export const CLI_PERMISSIONS = [
   "--allow-sys",
 ];
 
-const ROOT = new URL("../", import.meta.url).pathname;
+const ROOT = fileURLToPath(new URL("../", import.meta.url));
 
 /**
  * Runs `cli.ts` with `args` (NO_COLOR set) and waits for it.

@@ -141,10 +141,9 @@ export async function selectSolvers(
   const all: Solver[] = [reference];
   if (flags.solvers !== undefined) {
     const specs = await loadSolverFile(flags.solvers);
-    const dir = flags.solvers.includes("/")
-      ? flags.solvers.slice(0, flags.solvers.lastIndexOf("/"))
-      : ".";
-    for (const spec of specs) all.push(createExternalSolver(spec, { solverFileDir: dir }));
+    for (const spec of specs) {
+      all.push(createExternalSolver(spec, { solverFileDir: spec.solverFileDir }));
+    }
   }
   if (flags.solver === undefined) return all;
   const wanted = flags.solver.split(",").map((s) => s.trim()).filter((s) => s !== "");

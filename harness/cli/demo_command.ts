@@ -8,6 +8,7 @@
  *
  * @module
  */
+import { fileURLToPath } from "node:url";
 import type { Command } from "commander";
 import { loadLibrary } from "../../cases/mod.ts";
 import { runCampaign } from "../campaign/campaign.ts";
@@ -128,11 +129,11 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
       "gridproof's reference multigrid solver on every built-in manufactured-solution case.\n",
   );
   const cases = await loadLibrary();
-  const specs = await loadSolverFile(SOLVER_FILE.pathname);
-  const dir = new URL(".", SOLVER_FILE).pathname;
+  // fileURLToPath, not .pathname: a folder name with spaces or non-ASCII letters stays intact
+  const specs = await loadSolverFile(fileURLToPath(SOLVER_FILE));
   const solvers: Solver[] = [
     createPooledReferenceSolver({ workers: jobs }),
-    ...specs.map((spec) => createExternalSolver(spec, { solverFileDir: dir })),
+    ...specs.map((spec) => createExternalSolver(spec, { solverFileDir: spec.solverFileDir })),
   ];
   let result: CampaignResult;
   try {
