@@ -15,7 +15,7 @@ import type { CaseFile, CaseProblem } from "./case_file.ts";
 import { formatProblem } from "./case_file.ts";
 import { compileExpr, compileRowSampler } from "./compile.ts";
 import { deriveTrees, isZeroTree } from "./derive.ts";
-import { type Expr, parseExpression, pointAt, toExpr } from "./expression.ts";
+import { type Expr, involvesNoPoint, parseExpression, pointAt, toExpr } from "./expression.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import type { CaseBoundary, CaseFormulas, CompiledCase, ExpectedOrder } from "./types.ts";
 
@@ -177,6 +177,12 @@ function assemble(
   const problemSampler = compileRowSampler([...coefficientExprs, sourceExpr]);
   const exactSampler = compileRowSampler([exactExpr]);
   const [a, b, c, d, e] = coefficientExprs.map(compileExpr);
+  const constantCoefficients: CompiledCase["constantCoefficients"] = {};
+  COEFFICIENTS.forEach((name, k) => {
+    if (involvesNoPoint(coefficientExprs[k])) {
+      constantCoefficients[name] = [a, b, c, d, e][k](0, 0);
+    }
+  });
   const boundary = {} as Record<Side, CaseBoundary>;
   for (const side of SIDES) {
     const spec = caseFile.boundary[side];
@@ -253,6 +259,7 @@ function assemble(
     exactDx: compileExpr(expr(derived.ux)),
     exactDy: compileExpr(expr(derived.uy)),
     coefficients: { a, b, c, d, e },
+    constantCoefficients,
     source: compileExpr(sourceExpr),
     boundary,
     get formulas() {

@@ -300,3 +300,18 @@ export function toExpr(node: MathNode, values: Readonly<Record<string, number>>)
   };
   return convert(node);
 }
+
+/**
+ * true when an expression tree involves neither x nor y (its value is the same at every point).
+ *
+ * @example
+ * ```ts
+ * import { involvesNoPoint } from "./expression.ts";
+ * involvesNoPoint({ kind: "number", value: 2 }); // true
+ * ```
+ */
+export function involvesNoPoint(expr: Expr): boolean {
+  if (expr.kind === "variable") return false;
+  if (expr.kind === "number") return true;
+  return expr.args.every(involvesNoPoint);
+}

@@ -1,5 +1,6 @@
 import assert from "node:assert/strict";
 import { buildCase } from "./engine.ts";
+import { loadLibrary } from "./load.ts";
 import { testCase } from "./_test_case.ts";
 
 Deno.test("sample() lays nodes out x fastest with boundary values ordered by increasing coordinate", async () => {
@@ -80,4 +81,23 @@ Deno.test("sampleAsync() split across threads gives exactly the numbers of the s
     assert.deepEqual(parallel[f], sync[f], f);
   }
   assert.ok(parallel.f.buffer instanceof SharedArrayBuffer);
+});
+
+Deno.test("constantCoefficients names exactly the coefficients that hold one value on the grid", async () => {
+  // exact identity: a named coefficient equals its value at every node; an unnamed one varies
+  for (const c of await loadLibrary()) {
+    const p = c.sample(12, 12);
+    for (const k of ["a", "b", "c", "d", "e"] as const) {
+      const named = c.constantCoefficients[k];
+      const varies = p[k].some((v) => v !== p[k][0]);
+      if (named === undefined) {
+        assert.ok(varies, `${c.id}: ${k} = ${c.formulas[k]} is constant but not named`);
+      } else {
+        assert.ok(p[k].every((v) => v === named), `${c.id}: ${k} is named ${named}`);
+      }
+    }
+  }
+  const smooth = (await loadLibrary()).find((c) => c.id === "smooth-baseline")!;
+  // the case file's coefficients: a = 1, b = 0.5, c = 2, d = -0.75, e = -1
+  assert.deepEqual(smooth.constantCoefficients, { a: 1, b: 0.5, c: 2, d: -0.75, e: -1 });
 });

@@ -79,6 +79,11 @@ export interface CompiledCase {
   exactDx: PointFn;
   exactDy: PointFn;
   coefficients: { a: PointFn; b: PointFn; c: PointFn; d: PointFn; e: PointFn };
+  /**
+   * The coefficients whose expressions do not involve x or y, with their value (as the samplers
+   * write it at every point); a request may send such an array as one number.
+   */
+  constantCoefficients: Partial<Record<"a" | "b" | "c" | "d" | "e", number>>;
   source: PointFn;
   boundary: Record<Side, CaseBoundary>;
   formulas: CaseFormulas;

@@ -106,16 +106,29 @@ export const ANISOTROPY_FOR_LINES = 10;
  * somewhere — max over nodes of a·hy²/(c·hx²) or its inverse above {@link ANISOTROPY_FOR_LINES} —
  * else "red-black". A request carries no advice, so the program decides from the coefficients (the
  * in-process path uses the case's own advice).
+ *
+ * @param problem the problem
+ * @param options `uniform`: a and c are known to hold one value each (they came in the constant
+ *   form), so the first node decides (default false: every node is looked at)
  */
-export function smootherFor(problem: Problem): "alternating-line" | "red-black" {
+export function smootherFor(
+  problem: Problem,
+  options: { uniform?: boolean } = {},
+): "alternating-line" | "red-black" {
   const hx = (problem.domain.x1 - problem.domain.x0) / problem.nx;
   const hy = (problem.domain.y1 - problem.domain.y0) / problem.ny;
   const scale = (hy * hy) / (hx * hx);
-  for (let k = 0; k < problem.a.length; k++) {
+  const count = options.uniform ? Math.min(1, problem.a.length) : problem.a.length;
+  for (let k = 0; k < count; k++) {
     const ratio = (problem.a[k] * scale) / problem.c[k];
     if (ratio > ANISOTROPY_FOR_LINES || ratio < 1 / ANISOTROPY_FOR_LINES) return "alternating-line";
   }
   return "red-black";
+}
+
+/** true for an array sent as `{ constant, length }`. */
+function isConstantForm(wire: unknown): boolean {
+  return wire !== null && typeof wire === "object" && "constant" in wire;
 }
 
 /** One line of input: its message when it was parsed on the way, else its text. */
@@ -135,11 +148,17 @@ function field(line: Line, name: "id" | "type"): string | undefined {
   return typeof v === "string" ? v : undefined;
 }
 
+/**
+ * Buffers of arrays sent in the constant form, kept from request to request (one request is
+ * answered before the next is read, so the last request's arrays are free to overwrite).
+ */
+const keptConstants = new Map<string, Float64Array>();
+
 /** Answers one request with one reply line. */
 function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
   let read;
   try {
-    read = readSolveRequest(text);
+    read = readSolveRequest(text, { keptConstants });
   } catch (error) {
     const id = field(text, "id");
     return messageBytes({
@@ -160,8 +179,11 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
   }
   try {
     const discrete = toProblem(problem);
+    const c = message.coefficients;
     const result = solve(discrete, {
-      smoother: { name: smootherFor(discrete) },
+      smoother: {
+        name: smootherFor(discrete, { uniform: isConstantForm(c.a) && isConstantForm(c.c) }),
+      },
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
     });
@@ -302,6 +324,7 @@ async function serve(input: LineReader, forced: ArrayEncoding | undefined): Prom
       schemes: ["central", "upwind"],
       layouts: ["vertex"],
       encodings: ["numbers", "base64"],
+      constantArrays: true,
     },
   }));
   while (true) {

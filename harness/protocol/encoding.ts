@@ -75,6 +75,10 @@ export function encodeArray(
  * @param path JSON path of the array in its message, used in error messages
  * @param decoded arrays already decoded by `parseMessage`, by the text that stands for them
  *   (default: none)
+ * @param kept buffers for the constant form, by path: a constant array is filled into the buffer
+ *   kept under its path (made and kept when missing or of another length), so a stream of
+ *   requests of one size allocates it once; the array returned is then overwritten by the next
+ *   call with the same path (default: none, every constant array is fresh)
  * @returns the values (entries may be non-finite when they came from base64)
  * @throws RangeError naming the path when the array cannot be decoded
  *
@@ -88,6 +92,7 @@ export function decodeArray(
   wire: unknown,
   path: string,
   decoded?: ReadonlyMap<string, Float64Array>,
+  kept?: Map<string, Float64Array>,
 ): Float64Array {
   if (Array.isArray(wire)) {
     const out = new Float64Array(wire.length);
@@ -107,7 +112,12 @@ export function decodeArray(
         `${path}: a constant array needs a number "constant" and a whole "length"`,
       );
     }
-    return new Float64Array(length as number).fill(constant);
+    let out = kept?.get(path);
+    if (out === undefined || out.length !== length) {
+      out = new Float64Array(length as number);
+      kept?.set(path, out);
+    }
+    return out.fill(constant);
   }
   if (
     wire !== null && typeof wire === "object" &&

@@ -110,13 +110,32 @@ export function buildSolveRequest(
  */
 export function solveRequestBytes(problem: SampledProblem, details: RequestDetails): MessageBytes {
   const constants = details.constants ?? false;
+  const known = knownConstants(problem);
   // a Float64Array left in the message is written as base64 by messageBytes
   const lazy = (v: Float64Array): WireArray | Float64Array => {
-    const constant = constants ? constantForm(v) : undefined;
+    const constant = constants ? known.get(v) ?? constantForm(v) : undefined;
     if (constant) return constant;
     return details.encoding === "base64" ? v : Array.from(v);
   };
   return messageBytes(assembleRequest(problem, details, lazy));
+}
+
+/**
+ * The constant form of the coefficient arrays the problem names as constant, by array. A named
+ * value is trusted only when the array's first and last entries hold it (a cheap guard against a
+ * stale hint; the others are then looked at in full).
+ */
+function knownConstants(
+  problem: SampledProblem,
+): Map<Float64Array, { constant: number; length: number }> {
+  const known = new Map<Float64Array, { constant: number; length: number }>();
+  for (const [name, value] of Object.entries(problem.constantCoefficients ?? {})) {
+    const v = problem.coefficients[name as keyof SampledProblem["coefficients"]];
+    if (v.length > 0 && v[0] === value && v[v.length - 1] === value && Number.isFinite(value)) {
+      known.set(v, { constant: value, length: v.length });
+    }
+  }
+  return known;
 }
 
 /** The request message with each array written by `enc`. */
@@ -179,6 +198,9 @@ export interface ReadRequest {
  *
  * @param text the request text, or the request already parsed (by `parseMessage` or a
  *   `LineScanner`)
+ * @param options `keptConstants`: buffers kept from request to request for arrays sent in the
+ *   constant form, by path (see `decodeArray`); for a solver answering one request at a time, so
+ *   that constant coefficients do not cost fresh memory on every request (default: none)
  * @returns the decoded request
  * @throws RangeError listing every problem (an adapter answers it with an `error` reply)
  *
@@ -188,7 +210,10 @@ export interface ReadRequest {
  * const { problem } = readSolveRequest(await new Response(Deno.stdin.readable).text());
  * ```
  */
-export function readSolveRequest(text: string | ParsedMessage): ReadRequest {
+export function readSolveRequest(
+  text: string | ParsedMessage,
+  options: { keptConstants?: Map<string, Float64Array> } = {},
+): ReadRequest {
   let value: unknown;
   let decoded: ReadonlyMap<string, Float64Array>;
   try {
@@ -214,7 +239,7 @@ export function readSolveRequest(text: string | ParsedMessage): ReadRequest {
   const { nx, ny, layout } = message.grid;
   const count = layoutPointCount(layout, nx, ny);
   const read = (wire: WireArray, path: string, length: number) => {
-    const v = decodeArray(wire, path, decoded);
+    const v = decodeArray(wire, path, decoded, options.keptConstants);
     if (v.length !== length) {
       throw new RangeError(`${path}: has ${v.length} values, expected ${length}`);
     }

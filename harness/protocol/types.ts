@@ -71,6 +71,12 @@ export interface SampledProblem {
   };
   source: Float64Array;
   boundary: Record<SideName, SampledSide>;
+  /**
+   * Coefficients known to hold one value at every point (from the case's expressions), with
+   * that value: a request in the constant form sends them without looking at their arrays.
+   * Optional; arrays not named here are looked at.
+   */
+  constantCoefficients?: Partial<Record<"a" | "b" | "c" | "d" | "e", number>>;
 }
 
 /** The expressions of a case as text (mathjs syntax), for solvers that evaluate them. */
@@ -118,6 +124,11 @@ export interface Capabilities {
   layouts?: ("vertex" | "cell" | "points")[];
   encodings?: ArrayEncoding[];
   largestGrid?: { nx: number; ny: number };
+  /**
+   * true: the solver reads `{ constant, length }` arrays in requests, so constant coefficients
+   * are sent as one number (as the solver file's `constantArrays` asks for).
+   */
+  constantArrays?: boolean;
 }
 
 /** The `hello` message opening a session. */

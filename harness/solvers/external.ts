@@ -22,6 +22,7 @@ import { SIDES } from "../../reference-solver/mod.ts";
 import { describeExit, GroupProcess, within } from "./process.ts";
 import { resolveProgram } from "./resolve_command.ts";
 import { emptyOutcome, solutionOutcome, stderrGist } from "./outcome.ts";
+import { gridPoints, type LayoutPoints } from "./geometry.ts";
 import { expressionTexts, sampleCase } from "./sample.ts";
 import type { ExternalSolverSpec, SolveOutcome, Solver, SolveTask } from "./types.ts";
 
@@ -36,6 +37,12 @@ interface Prepared {
   request: MessageBytes;
   expect: ReplyExpectation;
   limitSeconds: number;
+  /**
+   * The points of the request's grid, made on first call and kept: called once the request is
+   * sent, so they are ready while the solver works (at a million nodes they take milliseconds
+   * the harness would otherwise spend after the reply).
+   */
+  points: () => LayoutPoints;
 }
 
 /** Options of {@link createExternalSolver}. */
@@ -85,6 +92,13 @@ export function createExternalSolver(
       counter++;
       const id = `${task.case.id}/${task.nx}x${task.ny}/${counter}`;
       const work = async (): Promise<SolveOutcome> => {
+        if (session) {
+          // the request's form depends on what the session declared, so start it first
+          const refusal = runner.applicability(task, session.capabilities);
+          if (refusal) return refusal;
+          const failed = await session.ensureStarted(task);
+          if (failed) return failed;
+        }
         const prepared = runner.prepare(task, id, session?.capabilities);
         if ("status" in prepared) return prepared;
         return session ? await session.solve(prepared) : await runner.runOnce(prepared);
@@ -213,7 +227,8 @@ class Runner {
         tolerance: task.tolerance,
         timeLimitSeconds: limitSeconds,
         encoding: spec.encoding,
-        constants: spec.constantArrays ?? false,
+        // the solver file decides when it says; else what the session declared (once: no)
+        constants: spec.constantArrays ?? caps?.constantArrays === true,
       });
     } catch (error) {
       return emptyOutcome(
@@ -222,11 +237,13 @@ class Runner {
         grid,
       );
     }
+    let points: LayoutPoints | undefined;
     return {
       task,
       request,
       limitSeconds,
       expect: { id, layout, nx: task.nx, ny: task.ny, domain: task.case.domain },
+      points: () => points ??= gridPoints(layout, task.case.domain, task.nx, task.ny),
     };
   }
 
@@ -264,6 +281,7 @@ class Runner {
     const left = () => deadline - performance.now();
     const writing = proc.write(p.request.pieces()).then(async (r) => {
       await proc.closeStdin();
+      if (!r.error) this.pointsMeanwhile(p);
       return r;
     });
     const finish = async (reason: string): Promise<SolveOutcome> => {
@@ -328,6 +346,14 @@ class Runner {
     return this.judge(new TextDecoder().decode(bytes), p, extra, {});
   }
 
+  /**
+   * Makes the grid's points while the harness waits for the solver (a solver on its own points
+   * replies with them instead, so nothing is made for it).
+   */
+  pointsMeanwhile(p: Prepared): void {
+    if (this.spec.layout !== "points") p.points();
+  }
+
   /** Turns a reply (its text, or its message parsed as it arrived) into an outcome. */
   judge(
     text: string | ParsedMessage,
@@ -346,7 +372,7 @@ class Runner {
       return emptyOutcome("failed", `the solver reported an error: ${reply.reason}`, grid, extra);
     }
     if (reply.type !== "solution") throw new TypeError(`unhandled reply type ${reply.type}`);
-    return solutionOutcome(reply, { ...p.expect }, { ...extra, description });
+    return solutionOutcome(reply, { ...p.expect }, { ...extra, description }, p.points);
   }
 }
 
@@ -405,16 +431,27 @@ class Session {
     return undefined;
   }
 
+  /**
+   * Starts the session unless it runs; returns a failed outcome when it cannot start, undefined
+   * when it is ready (call before building a request: the request's form follows the session's
+   * declared capabilities).
+   */
+  async ensureStarted(task: SolveTask): Promise<SolveOutcome | undefined> {
+    if (this.#proc) return undefined;
+    const why = await this.#start(task.timeLimitSeconds ?? this.runner.spec.timeLimitSeconds);
+    if (why === undefined) return undefined;
+    return emptyOutcome("failed", why, {
+      layout: this.runner.spec.layout,
+      nx: task.nx,
+      ny: task.ny,
+    });
+  }
+
+  /** Sends a prepared request to the running session (see {@link ensureStarted}) and reads the reply. */
   async solve(p: Prepared): Promise<SolveOutcome> {
     const grid = { layout: this.runner.spec.layout, nx: p.task.nx, ny: p.task.ny };
-    if (!this.#proc) {
-      const why = await this.#start(p.limitSeconds);
-      if (why) return emptyOutcome("failed", why, grid);
-      // now that the capabilities are known, check the task against them
-      const refusal = this.runner.applicability(p.task, this.capabilities);
-      if (refusal) return refusal;
-    }
-    const proc = this.#proc!;
+    const proc = this.#proc;
+    if (!proc) return emptyOutcome("failed", "the session is not running", grid);
     const mark = proc.stderr.total;
     const started = performance.now();
     const elapsed = () => (performance.now() - started) / 1000;
@@ -449,6 +486,7 @@ class Session {
           `before the request was sent (${wrote.written} of ${p.request.byteLength} bytes); it will be restarted`,
       );
     }
+    this.runner.pointsMeanwhile(p);
     let line;
     do {
       line = await within(

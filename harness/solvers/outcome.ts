@@ -5,7 +5,7 @@
  */
 import type { DecodedSolution } from "../protocol/mod.ts";
 import type { Domain } from "../../reference-solver/mod.ts";
-import { freePoints, gridPoints } from "./geometry.ts";
+import { freePoints, gridPoints, type LayoutPoints } from "./geometry.ts";
 import type { SolveOutcome } from "./types.ts";
 
 /** An outcome without values: failed or not applicable. */
@@ -36,15 +36,21 @@ export function emptyOutcome(
   return outcome;
 }
 
-/** An ok outcome from a decoded solution reply on a vertex or cell grid or on its own points. */
+/**
+ * An ok outcome from a decoded solution reply on a vertex or cell grid or on its own points.
+ * `gridPointsOf` gives the points of the grid (default: computed here); a caller that made them
+ * while the solver worked passes them in.
+ */
 export function solutionOutcome(
   reply: DecodedSolution,
   grid: { layout: "vertex" | "cell"; nx: number; ny: number; domain: Domain },
   extra: { seconds: number; stderrTail?: string; description?: Record<string, unknown> },
+  gridPointsOf: () => LayoutPoints = () =>
+    gridPoints(grid.layout, grid.domain, grid.nx, grid.ny),
 ): SolveOutcome {
   const points = reply.points
     ? freePoints(grid.domain, reply.points.x, reply.points.y, reply.points.weights)
-    : gridPoints(grid.layout, grid.domain, grid.nx, grid.ny);
+    : gridPointsOf();
   const description: Record<string, unknown> = { ...extra.description };
   if (reply.solver) description.solver = reply.solver;
   if (reply.notes !== undefined) description.notes = reply.notes;

@@ -129,6 +129,7 @@ export function probeCase(set: ProbeBoundarySet): CompiledCase {
     exactDx: u,
     exactDy: (x, y) => 0.5 * u(x, y),
     coefficients,
+    constantCoefficients: { b: 0, c: 1, d: 0, e: 0 },
     source,
     boundary,
     formulas,

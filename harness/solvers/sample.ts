@@ -45,6 +45,7 @@ export function sampleCase(
       coefficients: { a: p.a, b: p.b, c: p.c, d: p.d, e: p.e },
       source: p.f,
       boundary,
+      constantCoefficients: { ...compiled.constantCoefficients },
     };
   }
   return sampleCells(compiled, nx, ny);
@@ -117,6 +118,7 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
     coefficients: { a, b, c, d, e },
     source: f,
     boundary,
+    constantCoefficients: { ...compiled.constantCoefficients },
   };
 }
 

@@ -104,8 +104,9 @@ export interface ExternalSolverSpec {
   /** Largest accepted reply. Default 1024 (1 GiB). */
   maxReplyMiB: number;
   /**
-   * The solver reads `{ constant, length }` arrays, so constant coefficients are sent as one
-   * number. Default false.
+   * true: the solver reads `{ constant, length }` arrays, so constant coefficients are sent as
+   * one number; false: never send that form. Default (absent): what a session's `ready` message
+   * declares (`supports.constantArrays`); in once mode, never.
    */
   constantArrays?: boolean;
 }

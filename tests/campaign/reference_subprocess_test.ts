@@ -14,6 +14,9 @@ Deno.test("smootherFor() picks line relaxation for anisotropic couplings only", 
   const isotropic = (await loadCase("smooth-baseline")).sample(32, 32);
   assert.equal(smootherFor(anisotropic), "alternating-line");
   assert.equal(smootherFor(isotropic), "red-black");
+  // both cases have constant a and c, so their first node decides alike
+  assert.equal(smootherFor(anisotropic, { uniform: true }), "alternating-line");
+  assert.equal(smootherFor(isotropic, { uniform: true }), "red-black");
 });
 
 Deno.test("check passes the anisotropic cases with the reference solver as a subprocess", async () => {

@@ -54,6 +54,7 @@ export function testCase(options: { allDirichlet?: boolean; id?: string } = {}):
     exactDx: u,
     exactDy: (x, y) => 0.5 * u(x, y),
     coefficients,
+    constantCoefficients: { c: 1, d: 0.5, e: -1 },
     source,
     boundary,
     formulas: {

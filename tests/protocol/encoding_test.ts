@@ -1,6 +1,13 @@
 import assert from "node:assert/strict";
 import { Buffer } from "node:buffer";
-import { decodeArray, encodeArray } from "../../harness/protocol/mod.ts";
+import {
+  decodeArray,
+  encodeArray,
+  readSolveRequest,
+  solveRequestBytes,
+} from "../../harness/protocol/mod.ts";
+import { expressionTexts, sampleCase } from "../../harness/solvers/mod.ts";
+import { testCase } from "./_case.ts";
 import { findScipyPython, runWithInput } from "../../testing/mod.ts";
 
 // Values with awkward bit patterns: signed zero, subnormal, extremes, non-terminating decimals.
@@ -125,5 +132,54 @@ Deno.test("decodeArray() refuses what the schema cannot see, naming the path", a
       () => decodeArray("1,2,3", "/values"),
       (e: Error) => e instanceof RangeError && /array of numbers or an object/.test(e.message),
     );
+  });
+});
+
+Deno.test("the constant form expands to n copies, into a kept buffer when one is given", () => {
+  const wire = { constant: -0.75, length: 5 };
+  assert.deepEqual(decodeArray(wire, "/coefficients/d"), new Float64Array(5).fill(-0.75));
+  const kept = new Map<string, Float64Array>();
+  const first = decodeArray(wire, "/coefficients/d", undefined, kept);
+  const second = decodeArray({ constant: 2, length: 5 }, "/coefficients/d", undefined, kept);
+  assert.equal(second, first, "the same buffer serves the next request");
+  assert.deepEqual(second, new Float64Array(5).fill(2));
+  const longer = decodeArray({ constant: 1, length: 7 }, "/coefficients/d", undefined, kept);
+  assert.notEqual(longer, first, "another length gets its own buffer");
+  assert.equal(longer.length, 7);
+});
+
+Deno.test("a request sends constant coefficients as one number and reads back every value", async (t) => {
+  // testCase(): a = 1 + x varies, c = 1, d = 0.5, e = −1 are constant (its constantCoefficients)
+  const sampled = sampleCase(testCase(), 4, 8, "vertex");
+  const details = {
+    id: "r",
+    caseId: "test-exp",
+    expressions: expressionTexts(testCase().formulas),
+    scheme: "central" as const,
+    tolerance: 1e-10,
+    timeLimitSeconds: 10,
+    encoding: "base64" as const,
+    constants: true,
+  };
+  const roundTrip = (problem: typeof sampled) => {
+    const text = new TextDecoder().decode(solveRequestBytes(problem, details).bytes());
+    return { wire: JSON.parse(text), read: readSolveRequest(text).problem };
+  };
+  await t.step("named constants and scanned ones alike", () => {
+    const { wire, read } = roundTrip(sampled);
+    assert.deepEqual(wire.coefficients.c, { constant: 1, length: 45 });
+    assert.deepEqual(wire.coefficients.e, { constant: -1, length: 45 });
+    assert.ok("base64" in wire.coefficients.a);
+    for (const k of ["a", "b", "c", "d", "e"] as const) {
+      sameBits(read.coefficients[k], sampled.coefficients[k]);
+    }
+  });
+  await t.step("a named value the array does not hold is not trusted", () => {
+    // a stale hint: c is 1 everywhere but named as 3; a is named constant but varies
+    const stale = { ...sampled, constantCoefficients: { c: 3, a: 1 } };
+    const { wire, read } = roundTrip(stale);
+    assert.deepEqual(wire.coefficients.c, { constant: 1, length: 45 }, "found by looking");
+    assert.ok("base64" in wire.coefficients.a);
+    sameBits(read.coefficients.a, sampled.coefficients.a);
   });
 });

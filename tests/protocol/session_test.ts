@@ -133,3 +133,45 @@ Deno.test("a session that cannot start says why", async () => {
     await solver.close();
   }
 });
+
+Deno.test("a session's first solve is judged against what the session declared", async () => {
+  // the declaration is only known once the session runs: the first task must wait for it
+  const solver = sessionSolver(["session"]);
+  try {
+    const big = await solver.solve(task(128));
+    assert.equal(big.status, "not-applicable");
+    assert.match(big.reason ?? "", /larger than the solver's largest grid 64×128/);
+  } finally {
+    await solver.close();
+  }
+});
+
+Deno.test("constant coefficients go as one number only to solvers that read that form", async (t) => {
+  // testCase(): c = 1, d = 0.5 and e = −1 are constant, a and b vary; misbehave.py names in its
+  // notes the coefficients that arrived in the constant form
+  const constantsIn = async (solver: Solver) => {
+    try {
+      const o = await solver.solve(task(4));
+      assert.equal(o.status, "ok", o.reason);
+      // the source, which varies, arrives in full and is echoed back intact
+      assert.deepEqual(o.values, sampleCase(testCase(), 4, 8, "vertex").source);
+      return /constant arrays: ([a-z,]+)/.exec(String(o.description?.notes))?.[1];
+    } finally {
+      await solver.close();
+    }
+  };
+  await t.step("a session that declares constantArrays in ready", async () => {
+    assert.equal(await constantsIn(sessionSolver(["session-constants"])), "c,d,e");
+  });
+  await t.step("a session that does not declare it", async () => {
+    assert.equal(await constantsIn(sessionSolver(["session"])), "none");
+  });
+  await t.step("the solver file's false wins over the declaration", async () => {
+    const solver = sessionSolver(["session-constants"], { constantArrays: false });
+    assert.equal(await constantsIn(solver), "none");
+  });
+  await t.step("the solver file's true asks without a declaration", async () => {
+    const solver = sessionSolver(["session"], { constantArrays: true });
+    assert.equal(await constantsIn(solver), "c,d,e");
+  });
+});

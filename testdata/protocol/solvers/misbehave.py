@@ -142,12 +142,15 @@ def once(mode, arg):
 def session(mode, arg):
     """Session modes: session (good), session-crash N (exit 5 on request N),
     session-hang N (hang on request N), session-logs (a log line before each reply),
-    session-allocate N (allocate 2 GiB on request N, which fails under a smaller memory limit)."""
+    session-allocate N (allocate 2 GiB on request N, which fails under a smaller memory limit),
+    session-constants (declares that it reads the constant array form). Every reply's notes name
+    the coefficients that arrived in the constant form."""
     hello = json.loads(sys.stdin.readline())
     assert hello["type"] == "hello"
     out({"protocol": VERSION, "type": "ready", "solver": {"name": "misbehave", "version": "1"},
          "supports": {"boundaryKinds": ["dirichlet", "neumann", "robin"],
-                      "encodings": ["numbers", "base64"], "largestGrid": {"nx": 64, "ny": 128}}})
+                      "encodings": ["numbers", "base64"], "largestGrid": {"nx": 64, "ny": 128},
+                      "constantArrays": mode == "session-constants"}})
     count = 0
     for line in sys.stdin:
         message = json.loads(line)
@@ -165,8 +168,10 @@ def session(mode, arg):
             allocate(2048)
         if mode == "session-logs":
             print("log line on stdout")
+        constant = sorted(k for k, v in message["coefficients"].items()
+                          if isinstance(v, dict) and "constant" in v)
         out(solution(message, decode(message["source"]), "base64", iterations=count,
-                     notes="pid %d" % os.getpid()))
+                     notes="pid %d; constant arrays: %s" % (os.getpid(), ",".join(constant) or "none")))
     return 0
 
 
