@@ -220,9 +220,7 @@ const rows: [CompiledCase, number][] = quick
   ? [[compiled, 256]]
   : [[compiled, 256], [compiled, 512], [compiled, 1024], [await loadCase("variable-all"), 1024]];
 console.log(
-  `case | n | cycles | in process | ${
-    columns.map(([name]) => `${name} | overhead`).join(" | ")
-  }`,
+  `case | n | cycles | in process | ${columns.map(([name]) => `${name} | overhead`).join(" | ")}`,
 );
 try {
   for (const [which, n] of rows) {

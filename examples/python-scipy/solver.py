@@ -44,6 +44,7 @@ def make_solver(layout, defect):
             "layouts": [layout],
             "encodings": ["numbers", "base64"],
             "largestGrid": {"nx": LARGEST, "ny": LARGEST},
+            "constantArrays": True,
         },
     )
 

@@ -157,3 +157,33 @@ Deno.test({
     assert.match(String(reply.reason), /constant/);
   },
 });
+
+Deno.test({
+  name: `python-scipy reads constant arrays and gives the same solution as from full arrays${SKIP}`,
+  ignore: NO_SCIPY,
+  fn: async () => {
+    // Same request twice: once with every coefficient array in full, once with the arrays that
+    // hold one value (here d and e, made constant) in the {"constant", "length"} form.
+    const req = buildRequest(QUADRATIC, MIXES["all dirichlet"], { nx: 6, ny: 4 });
+    const count = 7 * 5;
+    const full = {
+      ...req,
+      coefficients: {
+        ...(req.coefficients as object),
+        d: new Array(count).fill(-0.25),
+        e: new Array(count).fill(-1.5),
+      },
+    };
+    const constants = {
+      ...full,
+      coefficients: {
+        ...(full.coefficients as object),
+        d: { constant: -0.25, length: count },
+        e: { constant: -1.5, length: count },
+      },
+    };
+    const [a, b] = [await solve([], full), await solve([], constants)];
+    assert.equal(b.type, "solution", JSON.stringify(b));
+    assert.deepEqual(decodeValues(b.values), decodeValues(a.values));
+  },
+});

@@ -45,8 +45,7 @@ export function solutionOutcome(
   reply: DecodedSolution,
   grid: { layout: "vertex" | "cell"; nx: number; ny: number; domain: Domain },
   extra: { seconds: number; stderrTail?: string; description?: Record<string, unknown> },
-  gridPointsOf: () => LayoutPoints = () =>
-    gridPoints(grid.layout, grid.domain, grid.nx, grid.ny),
+  gridPointsOf: () => LayoutPoints = () => gridPoints(grid.layout, grid.domain, grid.nx, grid.ny),
 ): SolveOutcome {
   const points = reply.points
     ? freePoints(grid.domain, reply.points.x, reply.points.y, reply.points.weights)
