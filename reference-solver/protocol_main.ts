@@ -14,6 +14,7 @@
  */
 import {
   type ArrayEncoding,
+  isConstantForm,
   LineScanner,
   type MessageBytes,
   messageBytes,
@@ -124,11 +125,6 @@ export function smootherFor(
     if (ratio > ANISOTROPY_FOR_LINES || ratio < 1 / ANISOTROPY_FOR_LINES) return "alternating-line";
   }
   return "red-black";
-}
-
-/** true for an array sent as `{ constant, length }`. */
-function isConstantForm(wire: unknown): boolean {
-  return wire !== null && typeof wire === "object" && "constant" in wire;
 }
 
 /** One line of input: its message when it was parsed on the way, else its text. */

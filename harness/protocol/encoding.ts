@@ -35,6 +35,11 @@ export function constantForm(
   return { constant: values[0], length: values.length };
 }
 
+/** true for an array in the `{ constant, length }` wire form (its fields not yet checked). */
+export function isConstantForm(wire: unknown): wire is { constant: unknown; length: unknown } {
+  return wire !== null && typeof wire === "object" && "constant" in wire;
+}
+
 /**
  * Writes an array in the given encoding; with `constants`, an array whose entries are all equal
  * (and finite) is written as `{ constant, length }` instead (an opt-in form, see docs/protocol.md).
@@ -105,8 +110,8 @@ export function decodeArray(
     }
     return out;
   }
-  if (wire !== null && typeof wire === "object" && "constant" in wire) {
-    const { constant, length } = wire as { constant: unknown; length: unknown };
+  if (isConstantForm(wire)) {
+    const { constant, length } = wire;
     if (typeof constant !== "number" || !Number.isInteger(length) || (length as number) < 0) {
       throw new RangeError(
         `${path}: a constant array needs a number "constant" and a whole "length"`,

@@ -21,7 +21,7 @@
  * @module
  */
 export * from "./types.ts";
-export { decodeArray, describeValue, encodeArray } from "./encoding.ts";
+export { decodeArray, describeValue, encodeArray, isConstantForm } from "./encoding.ts";
 export { type MessageBytes, messageBytes } from "./message_bytes.ts";
 export { LineScanner, type LineScannerOptions } from "./line_scanner.ts";
 export { type ParsedMessage, parseMessage } from "./parse_message.ts";
