@@ -46,6 +46,7 @@ export {
   type PointFunction,
   type RowSampler,
 } from "./compile.ts";
+export { sampleSide } from "./sample.ts";
 export {
   ALLOWED_FUNCTIONS,
   CONSTANTS,

@@ -43,7 +43,6 @@ export {
   readSolveRequest,
   type RequestDetails,
   serializeMessage,
-  type SolutionExtras,
   solutionReplyBytes,
   solveRequestBytes,
 } from "./request.ts";

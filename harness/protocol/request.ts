@@ -19,8 +19,8 @@ import {
   type SchemeHint,
   SIDE_NAMES,
   type SideName,
+  type SolutionExtras,
   type SolveRequestMessage,
-  type SolverIdentity,
   type WireArray,
 } from "./types.ts";
 
@@ -274,18 +274,6 @@ export function readSolveRequest(
       boundary,
     },
   };
-}
-
-/** Optional fields of a solution reply. */
-export interface SolutionExtras {
-  residualHistory?: number[];
-  iterations?: number;
-  converged?: boolean;
-  seconds?: number;
-  solver?: SolverIdentity;
-  notes?: string;
-  /** Own points, for solvers that do not reply on the request's grid. */
-  points?: { x: Float64Array; y: Float64Array; weights?: Float64Array };
 }
 
 /**

@@ -151,19 +151,23 @@ export interface ReadyMessage {
   supports?: Capabilities;
 }
 
-/** A decoded `solution` reply. */
-export interface DecodedSolution {
-  type: "solution";
-  id: string;
-  values: Float64Array;
-  /** Present when the solver replied on its own points. */
-  points?: { x: Float64Array; y: Float64Array; weights?: Float64Array };
+/** Optional fields of a solution reply. */
+export interface SolutionExtras {
   residualHistory?: number[];
   iterations?: number;
   converged?: boolean;
   seconds?: number;
   solver?: SolverIdentity;
   notes?: string;
+  /** Own points, for solvers that do not reply on the request's grid. */
+  points?: { x: Float64Array; y: Float64Array; weights?: Float64Array };
+}
+
+/** A decoded `solution` reply. */
+export interface DecodedSolution extends SolutionExtras {
+  type: "solution";
+  id: string;
+  values: Float64Array;
 }
 
 /** A decoded `not-applicable` or `error` reply. */

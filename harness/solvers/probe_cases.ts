@@ -7,6 +7,7 @@
  * @module
  */
 import type { CaseBoundary, CompiledCase, PointFn } from "../../cases/types.ts";
+import { sampleSide } from "../../cases/mod.ts";
 import type { BoundaryCondition, Problem, Side } from "../../reference-solver/mod.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
 
@@ -88,15 +89,8 @@ export function probeCase(set: ProbeBoundarySet): CompiledCase {
     }
     const bcs = {} as Record<Side, BoundaryCondition>;
     for (const side of SIDES) {
-      const vertical = side === "west" || side === "east";
-      const count = vertical ? ny + 1 : nx + 1;
-      const values = new Float64Array(count);
-      for (let m = 0; m < count; m++) {
-        const x = vertical ? (side === "west" ? domain.x0 : domain.x1) : domain.x0 + m * hx;
-        const y = vertical ? domain.y0 + m * hy : (side === "south" ? domain.y0 : domain.y1);
-        values[m] = boundary[side].data(x, y);
-      }
       const bc = boundary[side];
+      const values = sampleSide(bc.data, side, domain, nx, ny);
       bcs[side] = bc.kind === "robin"
         ? { kind: "robin", alpha: bc.alpha ?? 1, beta: bc.beta ?? 0, values }
         : { kind: bc.kind, values };
