@@ -10,31 +10,14 @@ import {
   type SolveOutcome,
 } from "../../harness/solvers/mod.ts";
 import { testCase } from "./_case.ts";
-
-const dir = new URL("../../testdata/protocol/", import.meta.url).pathname;
-const PYTHON = "/usr/bin/python3";
-
-function spec(args: string[], extra: Partial<ExternalSolverSpec> = {}): ExternalSolverSpec {
-  return {
-    name: "misbehave",
-    command: [PYTHON, "solvers/misbehave.py", ...args],
-    mode: "once",
-    encoding: "numbers",
-    layout: "vertex",
-    scheme: "central",
-    timeLimitSeconds: 20,
-    skipCases: [],
-    maxReplyMiB: 1024,
-    ...extra,
-  };
-}
+import { MISBEHAVE_DIR, misbehaveSpec } from "./_misbehave.ts";
 
 async function run(
   args: string[],
   extra: Partial<ExternalSolverSpec> = {},
   grid = { nx: 4, ny: 8 },
 ): Promise<SolveOutcome> {
-  const solver = createExternalSolver(spec(args, extra), { solverFileDir: dir });
+  const solver = createExternalSolver(misbehaveSpec(args, extra), { solverFileDir: MISBEHAVE_DIR });
   try {
     return await solver.solve({
       case: testCase(),
@@ -218,7 +201,7 @@ Deno.test("not applicable is not a failure: the solver's refusal, skipCases and 
     assert.match(o.reason ?? "", /skipCases/);
   });
   await t.step("a central-only solver asked for upwind", async () => {
-    const solver = createExternalSolver(spec(["hang"]), { solverFileDir: dir });
+    const solver = createExternalSolver(misbehaveSpec(["hang"]), { solverFileDir: MISBEHAVE_DIR });
     const o = await solver.solve({
       case: testCase(),
       nx: 4,
@@ -250,7 +233,7 @@ Deno.test("a command that is missing or not executable is named with the reason"
     try {
       await Deno.writeTextFile(`${tmp}/solver.sh`, "#!/bin/sh\necho hi\n");
       await Deno.chmod(`${tmp}/solver.sh`, 0o644);
-      const solver = createExternalSolver(spec([], { command: ["./solver.sh"] }), {
+      const solver = createExternalSolver(misbehaveSpec([], { command: ["./solver.sh"] }), {
         solverFileDir: tmp,
       });
       const o = await solver.solve({

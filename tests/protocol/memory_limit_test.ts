@@ -14,32 +14,25 @@ import {
   type SolveOutcome,
 } from "../../harness/solvers/mod.ts";
 import { testCase } from "./_case.ts";
+import { MISBEHAVE_DIR, misbehaveSpec } from "./_misbehave.ts";
 
-const dir = new URL("../../testdata/protocol/", import.meta.url).pathname;
 const LIMIT_MIB = 256;
 /** prlimit --as takes bytes; the harness passes memoryLimitMiB · 2^20 (derived from the docs). */
 const LIMIT_BYTES = LIMIT_MIB * 1024 * 1024;
 
 function spec(args: string[], extra: Partial<ExternalSolverSpec> = {}): ExternalSolverSpec {
-  return {
+  return misbehaveSpec(args, {
     name: "memory-hog",
-    command: ["/usr/bin/python3", "solvers/misbehave.py", ...args],
-    mode: "once",
-    encoding: "numbers",
-    layout: "vertex",
-    scheme: "central",
     timeLimitSeconds: 30,
-    skipCases: [],
-    maxReplyMiB: 1024,
     memoryLimitMiB: LIMIT_MIB,
     ...extra,
-  };
+  });
 }
 
 const task = { case: testCase(), nx: 4, ny: 8, scheme: "central" as const, tolerance: 1e-10 };
 
 async function solveOnce(s: ExternalSolverSpec): Promise<SolveOutcome> {
-  const solver = createExternalSolver(s, { solverFileDir: dir });
+  const solver = createExternalSolver(s, { solverFileDir: MISBEHAVE_DIR });
   try {
     return await solver.solve(task);
   } finally {
@@ -92,7 +85,7 @@ Deno.test("a once solver that allocates 2 GiB under a 256 MiB limit fails with t
 
 Deno.test("a session solver that runs out of its memory limit fails that solve and is restarted", async () => {
   const solver = createExternalSolver(spec(["session-allocate", "2"], { mode: "session" }), {
-    solverFileDir: dir,
+    solverFileDir: MISBEHAVE_DIR,
   });
   try {
     const first = await solver.solve(task);

@@ -7,22 +7,18 @@ import {
   type Solver,
 } from "../../harness/solvers/mod.ts";
 import { testCase } from "./_case.ts";
-
-const dir = new URL("../../testdata/protocol/", import.meta.url).pathname;
+import { MISBEHAVE_DIR, misbehaveSpec } from "./_misbehave.ts";
 
 function sessionSolver(args: string[], extra: Partial<ExternalSolverSpec> = {}): Solver {
-  return createExternalSolver({
-    name: "misbehave-session",
-    command: ["/usr/bin/python3", "solvers/misbehave.py", ...args],
-    mode: "session",
-    encoding: "base64",
-    layout: "vertex",
-    scheme: "central",
-    timeLimitSeconds: 20,
-    skipCases: [],
-    maxReplyMiB: 1024,
-    ...extra,
-  }, { solverFileDir: dir });
+  return createExternalSolver(
+    misbehaveSpec(args, {
+      name: "misbehave-session",
+      mode: "session",
+      encoding: "base64",
+      ...extra,
+    }),
+    { solverFileDir: MISBEHAVE_DIR },
+  );
 }
 
 const task = (nx: number) => ({
