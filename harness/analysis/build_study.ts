@@ -6,6 +6,8 @@ import type {
   SolveRecord,
   StudyRecord,
 } from "../result/types.ts";
+import { PLACES } from "../result/types.ts";
+import { pairwiseOrders } from "./pairwise_orders.ts";
 import { type JudgeOptions, judgeStudy } from "./judge_study.ts";
 import { orderRecord } from "./order_record.ts";
 import { quantityRecord } from "./quantity_record.ts";
@@ -108,6 +110,11 @@ export function buildStudy(solves: readonly SolveRecord[], spec: StudySpec): Stu
     ? judged.filter((q) => q.covered).length / judged.length
     : null;
   const scaling = scalingRecord(sorted, spec.scaling);
+  const places = PLACES.map((place) => {
+    const e = sorted.map((s) => (s.status === "ok" ? s.places?.[place]?.max ?? null : null));
+    const pairs = pairwiseOrders(h, e);
+    return { place, errors: e, order: pairs.length > 0 ? pairs[pairs.length - 1] : null };
+  }).filter((p) => p.errors.some((e) => e !== null));
   const verdicts = judgeStudy(
     {
       caseId: spec.caseId,
@@ -118,6 +125,7 @@ export function buildStudy(solves: readonly SolveRecord[], spec: StudySpec): Stu
       quantities,
       scaling,
       h,
+      places,
     },
     spec,
   );
@@ -132,6 +140,7 @@ export function buildStudy(solves: readonly SolveRecord[], spec: StudySpec): Stu
     quantities,
     coverage,
     scaling,
+    places,
     verdicts,
   };
 }

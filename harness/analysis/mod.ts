@@ -32,6 +32,8 @@ export {
   vertexRegionNorms,
 } from "./region_norms.ts";
 export { pairwiseOrders } from "./pairwise_orders.ts";
+export { PLACE_LAYERS, placeNorms, placeOfPoints } from "./places.ts";
+export { IMPOSED_BOUND, imposedDataCheck, type SideData } from "./imposed_data.ts";
 export { type FittedOrder, fittedOrder } from "./fitted_order.ts";
 export { asymptoticRange, orderRecord } from "./order_record.ts";
 export { type GciPair, richardsonExtrapolate, roacheGci } from "./richardson.ts";
@@ -44,9 +46,24 @@ export {
 } from "./least_squares_uncertainty.ts";
 export { type QuantityOptions, quantityRecord } from "./quantity_record.ts";
 export { studyWarnings } from "./study_warnings.ts";
+export { headingOrder, type OrderTrend, orderTrend, settleRatio } from "./order_trend.ts";
+export { ERROR_FACTOR, locateDefect, type Location, ORDER_MARGIN, sideWords } from "./locate.ts";
+export {
+  CRITERIA,
+  type Criterion,
+  ERROR_FLOOR,
+  GROWTH_MARGIN,
+  ITERATIVE_SHARE,
+  REDUCTION_SLACK,
+} from "./criteria/mod.ts";
 export { type ResidualMetrics, residualMetrics, type ResidualOptions } from "./residual_metrics.ts";
 export { powerLawExponent } from "./power_law_exponent.ts";
-export { type ScalingOptions, scalingRecord, type ScalingSolve } from "./scaling_record.ts";
+export {
+  MIN_FIT_UNKNOWNS,
+  type ScalingOptions,
+  scalingRecord,
+  type ScalingSolve,
+} from "./scaling_record.ts";
 export {
   type JudgeOptions,
   judgeStudy,

@@ -24,7 +24,16 @@ export interface ScalingOptions {
   independenceTolerance?: number;
   /** Passed to {@link residualMetrics} for stagnation and divergence checks. */
   residual?: ResidualOptions;
+  /**
+   * Smallest grid, in unknowns, that enters the iteration and time fits (default 900, about
+   * 30×30): on smaller grids start-up costs and coarse-level solves dominate, so their counts and
+   * times say nothing about growth (our choice).
+   */
+  minUnknowns?: number;
 }
+
+/** Default smallest grid of the work fits, in unknowns. */
+export const MIN_FIT_UNKNOWNS = 900;
 
 /**
  * Residual behaviour across a grid sequence: fitted exponents of iterations, average convergence
@@ -35,9 +44,10 @@ export interface ScalingOptions {
  * iterations may grow by at most 2^0.1 ≈ 7 % per fourfold increase of unknowns — our choice;
  * multigrid theory predicts h-independent factors, Trottenberg et al. 2001; Briggs et al. 2000),
  * or when the iteration counts of the finest grids differ by at most one (counts are whole
- * numbers: 3, 3, 4 is no trend, though its fitted exponent is 0.2). The iterations exponent is
- * fitted over the finest three grids (the asymptotic trend: the coarsest grids of a study are
- * often solved directly or are pre-asymptotic); the factor and time exponents over every grid.
+ * numbers: 3, 3, 4 is no trend, though its fitted exponent is 0.2). The iterations and time
+ * exponents are fitted over the finest three grids with at least `minUnknowns` unknowns (the
+ * asymptotic trend: the coarsest grids of a study are often solved directly, are pre-asymptotic,
+ * or cost no more than starting the solver); the factor exponent over every grid.
  * Only solves with status "ok" enter the fits. A problem is a solve that failed, stopped without
  * converging, stagnated or diverged ({@link residualMetrics}), listed as "nx×ny: reason".
  *
@@ -84,7 +94,9 @@ export function scalingRecord(
     }
   }
   const unknowns = ok.map((s) => s.unknowns);
-  const finest = ok.slice(-3);
+  const finest = ok.filter((s) => s.unknowns >= (options.minUnknowns ?? MIN_FIT_UNKNOWNS)).slice(
+    -3,
+  );
   const iterationsExponent = powerLawExponent(
     finest.map((s) => s.unknowns),
     finest.map((s) => s.iterations),
@@ -92,12 +104,16 @@ export function scalingRecord(
   const counts = finest.map((s) => s.iterations).filter((n): n is number => n !== null);
   const spreadOfOne = counts.length >= 2 && Math.max(...counts) - Math.min(...counts) <= 1;
   const factorExponent = powerLawExponent(unknowns, ok.map((s) => s.averageFactor));
-  const timeExponent = powerLawExponent(unknowns, ok.map((s) => s.seconds));
+  const timeExponent = powerLawExponent(
+    finest.map((s) => s.unknowns),
+    finest.map((s) => s.seconds),
+  );
   return {
     iterationsExponent,
     factorExponent,
     timeExponent,
     gridIndependent: iterationsExponent === null ? null : iterationsExponent <= tol || spreadOfOne,
+    fittedFrom: finest.length >= 2 ? finest[0].unknowns : null,
     problems,
   };
 }

@@ -11,6 +11,7 @@ import type {
   Verdict,
   VerdictStatus,
 } from "../result/types.ts";
+import { worstStatus } from "../result/severity.ts";
 
 /** Options of {@link compareWithBaseline}; every field has a default. */
 export interface BaselineOptions {
@@ -38,12 +39,6 @@ const REGION_WORDS: Record<OrderRecord["region"], string> = {
   all: "all nodes",
   interior: "interior nodes",
   boundary: "boundary nodes",
-};
-const SEVERITY: Record<VerdictStatus, number> = {
-  fail: 0,
-  warn: 1,
-  pass: 2,
-  "not-applicable": 3,
 };
 
 function check(name: string, value: number, low: number): number {
@@ -132,11 +127,7 @@ function orderVerdict(now: StudyRecord, old: StudyRecord, tolerance: number): Ve
   );
 }
 
-function worstOf(verdicts: Verdict[]): VerdictStatus {
-  let out: VerdictStatus = "not-applicable";
-  for (const v of verdicts) if (SEVERITY[v.status] < SEVERITY[out]) out = v.status;
-  return out;
-}
+const worstOf = worstStatus;
 
 function statusVerdict(now: StudyRecord, old: StudyRecord): Verdict {
   const wasFailing = old.verdicts.filter((v) => v.status === "fail").map((v) => v.criterion);

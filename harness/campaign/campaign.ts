@@ -5,7 +5,13 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import type { CampaignResult, CaseInfo, SolveRecord, Verdict } from "../result/types.ts";
+import type {
+  CampaignResult,
+  CaseInfo,
+  SolveRecord,
+  StudyRecord,
+  Verdict,
+} from "../result/types.ts";
 import { RESULT_FORMAT, RESULT_VERSION } from "../result/types.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { VERSION } from "../version.ts";
@@ -29,8 +35,18 @@ export interface CampaignOptions {
   tolerance?: number;
   /** Tolerance on observed orders. Default: 0.1; a case's own `expected.<scheme>.tolerance` takes precedence. */
   orderTolerance?: number;
-  /** Fail (not only warn) when iterations grow with the grid. Default: false. */
-  requireGridIndependence?: boolean;
+  /**
+   * Iterations that grow faster than the solver declares fail the "flat-iterations" criterion
+   * (true) or only warn (false). Default: true.
+   */
+  requireFlatIterations?: boolean;
+  /**
+   * Budget for grids added to studies whose order is inconclusive: at most `maxAdded` grids per
+   * study (default 2), none above `maxUnknowns` unknowns (default 1 100 000, about 1024×1024), and
+   * no new solve once the added solves of a study have taken, or are predicted to take, more than
+   * `seconds` (default 120). `maxAdded: 0` turns refinement off.
+   */
+  refine?: { maxAdded?: number; maxUnknowns?: number; seconds?: number };
   /** Folder for the journal; none means no journal. */
   outDir?: string;
   /** Continue from the journal in outDir. Default: false. */
@@ -151,11 +167,47 @@ export async function runCampaign(
     journal?.close();
   }
   const orderTolerance = options.orderTolerance ?? 0.1;
-  const studies = buildStudies(cases, solvers, records, {
+  const studyOptions = {
     orderTolerance,
-    requireGridIndependence: options.requireGridIndependence ?? false,
+    requireFlatIterations: options.requireFlatIterations ?? true,
     tolerance: options.tolerance ?? 1e-10,
-  });
+  };
+  let studies = buildStudies(cases, solvers, records, studyOptions);
+  const budget = {
+    maxAdded: options.refine?.maxAdded ?? 2,
+    maxUnknowns: options.refine?.maxUnknowns ?? 1_100_000,
+    seconds: options.refine?.seconds ?? 120,
+  };
+  const added = new Map<string, { grids: number[]; reasons: string[]; seconds: number }>();
+  for (let round = 0; round < budget.maxAdded && !options.signal?.aborted; round++) {
+    const extra = planRefinement(studies, records, cases, solvers, added, budget);
+    if (extra.length === 0) break;
+    journal = options.outDir !== undefined
+      ? JournalWriter.open(`${options.outDir}/${JOURNAL_FILE}`, undefined)
+      : undefined;
+    try {
+      const more = await runSolves(extra, {
+        jobs: options.jobs,
+        tolerance: options.tolerance,
+        journal,
+        finished,
+        onProgress: options.onProgress,
+        signal: options.signal,
+      });
+      records = [...records, ...more];
+      for (const r of more) {
+        const a = added.get(`${r.caseId}\u0000${r.solver}`);
+        if (a) a.seconds += r.seconds;
+      }
+    } finally {
+      journal?.close();
+    }
+    studies = buildStudies(cases, solvers, records, studyOptions);
+  }
+  for (const s of studies) {
+    const a = added.get(`${s.caseId}\u0000${s.solver}`);
+    if (a) s.added = { grids: a.grids, reason: a.reasons.join("; ") };
+  }
   const result: CampaignResult = {
     format: RESULT_FORMAT,
     version: RESULT_VERSION,
@@ -167,14 +219,15 @@ export async function runCampaign(
       grids: options.grids ?? [],
       jobs: options.jobs ?? 1,
       orderTolerance,
-      requireGridIndependence: options.requireGridIndependence ?? false,
+      requireGridIndependence: options.requireFlatIterations ?? true,
+      refine: budget,
     },
     cases: cases.map(caseInfo),
     solvers: solvers.map((s) => structuredClone(s.info)),
     solves: records,
     studies,
     baselineVerdicts: [],
-    summary: { pass: 0, fail: 0, warn: 0, notApplicable: 0, exitCode: 0 },
+    summary: { pass: 0, fail: 0, inconclusive: 0, warn: 0, notApplicable: 0, exitCode: 0 },
   };
   result.summary = summarize(result);
   return result;
@@ -193,15 +246,71 @@ export function allVerdicts(result: CampaignResult): Verdict[] {
   return [...result.studies.flatMap((s) => s.verdicts), ...result.baselineVerdicts];
 }
 
-/** Counts verdicts; exit code 1 when any failed, else 0. */
+/** Exit code of a campaign with an inconclusive verdict and no failure. */
+export const EXIT_INCONCLUSIVE = 4;
+
+/**
+ * Counts verdicts; exit code 1 when any failed, else {@link EXIT_INCONCLUSIVE} (4) when any is
+ * inconclusive, else 0. Warnings never change the exit code.
+ */
 export function summarize(result: CampaignResult): CampaignResult["summary"] {
-  const summary = { pass: 0, fail: 0, warn: 0, notApplicable: 0, exitCode: 0 };
+  const summary = { pass: 0, fail: 0, inconclusive: 0, warn: 0, notApplicable: 0, exitCode: 0 };
   for (const v of allVerdicts(result)) {
     if (v.status === "pass") summary.pass++;
     else if (v.status === "fail") summary.fail++;
+    else if (v.status === "inconclusive") summary.inconclusive++;
     else if (v.status === "warn") summary.warn++;
     else summary.notApplicable++;
   }
-  summary.exitCode = summary.fail > 0 ? 1 : 0;
+  summary.exitCode = summary.fail > 0 ? 1 : summary.inconclusive > 0 ? EXIT_INCONCLUSIVE : 0;
   return summary;
+}
+
+/** A study's order or exactness is undecided on its evidence alone (not blocked by a precondition). */
+function undecided(study: StudyRecord): string | null {
+  const v = study.verdicts.find((v) =>
+    (v.criterion === "order" || v.criterion === "exactness") && v.status === "inconclusive" &&
+    typeof v.details?.trend === "string"
+  );
+  return v ? `${v.details!.norm} norm ${v.details!.trend}` : null;
+}
+
+/**
+ * The next finer grid of every study whose order is undecided, within the budget: the sequence's
+ * own ratio continued from its finest grid.
+ */
+function planRefinement(
+  studies: StudyRecord[],
+  records: SolveRecord[],
+  cases: CompiledCase[],
+  solvers: Solver[],
+  added: Map<string, { grids: number[]; reasons: string[]; seconds: number }>,
+  budget: { maxAdded: number; maxUnknowns: number; seconds: number },
+): PlannedSolve[] {
+  const plan: PlannedSolve[] = [];
+  for (const study of studies) {
+    const why = undecided(study);
+    if (!why) continue;
+    const key = `${study.caseId}\u0000${study.solver}`;
+    const soFar = added.get(key) ?? { grids: [], reasons: [], seconds: 0 };
+    if (soFar.grids.length >= budget.maxAdded) continue;
+    const kase = cases.find((c) => c.id === study.caseId);
+    const solver = solvers.find((s) => s.info.name === study.solver);
+    const mine = records.filter((r) =>
+      r.caseId === study.caseId && r.solver === study.solver && r.status === "ok"
+    ).sort((a, b) => a.nx - b.nx);
+    if (!kase || !solver || mine.length < 2) continue;
+    const [prev, last] = mine.slice(-2);
+    const nx = Math.round(last.nx * last.nx / prev.nx);
+    const grid = gridFor(kase, nx);
+    const unknowns = last.unknowns * (grid.nx * grid.ny) / (last.nx * last.ny);
+    const growth = Math.max(1, study.scaling.timeExponent ?? 1);
+    const predicted = last.seconds * (unknowns / last.unknowns) ** growth;
+    if (unknowns > budget.maxUnknowns || soFar.seconds + predicted > budget.seconds) continue;
+    soFar.grids.push(grid.nx);
+    soFar.reasons.push(`${grid.nx} added because the order was undecided (${why})`);
+    added.set(key, soFar);
+    plan.push({ kase, solver, ...grid });
+  }
+  return plan;
 }

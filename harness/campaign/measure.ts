@@ -5,8 +5,17 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import { errorNorms, pointRegionNorms, residualMetrics } from "../analysis/mod.ts";
-import type { NormSet, Region, SolveRecord } from "../result/types.ts";
+import {
+  errorNorms,
+  imposedDataCheck,
+  placeNorms,
+  placeOfPoints,
+  pointRegionNorms,
+  residualMetrics,
+  type SideData,
+} from "../analysis/mod.ts";
+import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/types.ts";
+import { PLACES } from "../result/types.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
 import { discreteQuantities } from "./quantities.ts";
 
@@ -58,11 +67,51 @@ export function measureOutcome(
   if (outcome.status !== "ok") return record;
 
   const exact = new Float64Array(outcome.values.length);
-  for (let k = 0; k < exact.length; k++) exact[k] = kase.exact(outcome.x[k], outcome.y[k]);
+  let scale = 0;
+  for (let k = 0; k < exact.length; k++) {
+    exact[k] = kase.exact(outcome.x[k], outcome.y[k]);
+    scale = Math.max(scale, Math.abs(exact[k]));
+  }
   const band = outcome.boundaryBand ?? new Uint8Array(outcome.values.length);
   record.errors = regionNorms(outcome.values, exact, band, outcome.weights);
+  const spacing = outcome.layout === "points"
+    ? { hx: record.h, hy: record.h }
+    : { hx: (x1 - x0) / outcome.nx, hy: (y1 - y0) / outcome.ny };
+  record.places = placeNorms(
+    outcome.values,
+    exact,
+    placeOfPoints(outcome.x, outcome.y, kase.domain, spacing),
+    outcome.weights,
+  );
+  if (outcome.layout === "vertex") {
+    const data = dirichletData(kase, outcome.nx, outcome.ny);
+    if (Object.keys(data).length > 0) {
+      record.imposed = imposedDataCheck(outcome.values, outcome, data, scale);
+    }
+  }
   record.quantities = discreteQuantities(outcome, kase.domain);
   return record;
+}
+
+/** The data of each Dirichlet side at its nodes (increasing coordinate, corners included). */
+function dirichletData(kase: CompiledCase, nx: number, ny: number): SideData {
+  const { x0, x1, y0, y1 } = kase.domain;
+  const out: SideData = {};
+  for (const side of ["west", "east", "south", "north"] as SideName[]) {
+    const b = kase.boundary[side];
+    if (b.kind !== "dirichlet") continue;
+    const vertical = side === "west" || side === "east";
+    const m = vertical ? ny : nx;
+    const g = new Float64Array(m + 1);
+    for (let k = 0; k <= m; k++) {
+      const t = k / m;
+      g[k] = vertical
+        ? b.data(side === "west" ? x0 : x1, y0 + t * (y1 - y0))
+        : b.data(x0 + t * (x1 - x0), side === "south" ? y0 : y1);
+    }
+    out[side] = g;
+  }
+  return out;
 }
 
 /**
@@ -91,13 +140,29 @@ function regionNorms(
     : { all, interior: none, boundary: { ...all } };
 }
 
-/** Max-norm difference of two solutions on the same points, relative to the reference's max |u|. */
-export function relativeDifference(values: Float64Array, reference: Float64Array): number | null {
+/**
+ * Max-norm difference of two solutions on the same vertex grid, relative to the reference's
+ * max |u|, and where it is largest (the node and its place).
+ */
+export function relativeDifference(
+  values: Float64Array,
+  reference: Float64Array,
+  grid: { domain: { x0: number; x1: number; y0: number; y1: number }; nx: number; ny: number },
+): { difference: number; at: { x: number; y: number; place: Place } } | null {
   if (values.length !== reference.length || values.length === 0) return null;
-  let diff = 0, scale = 0;
+  let diff = -1, scale = 0, worst = 0;
   for (let k = 0; k < values.length; k++) {
-    diff = Math.max(diff, Math.abs(values[k] - reference[k]));
+    const d = Math.abs(values[k] - reference[k]);
+    if (!(d <= diff)) {
+      diff = d;
+      worst = k;
+    }
     scale = Math.max(scale, Math.abs(reference[k]));
   }
-  return scale > 0 ? diff / scale : diff;
+  const { domain, nx, ny } = grid;
+  const hx = (domain.x1 - domain.x0) / nx, hy = (domain.y1 - domain.y0) / ny;
+  const x = domain.x0 + (worst % (nx + 1)) * hx;
+  const y = domain.y0 + Math.floor(worst / (nx + 1)) * hy;
+  const place = PLACES[placeOfPoints([x], [y], domain, { hx, hy })[0]];
+  return { difference: scale > 0 ? diff / scale : diff, at: { x, y, place } };
 }

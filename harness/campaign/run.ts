@@ -104,7 +104,10 @@ export async function runSolves(
   const compareKey = (p: PlannedSolve) => `${p.kase.id}\u0000${p.nx}\u0000${p.ny}`;
   const settleDifference = (index: number, values: Float64Array, reference: Float64Array) => {
     const record = records[index]!;
-    record.differenceFromReference = relativeDifference(values, reference);
+    const p = plan[index];
+    const d = relativeDifference(values, reference, { domain: p.kase.domain, nx: p.nx, ny: p.ny });
+    record.differenceFromReference = d?.difference ?? null;
+    record.differenceAt = d?.at ?? null;
   };
 
   async function worker(): Promise<void> {

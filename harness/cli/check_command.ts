@@ -21,6 +21,7 @@ import type { Solver } from "../solvers/mod.ts";
 import { InputError } from "./errors.ts";
 import type { SetExitCode } from "./mod.ts";
 import { writeReport } from "./report_command.ts";
+import { rendererFor } from "../report/mod.ts";
 import { environmentRecord, parseNumberList, parsePositive, progressPrinter } from "./shared.ts";
 
 /** Default output folder of `check`. */
@@ -45,6 +46,11 @@ export interface CheckFlags {
   orderTolerance?: string;
   tolerance?: string;
   requireGridIndependence?: boolean;
+  iterationAdvice?: boolean;
+  refine?: boolean;
+  refineGrids?: string;
+  refineUnknowns?: string;
+  refineSeconds?: string;
   baseline?: string;
   progress?: boolean;
 }
@@ -55,7 +61,8 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
     .command("check")
     .description(
       "run the verification campaign: cases × grids × solvers, observed orders, GCI, residual " +
-        "behaviour and verdicts (exit 0 all pass, 1 a verdict failed, 2 bad input)",
+        "behaviour and verdicts (exit 0 all pass, 1 a verdict failed, 2 bad input, 4 a verdict " +
+        "undecided and none failed)",
     )
     .option("--cases <ids>", "comma-separated ids of built-in cases (default: every built-in case)")
     .option("--case-file <files...>", "case files of your own (JSON); may be repeated")
@@ -79,8 +86,25 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
     .option("--order-tolerance <t>", "allowed |observed − expected| order (default 0.1)")
     .option("--tolerance <t>", "relative residual tolerance asked of every solver (default 1e-10)")
     .option(
-      "--require-grid-independence",
-      "fail (not only warn) when iterations grow with the grid",
+      "--iteration-advice",
+      "iterations that grow faster than the solver declares only warn (default: they fail)",
+    )
+    .addOption(
+      new Option("--require-grid-independence", "deprecated: iteration growth fails by default")
+        .hideHelp(),
+    )
+    .option(
+      "--no-refine",
+      "do not add finer grids to studies whose order is undecided (default: add them)",
+    )
+    .option("--refine-grids <k>", "at most k grids added per undecided study (default 2)")
+    .option(
+      "--refine-unknowns <n>",
+      "no added grid above n unknowns (default 1100000, about 1024×1024)",
+    )
+    .option(
+      "--refine-seconds <s>",
+      "solve time the added grids of one study may take (default 120)",
     )
     .option("--baseline <file>", "compare with the result.json of the previous release")
     .option("--no-progress", "no progress output")
@@ -190,6 +214,28 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
     ? undefined
     : parsePositive(flags.tolerance, "--tolerance");
   const formats = (flags.format ?? "").split(",").map((s) => s.trim()).filter((s) => s !== "");
+  for (const format of formats) {
+    // refuse an unknown report format before any solve runs
+    try {
+      rendererFor(format);
+    } catch (error) {
+      if (error instanceof RangeError) throw new InputError(error.message, { where: "--format" });
+      throw error;
+    }
+  }
+  const refine = {
+    maxAdded: flags.refine === false
+      ? 0
+      : flags.refineGrids === undefined
+      ? undefined
+      : parseCount(flags.refineGrids),
+    maxUnknowns: flags.refineUnknowns === undefined
+      ? undefined
+      : parsePositive(flags.refineUnknowns, "--refine-unknowns"),
+    seconds: flags.refineSeconds === undefined
+      ? undefined
+      : parsePositive(flags.refineSeconds, "--refine-seconds"),
+  };
   const baseline = flags.baseline === undefined ? undefined : await readResult(flags.baseline);
 
   const cases = await selectCases(flags);
@@ -217,7 +263,8 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       jobs,
       tolerance,
       orderTolerance,
-      requireGridIndependence: flags.requireGridIndependence ?? false,
+      requireFlatIterations: !flags.iterationAdvice,
+      refine,
       outDir: flags.out,
       resume: flags.resume ?? false,
       environment: environmentRecord(),
@@ -255,6 +302,16 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   return result;
 }
 
+function parseCount(text: string): number {
+  const value = Number(text);
+  if (text.trim() === "" || !Number.isInteger(value) || value < 0) {
+    throw new InputError(`"${text}" is not a whole number ≥ 0 (0 adds no grid)`, {
+      where: "--refine-grids",
+    });
+  }
+  return value;
+}
+
 function finite(_key: string, value: unknown): unknown {
   return typeof value === "number" && !Number.isFinite(value) ? null : value;
 }
@@ -275,6 +332,8 @@ export function summaryText(result: CampaignResult): string {
     const verdicts = s.verdicts;
     const status = verdicts.some((v) => v.status === "fail")
       ? "FAIL"
+      : verdicts.some((v) => v.status === "inconclusive")
+      ? "UNDECIDED"
       : verdicts.every((v) => v.status === "not-applicable")
       ? "n/a"
       : verdicts.some((v) => v.status === "warn")
@@ -300,10 +359,26 @@ export function summaryText(result: CampaignResult): string {
     lines.push("", "Failed:");
     for (const v of failed) lines.push(`  ${v.caseId} × ${v.solver} [${v.criterion}]: ${v.reason}`);
   }
+  const undecided = allVerdicts(result).filter((v) => v.status === "inconclusive");
+  if (undecided.length > 0) {
+    lines.push(
+      "",
+      "Undecided (the evidence does not decide; refine further or fix what blocks it):",
+    );
+    for (const v of undecided) {
+      lines.push(`  ${v.caseId} × ${v.solver} [${v.criterion}]: ${v.reason}`);
+    }
+  }
+  const added = result.studies.filter((s) => s.added);
+  if (added.length > 0) {
+    lines.push("", "Grids added to decide:");
+    for (const s of added) lines.push(`  ${s.caseId} × ${s.solver}: ${s.added!.reason}`);
+  }
   const s = result.summary;
   lines.push(
     "",
-    `${s.pass} passed, ${s.fail} failed, ${s.warn} warnings, ${s.notApplicable} not applicable ` +
+    `${s.pass} passed, ${s.fail} failed, ${s.inconclusive ?? 0} undecided, ${s.warn} warnings, ` +
+      `${s.notApplicable} not applicable ` +
       `(pass* = passed with warnings; see the report for details)`,
     "Code verification shows the discrete equations are solved correctly; it does not validate " +
       "the physical model.",

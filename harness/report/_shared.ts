@@ -44,17 +44,13 @@ export function percent(value: number | null | undefined): string {
   return `${Number((value * 100).toPrecision(3))} %`;
 }
 
-/** Severity order used to put failures first. */
-export const SEVERITY: Record<VerdictStatus, number> = {
-  fail: 0,
-  warn: 1,
-  pass: 2,
-  "not-applicable": 3,
-};
+export { SEVERITY } from "../result/severity.ts";
+import { SEVERITY, worstStatus } from "../result/severity.ts";
 
 /** Upper-case word shown for a status in text and Markdown. */
 export const STATUS_WORD: Record<VerdictStatus, string> = {
   fail: "FAIL",
+  inconclusive: "UNDECIDED",
   warn: "WARN",
   pass: "PASS",
   "not-applicable": "N/A",
@@ -62,9 +58,7 @@ export const STATUS_WORD: Record<VerdictStatus, string> = {
 
 /** The worst status among verdicts ("not-applicable" when there are none). */
 export function worst(verdicts: Verdict[]): VerdictStatus {
-  let out: VerdictStatus = "not-applicable";
-  for (const v of verdicts) if (SEVERITY[v.status] < SEVERITY[out]) out = v.status;
-  return out;
+  return worstStatus(verdicts);
 }
 
 /** Every verdict of the result (study verdicts, then baseline verdicts). */

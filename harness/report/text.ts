@@ -29,6 +29,7 @@ export interface TextOptions {
 
 const ANSI: Record<VerdictStatus, string> = {
   fail: "\x1b[1;31m",
+  inconclusive: "\x1b[1;35m",
   warn: "\x1b[33m",
   pass: "\x1b[32m",
   "not-applicable": "\x1b[2m",

@@ -24,6 +24,32 @@ export interface NormSet {
 /** Where an error norm is measured: every node, interior nodes only, a band of boundary nodes. */
 export type Region = "all" | "interior" | "boundary";
 
+/** The sides of the rectangle (the one list of sides). */
+export type SideName = "west" | "east" | "south" | "north";
+
+/**
+ * Places a defect is located in: the band along each side (two point layers, corner blocks
+ * excluded), the four corner blocks together, and the interior beyond the bands.
+ */
+export type Place = SideName | "corners" | "interior";
+
+/** Every place, in report order. */
+export const PLACES: readonly Place[] = ["west", "east", "south", "north", "corners", "interior"];
+
+/**
+ * How the values a vertex-layout solver returned at Dirichlet nodes compare with the data it was
+ * given there (they must agree to round-off for any vertex scheme).
+ */
+export interface ImposedDataCheck {
+  /** Per Dirichlet side: max |u_h − g| over the side's nodes, relative to max |u| of the case. */
+  sides: Partial<Record<SideName, number>>;
+  /**
+   * When the data do not come back: a reordering of the returned values under which they would
+   * (e.g. "y-fastest instead of x-fastest"), or null when none of the tried ones does.
+   */
+  reordering: string | null;
+}
+
 /** Status of a single solve. */
 export type SolveStatus = "ok" | "failed" | "not-applicable";
 
@@ -56,6 +82,12 @@ export interface SolveRecord {
   solverSeconds?: number | null;
   /** Max-norm difference from the reference solver's discrete solution on the same grid, when both ran. */
   differenceFromReference?: number | null;
+  /** Where that difference is largest: the point and its place. */
+  differenceAt?: { x: number; y: number; place: Place } | null;
+  /** Error norms per place (side bands, corners, interior), when the layout has places. */
+  places?: Partial<Record<Place, NormSet>>;
+  /** Vertex layouts with Dirichlet sides: whether the imposed data came back. */
+  imposed?: ImposedDataCheck;
   /** Last 64 KiB of an external solver's stderr. */
   stderrTail?: string;
   /** The solver's describe() record or reported name/version/notes. */
@@ -123,19 +155,27 @@ export interface ScalingRecord {
   factorExponent: number | null;
   /** Fitted exponent of solve time against unknowns (≈ 1 for an optimal solver). */
   timeExponent: number | null;
+  /** Iterations exponent ≤ 0.1 (flat), null when unknown. */
   gridIndependent: boolean | null;
+  /** Unknowns of the smallest grid the exponents were fitted over. */
+  fittedFrom?: number | null;
   /** Solves that stagnated, diverged or stopped without converging, as "nx×ny: reason". */
   problems: string[];
 }
 
 /** Outcome of one criterion. */
-export type VerdictStatus = "pass" | "fail" | "warn" | "not-applicable";
+/**
+ * Outcome of one criterion. "fail": the evidence says defect and the reason says what and where;
+ * "inconclusive": the evidence does not decide (more grids needed, or a precondition failed);
+ * "warn": advisory, never decides the exit code; "not-applicable": the criterion does not apply.
+ */
+export type VerdictStatus = "pass" | "fail" | "inconclusive" | "warn" | "not-applicable";
 
 /** One judgement with a reason in plain words a reviewer can act on. */
 export interface Verdict {
   caseId: string;
   solver: string;
-  /** e.g. "order", "convergence", "grid-independence", "asymptotic-range", "baseline-order". */
+  /** e.g. "order", "convergence", "flat-iterations", "asymptotic-range", "baseline-order". */
   criterion: string;
   status: VerdictStatus;
   reason: string;
@@ -158,6 +198,12 @@ export interface StudyRecord {
   /** Fraction of GCI bands that contained the true error (null when none computed). */
   coverage: number | null;
   scaling: ScalingRecord;
+  /** Max-norm error per place on each grid (coarsest first) and the finest pairwise order. */
+  places?: { place: Place; errors: (number | null)[]; order: number | null }[];
+  /** Grids added to the case's sequence to reach a decisive verdict, and why. */
+  added?: { grids: number[]; reason: string };
+  /** Cross-case reading of this solver's failures (never changes a verdict). */
+  diagnosis?: string;
   verdicts: Verdict[];
 }
 
@@ -192,6 +238,8 @@ export interface SolverInfo {
   command?: string[];
   layout: "vertex" | "cell" | "points";
   scheme: "central" | "upwind";
+  /** Declared iteration growth g (iterations ~ N^g); absent: flat (0.1). */
+  iterationGrowth?: number;
   description?: Record<string, unknown>;
 }
 
@@ -209,6 +257,8 @@ export interface CampaignResult {
     orderTolerance: number;
     requireGridIndependence: boolean;
     baseline?: string;
+    /** Budget of grids added to inconclusive studies. */
+    refine?: { maxAdded: number; maxUnknowns: number; seconds: number };
   };
   cases: CaseInfo[];
   solvers: SolverInfo[];
@@ -216,5 +266,12 @@ export interface CampaignResult {
   studies: StudyRecord[];
   /** Verdicts that compare with a saved baseline (not tied to one study's grids). */
   baselineVerdicts: Verdict[];
-  summary: { pass: number; fail: number; warn: number; notApplicable: number; exitCode: number };
+  summary: {
+    pass: number;
+    fail: number;
+    inconclusive?: number;
+    warn: number;
+    notApplicable: number;
+    exitCode: number;
+  };
 }

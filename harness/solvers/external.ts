@@ -82,6 +82,7 @@ export function createExternalSolver(
       command: [...spec.command],
       layout: spec.layout,
       scheme: spec.scheme,
+      ...(spec.iterationGrowth !== undefined ? { iterationGrowth: spec.iterationGrowth } : {}),
       description: {
         mode: spec.mode,
         encoding: spec.encoding,

@@ -122,6 +122,7 @@ export async function loadSolverFile(
     if (entry.env !== undefined) spec.env = { ...(entry.env as Record<string, string>) };
     if (entry.memoryLimitMiB !== undefined) spec.memoryLimitMiB = entry.memoryLimitMiB as number;
     if (entry.constantArrays !== undefined) spec.constantArrays = entry.constantArrays as boolean;
+    if (entry.iterationGrowth !== undefined) spec.iterationGrowth = entry.iterationGrowth as number;
     specs.push(spec);
   });
   return specs;

@@ -99,6 +99,11 @@ export interface ExternalSolverSpec {
   timeLimitSeconds: number;
   /** Address-space limit (RLIMIT_AS via prlimit); none by default. */
   memoryLimitMiB?: number;
+  /**
+   * Iteration growth the method has: iterations ~ N^g in the unknowns N. Default (absent) 0.1,
+   * flat (multigrid, direct solvers); 0.5 for SOR or CG, 1 for Gauss–Seidel.
+   */
+  iterationGrowth?: number;
   /** Case ids reported as not applicable. Default []. */
   skipCases: string[];
   /** Largest accepted reply. Default 1024 (1 GiB). */

@@ -1,0 +1,110 @@
+/**
+ * A cross-case reading of a solver's failures: which ingredient (a boundary kind on a side, an
+ * operator term, a variable coefficient, non-square cells) is present in every case whose order
+ * failed and absent from every case whose order passed. It adds a diagnosis to the failing
+ * studies and their order verdicts' reasons; it never changes a verdict.
+ *
+ * @module
+ */
+import type { CompiledCase } from "../../cases/types.ts";
+import type { SideName, StudyRecord } from "../result/types.ts";
+
+/** One ingredient of a case, in the trade's words. */
+interface Ingredient {
+  key: string;
+  words: string;
+}
+
+const SIDES: SideName[] = ["west", "east", "south", "north"];
+const KIND_WORD: Record<string, string> = { neumann: "Neumann", robin: "Robin" };
+
+/** The ingredients of a case, each named in the trade's words and the case's symbols. */
+export function ingredients(kase: CompiledCase): Ingredient[] {
+  const out: Ingredient[] = [];
+  for (const kind of ["neumann", "robin"]) {
+    const sides = SIDES.filter((s) => kase.boundary[s].kind === kind);
+    if (sides.length > 0) out.push({ key: kind, words: `a ${KIND_WORD[kind]} side` });
+    for (const s of sides) {
+      out.push({ key: `${kind}:${s}`, words: `the ${KIND_WORD[kind]} condition on the ${s} side` });
+    }
+  }
+  const constant = kase.constantCoefficients;
+  const present = (k: "b" | "d" | "e") => constant[k] !== 0;
+  if (present("b")) out.push({ key: "b", words: "the first-derivative term in x (b·u_x)" });
+  if (present("d")) out.push({ key: "d", words: "the first-derivative term in y (d·u_y)" });
+  if (present("e")) out.push({ key: "e", words: "the reaction term (e·u)" });
+  if (constant.a === undefined) {
+    out.push({ key: "a", words: "the variable coefficient of u_xx (a)" });
+  }
+  if (constant.c === undefined) {
+    out.push({ key: "c", words: "the variable coefficient of u_yy (c)" });
+  }
+  const { x0, x1, y0, y1 } = kase.domain;
+  const g = kase.gridFor(64);
+  const hx = (x1 - x0) / g.nx, hy = (y1 - y0) / g.ny;
+  if (Math.abs(hx / hy - 1) > 1e-9) out.push({ key: "cells", words: "non-square cells (hx ≠ hy)" });
+  return out;
+}
+
+function orderOutcome(study: StudyRecord): "fail" | "pass" | null {
+  const judged = study.verdicts.filter((v) =>
+    v.criterion === "order" || v.criterion === "exactness"
+  );
+  if (judged.some((v) => v.status === "fail")) return "fail";
+  if (
+    judged.length > 0 && judged.every((v) => v.status === "pass" || v.status === "not-applicable")
+  ) {
+    return judged.some((v) => v.status === "pass") ? "pass" : null;
+  }
+  return null;
+}
+
+/**
+ * For each solver with failing and passing studies, finds the ingredients shared by every failing
+ * case and absent from every passing one, and writes the finding into the failing studies'
+ * `diagnosis` and their first failing order or exactness verdict.
+ *
+ * @param studies The campaign's studies (changed in place: diagnosis and reasons only).
+ * @param cases The cases, by id.
+ */
+export function diagnoseAcrossCases(studies: StudyRecord[], cases: CompiledCase[]): void {
+  const byId = new Map(cases.map((c) => [c.id, c]));
+  const solvers = [...new Set(studies.map((s) => s.solver))];
+  for (const solver of solvers) {
+    const mine = studies.filter((s) => s.solver === solver && byId.has(s.caseId));
+    const failing = mine.filter((s) => orderOutcome(s) === "fail");
+    const passing = mine.filter((s) => orderOutcome(s) === "pass");
+    if (failing.length === 0 || passing.length === 0) continue;
+    const of = (s: StudyRecord) => ingredients(byId.get(s.caseId)!);
+    const inFailing = of(failing[0]).filter((i) =>
+      failing.every((s) => of(s).some((j) => j.key === i.key))
+    );
+    const explaining = inFailing.filter((i) =>
+      passing.every((s) => !of(s).some((j) => j.key === i.key))
+    );
+    const fl = failing.map((s) => s.caseId).join(", ");
+    const pl = passing.map((s) => s.caseId).join(", ");
+    let text: string;
+    if (explaining.length > 0) {
+      text = `across the campaign, ${solver} fails the order on every case with ${
+        explaining.map((i) => i.words).join(" and with ")
+      } (${fl}) and passes it on every case without (${pl}): the defect is most likely in ${
+        explaining.map((i) => i.words).join(" or ")
+      }`;
+    } else if (inFailing.length > 0) {
+      text = `across the campaign, every case where ${solver} fails the order (${fl}) has ${
+        inFailing.map((i) => i.words).join(", ")
+      }, but so do cases where it passes (${pl}): no single ingredient explains the failures`;
+    } else {
+      text = `across the campaign, the cases where ${solver} fails the order (${fl}) share no ` +
+        `boundary kind, operator term or cell shape that the passing ones (${pl}) lack`;
+    }
+    for (const s of failing) {
+      s.diagnosis = text;
+      const v = s.verdicts.find((v) =>
+        (v.criterion === "order" || v.criterion === "exactness") && v.status === "fail"
+      );
+      if (v) v.reason += `. ${text[0].toUpperCase()}${text.slice(1)}`;
+    }
+  }
+}
