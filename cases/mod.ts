@@ -19,6 +19,9 @@ export type {
   CaseFormulas,
   CompiledCase,
   ExpectedOrder,
+  LayoutName,
+  LayoutOverridable,
+  LayoutOverride,
   NormName,
   PointFn,
   SchemeName,
@@ -37,6 +40,7 @@ export {
 } from "./load.ts";
 export { type CaseValidation, validateCaseText } from "./validate.ts";
 export { buildCase, type BuildOptions } from "./engine.ts";
+export { expectationFor } from "./expectation_for.ts";
 export { compileExpression, type CompileExpressionOptions } from "./compile_expression.ts";
 export {
   compileExpr,

@@ -16,6 +16,26 @@ export type NormName = "max" | "l2" | "l1";
 /** Discretizations a case declares orders for. */
 export type SchemeName = "central" | "upwind";
 
+/**
+ * Where a solver's values sit: grid nodes (`vertex`), cell centres of a cell-centred scheme
+ * (`cell`), or points the solver chose itself (`points`, e.g. cell-centre averages of nodal values).
+ * The same names as a solver file's `layout`.
+ */
+export type LayoutName = "vertex" | "cell" | "points";
+
+/** The fields of an {@link ExpectedOrder} a layout may override (not `grids`: they are the scheme's). */
+export type LayoutOverridable = "formal" | "observed" | "exact" | "tolerance";
+
+/**
+ * One layout's departure from its scheme's expectation, with the reason it departs (for example:
+ * the cell-centred Dirichlet ghost `2g − u₁` is only second-order, so a quadratic is not reproduced
+ * to round-off). `observed` is merged per norm into the scheme's; the other fields replace it.
+ */
+export type LayoutOverride = Partial<Pick<ExpectedOrder, LayoutOverridable>> & {
+  /** Why this layout expects something else than the scheme says (the theory, or a measurement). */
+  reason: string;
+};
+
 /** The order a case expects under one discretization. */
 export interface ExpectedOrder {
   /** Formal order of the scheme (central 2, upwind 1). */
@@ -34,6 +54,11 @@ export interface ExpectedOrder {
   grids?: number[];
   /** Allowed |observed − expected| order for this case; default: the campaign's (0.1). */
   tolerance?: number;
+  /**
+   * Per-layout overrides of `formal`, `observed`, `exact` and `tolerance`, each with its reason.
+   * Read an expectation for one layout with `expectationFor`, which merges them in.
+   */
+  layouts?: Partial<Record<LayoutName, LayoutOverride>>;
 }
 
 /** One side's boundary condition of a compiled case, with its derived data as a point function. */

@@ -1,8 +1,8 @@
 /**
  * Validation of case file text at the door: strict JSON with positions, the JSON Schema
  * (`case.schema.json`, draft 2020-12, checked by Ajv with every error collected), then the rules a
- * schema cannot say (x0 < x1, increasing grids, reserved parameter names). Expressions are checked
- * later, by the engine, with mathjs.
+ * schema cannot say (x0 < x1, increasing grids, reserved parameter names, a layout override that
+ * changes nothing). Expressions are checked later, by the engine, with mathjs.
  *
  * @module
  */
@@ -67,9 +67,22 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
     const valid = Object.keys(
       (e.parentSchema as { properties?: Record<string, unknown> }).properties ?? {},
     );
+    const pointer = `${e.instancePath}/${name}`;
+    if (name === "grids" && LAYOUT_OVERRIDE.test(e.instancePath)) {
+      const scheme = e.instancePath.split("/")[2];
+      problems.push({
+        file,
+        field: fieldPath(pointer),
+        ...at(pointer, true),
+        message: `grids cannot be set per layout: every layout of a scheme uses the same grids; ` +
+          `move them to expected.${scheme}.grids or remove them (valid fields here: ${
+            valid.join(", ")
+          })`,
+      });
+      continue;
+    }
     const near = closestName(name, valid);
     if (near) suggestedFor.add(`${e.instancePath}/${near}`);
-    const pointer = `${e.instancePath}/${name}`;
     problems.push({
       file,
       field: fieldPath(pointer),
@@ -148,6 +161,9 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
   return problems;
 }
 
+/** JSON pointer of one layout's override, `/expected/<scheme>/layouts/<layout>`. */
+const LAYOUT_OVERRIDE = /^\/expected\/[^/]+\/layouts\/[^/]+$/;
+
 const RESERVED = new Set(["x", "y", "pi", "e", ...Object.keys(ALLOWED_FUNCTIONS)]);
 
 function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[] {
@@ -186,6 +202,16 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
           `grid ${grids[k]} gives ny = round(${grids[k]} · ${aspect}) < 2; use larger grids`,
         );
       }
+    }
+  }
+  for (const scheme of ["central", "upwind"] as const) {
+    for (const [layout, override] of Object.entries(c.expected[scheme]?.layouts ?? {})) {
+      if (Object.keys(override).some((key) => key !== "reason")) continue;
+      push(
+        `/expected/${scheme}/layouts/${layout}`,
+        `the ${layout} override changes nothing, it has only a reason; add the fields that ` +
+          "differ for this layout (formal, observed, exact, tolerance) or remove the override",
+      );
     }
   }
   for (const name of Object.keys(c.parameters ?? {})) {

@@ -70,3 +70,54 @@ Deno.test("fieldPath() turns JSON pointers into dotted paths", () => {
   assert.equal(fieldPath("/grids/2"), "grids[2]");
   assert.equal(fieldPath(""), "");
 });
+
+Deno.test("validateCaseText() accepts per-layout overrides and locates their problems", async (t) => {
+  const withLayouts = (layouts: unknown) => {
+    const doc = JSON.parse(good);
+    doc.expected.central.layouts = layouts;
+    return validateCaseText(JSON.stringify(doc, null, 2), "l.json");
+  };
+  const messages = (layouts: unknown) =>
+    withLayouts(layouts).problems.map(formatProblem).join("\n");
+
+  await t.step("a valid override", () => {
+    const { value, problems } = withLayouts({
+      cell: { exact: false, formal: 2, reason: "ghost 2g − u₁ is second-order" },
+      points: { observed: { max: { order: 1.5, reason: "r" } }, tolerance: 0.2, reason: "r" },
+    });
+    assert.deepEqual(problems, []);
+    assert.equal(value?.expected.central.layouts?.cell?.exact, false);
+  });
+  await t.step("an override without its reason", () => {
+    assert.match(
+      messages({ cell: { exact: false } }),
+      /^l\.json:\d+:\d+: expected\.central\.layouts\.cell\.reason: missing field "reason" \(Why/m,
+    );
+  });
+  await t.step("a misspelled layout", () => {
+    assert.match(
+      messages({ cells: { exact: false, reason: "r" } }),
+      /expected\.central\.layouts\.cells: unknown field "cells"; did you mean "cell"\?/,
+    );
+  });
+  await t.step("grids per layout", () => {
+    assert.match(
+      messages({ cell: { grids: [8, 16], reason: "r" } }),
+      /^l\.json:\d+:\d+: expected\.central\.layouts\.cell\.grids: grids cannot be set per layout:.*move them to expected\.central\.grids/m,
+    );
+  });
+  await t.step("an override with nothing but its reason", () => {
+    assert.match(
+      messages({ vertex: { reason: "r" } }),
+      /^l\.json:\d+:\d+: expected\.central\.layouts\.vertex: the vertex override changes nothing, it has only a reason; add the fields/m,
+    );
+  });
+  await t.step("an empty reason and a wrong type", () => {
+    const text = messages({ cell: { exact: "no", reason: "" } });
+    assert.match(text, /expected\.central\.layouts\.cell\.exact: must be boolean, found "no"/);
+    assert.match(
+      text,
+      /expected\.central\.layouts\.cell\.reason: must NOT have fewer than 1 characters/,
+    );
+  });
+});
