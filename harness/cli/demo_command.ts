@@ -60,11 +60,16 @@ export function unmetExpectations(result: CampaignResult): string[] {
     const bad = failing(solver).map((s) => s.caseId);
     if (bad.length > 0) unmet.push(`${solver} should pass every case but failed ${bad.join(", ")}`);
   }
+  // the seeded defect sits in the Neumann and Robin closures: a failing order verdict must say so
   const caught = failing(CANDIDATE).filter((s) =>
-    s.verdicts.some((v) => v.status === "fail" && v.criterion === "boundary-order")
+    s.verdicts.some((v) =>
+      v.status === "fail" && v.criterion === "order" && /Neumann|Robin/.test(v.reason)
+    )
   );
   if (caught.length === 0) {
-    unmet.push(`${CANDIDATE}'s seeded boundary defect was not caught by a boundary-order verdict`);
+    unmet.push(
+      `${CANDIDATE}'s seeded boundary defect was not caught by an order verdict naming its sides`,
+    );
   }
   const kindsOf = (id: string) =>
     Object.values(result.cases.find((c) => c.id === id)?.boundaryKinds ?? {});
@@ -102,7 +107,7 @@ export function demoSummary(result: CampaignResult): string {
   if (failures.length > 0) {
     lines.push("", `What the verification found in ${CANDIDATE}:`);
     for (const s of failures) {
-      const v = s.verdicts.find((v) => v.status === "fail" && v.criterion === "boundary-order") ??
+      const v = s.verdicts.find((v) => v.status === "fail" && v.criterion === "order") ??
         s.verdicts.find((v) => v.status === "fail")!;
       lines.push(`  ${s.caseId} [${v.criterion}]: ${v.reason}`);
     }

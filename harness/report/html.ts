@@ -32,7 +32,7 @@ import { escapeHtml as esc } from "./escape.ts";
 import { type PlotSpec, renderSvg, reportPlots } from "./plots.ts";
 
 const STYLE = `
-:root { color-scheme: light; --fail: #b3261e; --warn: #8a5a00; --pass: #1e6b34; --na: #666; }
+:root { color-scheme: light; --fail: #b3261e; --undecided: #6a1b9a; --warn: #8a5a00; --pass: #1e6b34; --na: #666; }
 body { font: 15px/1.5 system-ui, sans-serif; margin: 0 auto; max-width: 1180px; padding: 1.5rem;
   color: #1b1b1b; background: #fff; }
 h1 { font-size: 1.6rem; margin-bottom: 0.2rem; }
@@ -47,6 +47,7 @@ code, pre { font: 0.85rem/1.4 ui-monospace, monospace; }
 pre { background: #f6f6f6; padding: 0.5rem; overflow-x: auto; white-space: pre-wrap; }
 .status { font-weight: 700; padding: 0 0.35rem; border-radius: 3px; color: #fff; font-size: 0.8rem; }
 .status.fail { background: var(--fail); } .status.warn { background: var(--warn); }
+.status.inconclusive { background: var(--undecided); }
 .status.pass { background: var(--pass); } .status.not-applicable { background: var(--na); }
 .caution { border-left: 4px solid var(--warn); background: #fff8e6; padding: 0.5rem 0.8rem; }
 .plots { display: flex; flex-wrap: wrap; gap: 1rem; }
@@ -322,11 +323,21 @@ export async function renderHtml(result: CampaignResult): Promise<string> {
 <p class="muted">${esc(result.tool.name)} ${esc(result.tool.version)} · ${
     esc(result.createdAt)
   } · ${esc(result.environment.hostname)}</p>
-<p>${badge(failures.length > 0 ? "fail" : count("warn") > 0 ? "warn" : "pass")} ${
-    count("fail")
-  } failed, ${count("warn")} warnings, ${count("pass")} passed, ${
-    count("not-applicable")
-  } not applicable · exit code ${esc(String(result.summary.exitCode))}</p>
+<p>${
+    badge(
+      failures.length > 0
+        ? "fail"
+        : count("inconclusive") > 0
+        ? "inconclusive"
+        : count("warn") > 0
+        ? "warn"
+        : "pass",
+    )
+  } ${count("fail")} failed, ${count("inconclusive")} undecided, ${count("warn")} warnings, ${
+    count("pass")
+  } passed, ${count("not-applicable")} not applicable · exit code ${
+    esc(String(result.summary.exitCode))
+  }</p>
 <p class="caution"><strong>Caution.</strong> ${esc(CAUTION)}</p>
 </header>
 <main>

@@ -62,6 +62,11 @@ function testcase(v: Verdict, name: string, classname: string): string {
     case "fail":
       return `${head}>\n      <failure message="${attr(v.reason)}" type="${attr(v.criterion)}">` +
         `${esc(v.reason + details)}</failure>\n    </testcase>`;
+    case "inconclusive":
+      // Not a pass: JUnit's <error> (the test could not reach a decision), so a gate that counts
+      // failures and errors never lets an undecided verdict through.
+      return `${head}>\n      <error message="${attr("undecided: " + v.reason)}" ` +
+        `type="inconclusive">${esc(v.reason + details)}</error>\n    </testcase>`;
     case "warn":
       return `${head}>\n      <system-out>${esc("warning: " + v.reason + details)}</system-out>` +
         `\n    </testcase>`;
@@ -88,25 +93,32 @@ export function renderJunit(result: CampaignResult): string {
   const out: string[] = [];
   let tests = 0;
   let failures = 0;
+  let errors = 0;
   let total = 0;
   const body: string[] = [];
   for (const [index, suite] of suites(result).entries()) {
     const classname = `gridproof.${suite.caseId}.${suite.solver}`;
     const seen = new Map<string, number>();
     const cases = suite.verdicts.map((v) => {
-      // the same criterion twice in one suite gets a counter so CI servers keep both
-      const n = (seen.get(v.criterion) ?? 0) + 1;
-      seen.set(v.criterion, n);
-      return testcase(v, n === 1 ? v.criterion : `${v.criterion} (${n})`, classname);
+      // a verdict per norm is named by its norm; any other repeat gets a counter so CI servers
+      // keep both
+      const norm = typeof v.details?.norm === "string" ? ` (${v.details.norm} norm)` : "";
+      const name = v.criterion + norm;
+      const n = (seen.get(name) ?? 0) + 1;
+      seen.set(name, n);
+      return testcase(v, n === 1 ? name : `${name} (${n})`, classname);
     });
     const failed = suite.verdicts.filter((v) => v.status === "fail").length;
+    const undecided = suite.verdicts.filter((v) => v.status === "inconclusive").length;
+    errors += undecided;
     const skipped = suite.verdicts.filter((v) => v.status === "not-applicable").length;
     tests += suite.verdicts.length;
     failures += failed;
     total += suite.seconds;
     body.push(
       `  <testsuite name="${esc(`${suite.caseId} · ${suite.solver}`)}" ` +
-        `tests="${suite.verdicts.length}" failures="${failed}" errors="0" skipped="${skipped}" ` +
+        `tests="${suite.verdicts.length}" failures="${failed}" errors="${undecided}" ` +
+        `skipped="${skipped}" ` +
         `time="${suite.seconds.toFixed(3)}"` + (stamp ? ` timestamp="${stamp}"` : "") +
         ` hostname="${esc(result.environment.hostname || "unknown")}" id="${index}" ` +
         `package="gridproof.${esc(suite.caseId)}">`,
@@ -121,7 +133,7 @@ export function renderJunit(result: CampaignResult): string {
   }
   out.push(`<?xml version="1.0" encoding="UTF-8"?>`);
   out.push(
-    `<testsuites name="gridproof" tests="${tests}" failures="${failures}" errors="0" ` +
+    `<testsuites name="gridproof" tests="${tests}" failures="${failures}" errors="${errors}" ` +
       `time="${total.toFixed(3)}">`,
   );
   out.push(...body);

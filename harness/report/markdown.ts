@@ -66,10 +66,12 @@ export function renderMarkdown(result: CampaignResult): string {
   const all = allVerdicts(result);
   const failures = all.filter((v) => v.status === "fail");
   const warnings = all.filter((v) => v.status === "warn");
+  const undecided = all.filter((v) => v.status === "inconclusive");
   const passed = all.filter((v) => v.status === "pass").length;
   const out: string[] = [];
   out.push(
-    `### gridproof: ${failures.length} failed, ${warnings.length} warnings, ${passed} passed`,
+    `### gridproof: ${failures.length} failed, ${undecided.length} undecided, ` +
+      `${warnings.length} warnings, ${passed} passed`,
   );
   out.push("");
   out.push(

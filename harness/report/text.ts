@@ -172,7 +172,8 @@ export function renderText(result: CampaignResult, options: TextOptions = {}): s
   const count = (s: VerdictStatus) => all.filter((v) => v.status === s).length;
   out.push("");
   out.push(
-    `${count("pass")} pass · ${count("fail")} fail · ${count("warn")} warn · ` +
+    `${count("pass")} pass · ${count("fail")} fail · ${count("inconclusive")} undecided · ` +
+      `${count("warn")} warn · ` +
       `${count("not-applicable")} not applicable — exit code ${result.summary.exitCode}`,
   );
   return out.join("\n") + "\n";
