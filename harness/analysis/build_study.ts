@@ -53,7 +53,7 @@ const NORMS: (keyof NormSet)[] = ["max", "l2", "l1"];
  *     caseId: "c", solver: "s", nx: n, ny: n, h: 1 / n, unknowns: (n - 1) ** 2,
  *     status: "ok" as const, errors: { all: { max: e, l2: e, l1: e },
  *     interior: { max: e, l2: e, l1: e }, boundary: { max: e, l2: e, l1: e } },
- *     quantities: { mean: 1 + e }, residualHistory: [1, 0.1, 0.01], iterations: 2,
+ *     quantities: { mean: 1 + e }, residualHistory: [1, 1e-6, 1e-12], iterations: 2,
  *     converged: true, averageFactor: 0.1, asymptoticFactor: 0.1, seconds: n * n * 1e-6,
  *   };
  * };

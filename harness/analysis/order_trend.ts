@@ -52,8 +52,9 @@ export interface OrderTrend {
  *   falling toward P by more than τ/4 per refinement;
  * - finest pair below P − τ with one pair only: inconclusive (two grids never decide a failure);
  * - below with two or more pairs: the deviation's shrink ratio d_m/d_{m−1} decides — below
- *   {@link settleRatio}(r) it is approaching (inconclusive: refine), between that and 1 it has
- *   settled below P (fail), above 1 it moves away from P (fail).
+ *   {@link settleRatio}(r) it is approaching (inconclusive: refine); otherwise it fails, as moving
+ *   away from P when the order fell by more than τ/2 on the last refinement (or crossed P from
+ *   above), else as settled below P.
  *
  * @param h Spacings, coarsest first.
  * @param errors Errors per grid (null where missing).
@@ -112,11 +113,14 @@ export function orderTrend(
   const ratio = prev < 0 ? d / prev : Infinity; // from above (or at P) to below: moving away
   base.ratio = Number.isFinite(ratio) ? ratio : null;
   if (ratio < base.settleRatio) return { ...base, kind: "approaching", outcome: "inconclusive" };
-  const heading = headingOrder(h, errors, expected) ?? (ratio <= 1 ? last : null);
+  // Moving away: the order fell by more than τ/2 on the last refinement (or crossed from above);
+  // otherwise the gap stays about put: settled below.
+  const away = prev >= 0 || d - prev < -tolerance / 2;
+  const heading = headingOrder(h, errors, expected);
   return {
     ...base,
-    heading: ratio <= 1 ? (heading ?? last) : heading,
-    kind: ratio <= 1 ? "settled-below" : "moving-away",
+    heading: away ? heading : (heading ?? last),
+    kind: away ? "moving-away" : "settled-below",
     outcome: "fail",
   };
 }
