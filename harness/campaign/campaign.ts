@@ -270,7 +270,7 @@ export function summarize(result: CampaignResult): CampaignResult["summary"] {
 function undecided(study: StudyRecord): string | null {
   const v = study.verdicts.find((v) =>
     (v.criterion === "order" || v.criterion === "exactness") && v.status === "inconclusive" &&
-    typeof v.details?.trend === "string"
+    typeof v.details?.trend === "string" && v.details.blocked === undefined
   );
   return v ? `${v.details!.norm} norm ${v.details!.trend}` : null;
 }

@@ -98,8 +98,8 @@ function dirichletData(kase: CompiledCase, nx: number, ny: number): SideData {
   const { x0, x1, y0, y1 } = kase.domain;
   const out: SideData = {};
   for (const side of ["west", "east", "south", "north"] as SideName[]) {
-    const b = kase.boundary[side];
-    if (b.kind !== "dirichlet") continue;
+    const b = kase.boundary?.[side];
+    if (b?.kind !== "dirichlet") continue;
     const vertical = side === "west" || side === "east";
     const m = vertical ? ny : nx;
     const g = new Float64Array(m + 1);

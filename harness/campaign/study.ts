@@ -96,7 +96,7 @@ export function buildStudies(
         const few = judged.length < 3;
         study.verdicts.push({
           ...base,
-          status: few ? "not-applicable" : "pass",
+          status: few ? "not-applicable" : "warn",
           reason: `the solver declined ${grids} (${declined[0].reason ?? "not applicable"}); ` +
             (few
               ? `only ${judged.length} grid${

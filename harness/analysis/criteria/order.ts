@@ -105,7 +105,7 @@ function judgeNorm(context: JudgeContext, norm: NormName) {
       status: "inconclusive" as const,
       reason: `${observed}: not judged, because ${blockers.join(" and ")} (see that verdict); ` +
         `the discretization is not to blame on this evidence`,
-      details,
+      details: { ...details, blocked: blockers.slice() },
     };
   }
   let reason = `${observed}: ${trendWords(trend, expected)}`;
