@@ -127,7 +127,8 @@ export function locateDefect(
       derivative.map((s) => sideWords(s, kinds)).join(", ")
     } Dirichlet in a variant of the case: if the order returns, that closure is at fault`
     : "every side is Dirichlet, so a closure of a derivative side is ruled out: look at the " +
-      "interior stencil, the coefficients and the source";
+      "interior stencil, the coefficients, the source and the Dirichlet treatment (ghost values " +
+      "of a cell-centred scheme)";
   const near = top.place !== "interior" && top.place !== "corners"
     ? `; the largest errors sit next to ${sideWords(top.place, kinds)}`
     : "";

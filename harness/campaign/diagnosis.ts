@@ -16,12 +16,16 @@ interface Ingredient {
 }
 
 const SIDES: SideName[] = ["west", "east", "south", "north"];
-const KIND_WORD: Record<string, string> = { neumann: "Neumann", robin: "Robin" };
+const KIND_WORD: Record<string, string> = {
+  dirichlet: "Dirichlet",
+  neumann: "Neumann",
+  robin: "Robin",
+};
 
 /** The ingredients of a case, each named in the trade's words and the case's symbols. */
 export function ingredients(kase: CompiledCase): Ingredient[] {
   const out: Ingredient[] = [];
-  for (const kind of ["neumann", "robin"]) {
+  for (const kind of ["dirichlet", "neumann", "robin"]) {
     const sides = SIDES.filter((s) => kase.boundary[s].kind === kind);
     if (sides.length > 0) out.push({ key: kind, words: `a ${KIND_WORD[kind]} side` });
     for (const s of sides) {
@@ -81,7 +85,11 @@ export function diagnoseAcrossCases(studies: StudyRecord[], cases: CompiledCase[
     );
     const explaining = inFailing.filter((i) =>
       passing.every((s) => !of(s).some((j) => j.key === i.key))
-    );
+    ).filter((i, _, all) => {
+      // a side-level ingredient adds nothing when its kind explains the failures already
+      const kind = i.key.split(":")[0];
+      return !(i.key.includes(":") && all.some((j) => j.key === kind));
+    });
     const fl = failing.map((s) => s.caseId).join(", ");
     const pl = passing.map((s) => s.caseId).join(", ");
     let text: string;
