@@ -1,4 +1,5 @@
 import type { ImposedDataCheck, SideName } from "../result/types.ts";
+import { REORDERINGS } from "./reorderings.ts";
 
 /**
  * Relative bound on |u_h − g| at Dirichlet nodes: any vertex scheme returns the imposed value
@@ -9,33 +10,6 @@ export const IMPOSED_BOUND = 1e-8;
 
 /** Nodal data of a vertex grid's Dirichlet sides, in increasing coordinate, corners included. */
 export type SideData = Partial<Record<SideName, ArrayLike<number>>>;
-
-/** Reorderings of a returned field tried when the imposed data do not come back. */
-const REORDERINGS: {
-  name: string;
-  index: (i: number, j: number, nx: number, ny: number) => number;
-}[] = [
-  {
-    name: "the values come y-fastest instead of x-fastest",
-    index: (i, j, _nx, ny) => i * (ny + 1) + j,
-  },
-  {
-    name: "the rows come north first instead of south first",
-    index: (i, j, nx, ny) => (ny - j) * (nx + 1) + i,
-  },
-  {
-    name: "each row comes east first instead of west first",
-    index: (i, j, nx) => j * (nx + 1) + nx - i,
-  },
-  {
-    name: "the values are shifted by one position (a value dropped at the start)",
-    index: (i, j, nx) => j * (nx + 1) + i - 1,
-  },
-  {
-    name: "the values are shifted by one position (a value added at the start)",
-    index: (i, j, nx) => j * (nx + 1) + i + 1,
-  },
-];
 
 function sideNodes(side: SideName, nx: number, ny: number): [number, number][] {
   const out: [number, number][] = [];
@@ -113,7 +87,7 @@ export function imposedDataCheck(
   const n = values.length;
   for (const r of REORDERINGS) {
     const read = (i: number, j: number) => {
-      const k = r.index(i, j, nx, ny);
+      const k = r.index(i, j, nx + 1, ny + 1);
       return k >= 0 && k < n ? values[k] : NaN;
     };
     if (ok(rel(worstPerSide(read, data, nx, ny)))) return { sides, reordering: r.name };

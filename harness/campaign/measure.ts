@@ -6,6 +6,7 @@
  */
 import type { CompiledCase } from "../../cases/types.ts";
 import {
+  betterOrder,
   errorNorms,
   imposedDataCheck,
   placeNorms,
@@ -83,6 +84,13 @@ export function measureOutcome(
     placeOfPoints(outcome.x, outcome.y, kase.domain, spacing),
     outcome.weights,
   );
+  if (outcome.layout !== "points") {
+    const [mx, my] = outcome.layout === "vertex"
+      ? [outcome.nx + 1, outcome.ny + 1]
+      : [outcome.nx, outcome.ny];
+    const order = betterOrder(outcome.values, exact, mx, my);
+    if (order !== null) record.outputOrder = order;
+  }
   if (outcome.layout === "vertex") {
     const data = dirichletData(kase, outcome.nx, outcome.ny);
     if (Object.keys(data).length > 0) {

@@ -50,6 +50,8 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
     kind: "reference",
     layout: "vertex",
     scheme: "central",
+    // multigrid: h-independent convergence, held to flat iteration counts
+    iterationGrowth: 0,
     description: { solveOptions: structuredClone(options.solveOptions ?? {}), workers: count },
   };
   const idle: Worker[] = [];

@@ -73,6 +73,8 @@ export function createReferenceSolver(options: ReferenceSolverOptions = {}): Sol
       kind: "reference",
       layout: "vertex",
       scheme: options.scheme ?? "central",
+      // multigrid: h-independent convergence, held to flat iteration counts
+      iterationGrowth: 0,
       description: { solveOptions: structuredClone(options.solveOptions ?? {}) },
     },
     solve(task: SolveTask): Promise<SolveOutcome> {

@@ -100,8 +100,8 @@ export interface ExternalSolverSpec {
   /** Address-space limit (RLIMIT_AS via prlimit); none by default. */
   memoryLimitMiB?: number;
   /**
-   * Iteration growth the method has: iterations ~ N^g in the unknowns N. Default (absent) 0.1,
-   * flat (multigrid, direct solvers); 0.5 for SOR or CG, 1 for Gauss–Seidel.
+   * Iteration growth the method has: iterations ~ N^g in the unknowns N. Default (absent) 0.5,
+   * as SOR or CG; 0 for multigrid or direct solvers (held to flat counts), 1 for Gauss–Seidel.
    */
   iterationGrowth?: number;
   /** Case ids reported as not applicable. Default []. */

@@ -11,12 +11,16 @@ export const GROWTH_MARGIN = 0.25;
 /** Time may grow this much faster than N^(1 + declared growth) before a warning (noisy clocks). */
 export const TIME_MARGIN = 0.5;
 
+/** Growth assumed when a solver declares none: SOR with a good ω, or CG without multigrid. */
+export const DEFAULT_GROWTH = 0.5;
+
 /**
- * "flat-iterations": the iterations stay flat as the grid is refined — the iteration-count
- * exponent g in iterations ∝ N^g, fitted over the finer grids only (scaling record), may exceed
- * the growth the solver declares (default 0.1: multigrid or direct; a Krylov method without
- * multigrid declares 0.5, Gauss–Seidel 1) by at most {@link GROWTH_MARGIN}. A solver whose
- * iterations grow like N therefore fails by default. Counts that differ by at most one pass. The
+ * "flat-iterations": the iterations stay flat as the grid is refined, or grow no faster than the
+ * solver declares — the iteration-count exponent g in iterations ∝ N^g, fitted over the finer
+ * grids only (scaling record), may exceed the declared growth (default {@link DEFAULT_GROWTH};
+ * multigrid and direct solvers declare 0 and are held to flat counts, Gauss–Seidel declares 1)
+ * by at most {@link GROWTH_MARGIN}. A single-level iteration whose count grows like N (work like
+ * N²) therefore fails by default. Counts that differ by at most one pass. The
  * time exponent is judged as advice only (a warning when it exceeds 1 + growth +
  * {@link TIME_MARGIN}): wall clocks on shared machines are too noisy to fail on.
  */
@@ -25,7 +29,7 @@ export const flatIterations: Criterion = {
   measures: "the iteration count stays flat (or grows no faster than declared) under refinement",
   judge({ input, options }) {
     const s = input.scaling;
-    const growth = options.iterationGrowth ?? 0.1;
+    const growth = options.iterationGrowth ?? DEFAULT_GROWTH;
     const strict = options.workStrictness ?? "fail";
     if (strict === "off") return [];
     const details = {
@@ -46,7 +50,7 @@ export const flatIterations: Criterion = {
     }
     const from = s.fittedFrom ? ` (fitted from ${s.fittedFrom} unknowns up)` : "";
     const words = `iterations grow like N^${f2(s.iterationsExponent)} with the unknowns N${from}`;
-    const declared = growth > 0.1 ? `the declared N^${f2(growth)}` : "flat iterations";
+    const declared = growth > 0.1 ? `the allowed N^${f2(growth)}` : "flat iterations";
     const over = s.iterationsExponent > growth + GROWTH_MARGIN && s.gridIndependent !== true;
     if (over) {
       return [{

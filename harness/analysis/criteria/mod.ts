@@ -15,7 +15,7 @@
 export { CRITERIA } from "./registry.ts";
 export { REDUCTION_SLACK } from "./convergence.ts";
 export { ITERATIVE_SHARE } from "./iterative_error.ts";
-export { GROWTH_MARGIN, TIME_MARGIN } from "./flat_iterations.ts";
+export { DEFAULT_GROWTH, GROWTH_MARGIN, TIME_MARGIN } from "./flat_iterations.ts";
 export { ERROR_FLOOR } from "./order.ts";
 export type {
   Criterion,

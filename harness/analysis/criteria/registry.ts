@@ -5,6 +5,7 @@ import { flatIterations } from "./flat_iterations.ts";
 import { imposedData } from "./imposed_data.ts";
 import { iterativeError } from "./iterative_error.ts";
 import { order } from "./order.ts";
+import { pointOrder } from "./point_order.ts";
 import type { Criterion } from "./types.ts";
 
 /**
@@ -14,6 +15,7 @@ import type { Criterion } from "./types.ts";
  * reference, applicability, baseline) live with the campaign.
  */
 export const CRITERIA: readonly Criterion[] = [
+  pointOrder,
   imposedData,
   convergence,
   iterativeError,

@@ -55,7 +55,8 @@ export interface JudgeOptions {
   requestedTolerance?: number;
   /**
    * Iteration growth the solver declares: iterations may grow like N^g with the unknowns N
-   * (default 0.1: flat, as multigrid or a direct solver; 0.5 for SOR or CG, 1 for Gauss–Seidel).
+   * (default 0.5, the growth of SOR with a good ω or CG without multigrid; 0 for multigrid or a
+   * direct solver, which are then held to flat counts; 1 for Gauss–Seidel or Jacobi).
    */
   iterationGrowth?: number;
   /** Iteration growth beyond the declared one fails (default "fail"; "warn" to only warn). */
