@@ -45,7 +45,9 @@ export function sideWords(side: SideName, kinds: Partial<Record<SideName, string
  * its error is significant (≥ {@link SIGNIFICANT_SHARE} of the largest) and either its order is at
  * least {@link ORDER_MARGIN} below the interior's (the others' best when the interior is not
  * significant), or its error is at least {@link ERROR_FACTOR} times the interior's while its own
- * order is below `expected − tolerance`. When no place is blamed the defect is global; the text
+ * order is below `expected − tolerance`. The interior is blamed when it alone holds significant
+ * errors, or converges at least {@link ORDER_MARGIN} below every significant band. When no place
+ * is blamed the defect is global; the text
  * then says how to tell an interior defect from a boundary closure that pollutes everything.
  *
  * @param evidence Per place (sides, corners, interior).
@@ -90,12 +92,23 @@ export function locateDefect(
       p.order !== null && p.order < expected - tolerance;
     if (lowOrder || bigError) blamed.push(p);
   }
-  // The interior alone lower than every significant band: an interior defect.
+  // The interior alone lower than every significant band, or holding the error while every band
+  // stays below a significant share of it: an interior defect.
   if (
     blamed.length === 0 && interior && significant.includes(interior) && interior.order !== null
   ) {
     const bands = significant.filter((p) => p !== interior && p.order !== null);
-    if (bands.length > 0 && bands.every((b) => interior.order! <= b.order! - ORDER_MARGIN)) {
+    if (bands.length === 0) {
+      return {
+        blamed: ["interior"],
+        largest: top.place,
+        text: `the error lives in the interior (${e2(interior.error)} at order ` +
+          `${f2(interior.order)}) while every side band and corner stays below ` +
+          `${SIGNIFICANT_SHARE * 100} % of it: the interior discretization (stencil, a ` +
+          `coefficient or the source) is the likely place`,
+      };
+    }
+    if (bands.every((b) => interior.order! <= b.order! - ORDER_MARGIN)) {
       return {
         blamed: ["interior"],
         largest: top.place,
