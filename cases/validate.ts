@@ -6,6 +6,7 @@
  *
  * @module
  */
+import { CYCLE_NAMES, SMOOTHERS } from "../reference-solver/mod.ts";
 import { Ajv2020, type ErrorObject, type ValidateFunction } from "ajv/dist/2020";
 import schema from "./case.schema.json" with { type: "json" };
 import { JsonSyntaxError, type LocatedJson, readJsonWithPositions } from "./_json.ts";
@@ -182,6 +183,21 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
   }
   if (!(c.domain.y0 < c.domain.y1)) {
     push("/domain", `y0 must be less than y1, found y0 = ${c.domain.y0}, y1 = ${c.domain.y1}`);
+  }
+  // The reference solver's advice names components of its registries: refuse an unknown name at
+  // the door, before any solve, with the valid ones.
+  const advice = c.solver;
+  if (advice?.smoother !== undefined && !Object.hasOwn(SMOOTHERS, advice.smoother)) {
+    push(
+      "/solver/smoother",
+      `unknown smoother "${advice.smoother}": use one of ${Object.keys(SMOOTHERS).join(", ")}`,
+    );
+  }
+  if (advice?.cycle !== undefined && !(CYCLE_NAMES as readonly string[]).includes(advice.cycle)) {
+    push(
+      "/solver/cycle",
+      `unknown cycle "${advice.cycle}": use one of ${CYCLE_NAMES.join(", ")}`,
+    );
   }
   const aspect = c.aspect ?? 1;
   const sequences: [string, number[]][] = [["/grids", c.grids]];

@@ -121,3 +121,13 @@ Deno.test("validateCaseText() accepts per-layout overrides and locates their pro
     );
   });
 });
+
+Deno.test("validateCaseText() refuses reference-solver advice with unknown names before any solve", () => {
+  const doc = JSON.parse(good);
+  doc.solver = { smoother: "line-z", cycle: "Z" };
+  const { problems, value } = validateCaseText(JSON.stringify(doc, null, 2), "advice.json");
+  assert.equal(value, undefined);
+  const text = problems.map((p) => `${p.field}: ${p.message}`).join("\n");
+  assert.match(text, /solver\.smoother: unknown smoother "line-z": use one of .*line-y/);
+  assert.match(text, /solver\.cycle: unknown cycle "Z": use one of V, W, F, fmg/);
+});
