@@ -65,6 +65,29 @@ function td(text: string, numeric = false): string {
   return numeric ? `<td class="n">${esc(text)}</td>` : `<td>${esc(text)}</td>`;
 }
 
+/** Max error per place on the finest grid and its finest pairwise order (where a defect sits). */
+function placeTable(study: StudyRecord): string {
+  const places = study.places ?? [];
+  if (places.length === 0) return "";
+  const finest = (e: (number | null)[]) => [...e].reverse().find((x) => x !== null) ?? null;
+  return `<table><thead><tr><th>place</th><th>max error, finest grid</th>` +
+    `<th>order, finest pair</th></tr></thead><tbody>${
+      places.map((p) =>
+        `<tr><td>${esc(p.place)}</td><td>${num(finest(p.errors), 2)}</td><td>${
+          order(p.order)
+        }</td></tr>`
+      ).join("")
+    }</tbody></table>`;
+}
+
+/** Grids added to decide, and the cross-case diagnosis. */
+function studyNotes(study: StudyRecord): string {
+  const notes: string[] = [];
+  if (study.added) notes.push(`Grids added to decide: ${study.added.reason}.`);
+  if (study.diagnosis) notes.push(`Diagnosis: ${study.diagnosis}.`);
+  return notes.map((n) => `<p class="muted">${esc(n)}</p>`).join("");
+}
+
 function verdictList(verdicts: Verdict[], withPair: boolean): string {
   if (verdicts.length === 0) return `<p class="muted">No verdicts.</p>`;
   const items = bySeverity(verdicts).map((v) =>
@@ -289,7 +312,10 @@ export async function renderHtml(result: CampaignResult): Promise<string> {
       return `<h3>${esc(solver)}${
         study ? ` <span class="muted">(expected order ${num(study.expectedOrder)})</span>` : ""
       }</h3>${solveTable(solvesOf(result, id, solver))}${
-        study ? orderTable(study) + verdictList(study.verdicts, false) : ""
+        study
+          ? orderTable(study) + placeTable(study) + studyNotes(study) +
+            verdictList(study.verdicts, false)
+          : ""
       }`;
     });
     sections.push(

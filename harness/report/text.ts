@@ -151,6 +151,8 @@ export function renderText(result: CampaignResult, options: TextOptions = {}): s
               fitted.join(", "),
           );
         }
+        if (study.added) out.push(`    grids added to decide: ${oneLine(study.added.reason)}`);
+        if (study.diagnosis) out.push(`    diagnosis: ${oneLine(study.diagnosis)}`);
         out.push(...verdictLines(study.verdicts, color, "    "));
       }
     }
