@@ -47,7 +47,7 @@ export {
 } from "./least_squares_uncertainty.ts";
 export { type QuantityOptions, quantityRecord } from "./quantity_record.ts";
 export { studyWarnings } from "./study_warnings.ts";
-export { headingOrder, type OrderTrend, orderTrend, settleRatio } from "./order_trend.ts";
+export { headingOrder, type OrderTrend, orderTrend } from "./order_trend.ts";
 export { ERROR_FACTOR, locateDefect, type Location, ORDER_MARGIN, sideWords } from "./locate.ts";
 export {
   CRITERIA,

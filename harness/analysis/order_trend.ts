@@ -4,17 +4,6 @@
  * @module
  */
 
-/**
- * The smallest shrink per refinement that still counts as "approaching": asymptotically the
- * deviation of the pairwise order from the formal order P shrinks like r^(−s), with s ≥ 1 the gap
- * to the next term of the error expansion for a smooth solution (E = A·h^P + B·h^(P+s); common
- * practice, see docs/verdicts.md). We allow half of that, r^(−1/2) (0.71 for r = 2), before calling
- * a deviation settled.
- */
-export function settleRatio(r: number): number {
-  return r ** -0.5;
-}
-
 /** How the pairwise orders behave near the finest grids. */
 export type TrendKind =
   | "none" // no pairwise order on the finest pair
@@ -37,8 +26,8 @@ export interface OrderTrend {
   deviations: (number | null)[];
   /** d_m / d_{m−1}, the shrink of the deviation on the last refinement. */
   ratio: number | null;
-  /** The ratio below which a deviation counts as approaching ({@link settleRatio}). */
-  settleRatio: number;
+  /** The order the pairwise orders approach, continuing the geometric series of their rises. */
+  limit: number | null;
   /** The order the errors are heading to, when the trend says so (see {@link headingOrder}). */
   heading: number | null;
 }
@@ -51,10 +40,12 @@ export interface OrderTrend {
  * - finest pair above P + τ: pass (at least the expected order), or inconclusive while it is still
  *   falling toward P by more than τ/4 per refinement;
  * - finest pair below P − τ with one pair only: inconclusive (two grids never decide a failure);
- * - below with two or more pairs: the deviation's shrink ratio d_m/d_{m−1} decides — below
- *   {@link settleRatio}(r) it is approaching (inconclusive: refine); otherwise it fails, as moving
- *   away from P when the order fell by more than τ/2 on the last refinement (or crossed P from
- *   above), else as settled below P.
+ * - below with two or more pairs: fail as moving away when the order fell by more than τ/2 on the
+ *   last refinement (or crossed P from above); fail as settled when the gap hardly moves (by at
+ *   most τ/4 on each of the last refinements, two with three or more pairs); with three or more
+ *   pairs and rises that shrink, continue their geometric series (Aitken's Δ²) to the limit the
+ *   orders head to and fail when it lies below P − τ; otherwise inconclusive (approaching:
+ *   refine).
  *
  * @param h Spacings, coarsest first.
  * @param errors Errors per grid (null where missing).
@@ -84,12 +75,11 @@ export function orderTrend(
   const deviations = pairwise.map((p) => (p === null ? null : p - expected));
   const m = pairwise.length;
   const last = m > 0 ? pairwise[m - 1] : null;
-  const r = h.length >= 2 ? h[h.length - 2] / h[h.length - 1] : 2;
   const base = {
     finest: last,
     deviations,
     ratio: null as number | null,
-    settleRatio: settleRatio(r),
+    limit: null as number | null,
     heading: null as number | null,
   };
   if (last === null) return { ...base, kind: "none", outcome: "inconclusive" };
@@ -110,19 +100,45 @@ export function orderTrend(
   }
   if (prev === null) return { ...base, kind: "two-grids", outcome: "inconclusive" };
   // Below P − τ on the finest pair, with at least two pairs.
-  const ratio = prev < 0 ? d / prev : Infinity; // from above (or at P) to below: moving away
-  base.ratio = Number.isFinite(ratio) ? ratio : null;
-  if (ratio < base.settleRatio) return { ...base, kind: "approaching", outcome: "inconclusive" };
-  // Moving away: the order fell by more than τ/2 on the last refinement (or crossed from above);
-  // otherwise the gap stays about put: settled below.
-  const away = prev >= 0 || d - prev < -tolerance / 2;
-  const heading = headingOrder(h, errors, expected);
-  return {
-    ...base,
-    heading: away ? heading : (heading ?? last),
-    kind: away ? "moving-away" : "settled-below",
-    outcome: "fail",
+  base.ratio = prev < 0 ? d / prev : null;
+  const fail = (kind: "settled-below" | "moving-away", limit?: number) => {
+    const heading = headingOrder(h, errors, expected);
+    return {
+      ...base,
+      heading: limit !== undefined
+        ? expected + limit
+        : kind === "moving-away"
+        ? heading
+        : (heading ?? last),
+      kind,
+      outcome: "fail" as const,
+    };
   };
+  // Moving away: the order fell by more than τ/2 on the last refinement, or crossed P from above.
+  if (prev >= 0 || d - prev < -tolerance / 2) return fail("moving-away");
+  const rise = d - prev; // > 0: the order rose toward P
+  const prev2 = m >= 3 ? deviations[m - 3] : null;
+  if (prev2 === null) {
+    // Two pairs: a gap that hardly moved (by τ/4 at most) has settled; anything else needs the
+    // next grid before a failure can be called.
+    if (Math.abs(rise) <= tolerance / 4) return fail("settled-below");
+    return { ...base, kind: rise > 0 ? "approaching" : "settled-below", outcome: "inconclusive" };
+  }
+  const rise1 = prev - prev2;
+  if (Math.abs(rise) <= tolerance / 4 && Math.abs(rise1) <= tolerance / 4) {
+    return fail("settled-below");
+  }
+  if (rise > 0 && rise1 > 0 && rise < rise1) {
+    // Rising, but by less each time: continue the geometric series of the rises (Aitken's Δ²)
+    // to the order the sequence is heading to.
+    const q = rise / rise1;
+    const limit = d + rise * q / (1 - q);
+    base.limit = expected + limit;
+    if (limit < -tolerance) return fail("settled-below", limit);
+    return { ...base, kind: "approaching", outcome: "inconclusive" };
+  }
+  if (rise > 0) return { ...base, kind: "approaching", outcome: "inconclusive" };
+  return fail("settled-below");
 }
 
 /**

@@ -35,14 +35,18 @@ function trendWords(t: OrderTrend, expected: number): string {
       return `below ${expected} on the only pair of grids: two grids never decide a failure — ` +
         `add a grid`;
     case "approaching":
-      return `below ${expected} but approaching it (pairwise ${pairs}; the gap shrank to ` +
-        `${f2(t.ratio)} of the previous one, faster than ${f2(t.settleRatio)}): pre-asymptotic, ` +
-        `not decided yet — refine further`;
+      return `below ${expected} but rising toward it (pairwise ${pairs}${
+        t.limit !== null ? `, heading to about ${f2(t.limit)}` : ""
+      }): pre-asymptotic, not decided yet — refine further`;
     case "settled-below":
-      return `settled below ${expected} (pairwise ${pairs}; the gap shrank only to ${
-        f2(t.ratio)
-      } of the previous one, a correct scheme closes it faster than ${f2(t.settleRatio)}): ` +
-        `the errors converge at about order ${f2(t.heading)}`;
+      return t.outcome === "inconclusive"
+        ? `below ${expected} and not rising (pairwise ${pairs}): not decided on three grids — ` +
+          `refine further`
+        : t.limit !== null
+        ? `rising toward a limit below ${expected} (pairwise ${pairs}; their rises shrink ` +
+          `geometrically toward order ${f2(t.limit)}): a lower-order error term remains`
+        : `settled below ${expected} (pairwise ${pairs}; the gap to ${expected} no longer ` +
+          `closes): the errors converge at about order ${f2(t.heading)}`;
     case "moving-away":
       return `moving away from ${expected} as the grid is refined (pairwise ${pairs}): a ` +
         `lower-order error term takes over${
@@ -75,7 +79,7 @@ function judgeNorm(context: JudgeContext, norm: NormName) {
     interval: rec ? [rec.fitted.low, rec.fitted.high] : null,
     trend: trend.kind,
     shrinkRatio: trend.ratio,
-    settleRatio: trend.settleRatio,
+    limit: trend.limit,
     heading: trend.heading,
   };
   const why = override ? ` (the case expects ${expected} here: ${override.reason})` : "";
