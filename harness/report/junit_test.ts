@@ -44,3 +44,22 @@ Deno.test("renderJunit() escapes markup in names, reasons and details", () => {
   assert.ok(xml.includes('name="order&quot;&gt;&lt;x"'));
   assert.ok(xml.includes("&lt;img src=x onerror=alert(1)&gt;"));
 });
+
+Deno.test("renderJunit() reports an undecided verdict as an error, never as a pass", () => {
+  const result = makeFixtureResult();
+  const study = result.studies[0];
+  study.verdicts.push({
+    caseId: study.caseId,
+    solver: study.solver,
+    criterion: "order",
+    status: "inconclusive",
+    reason: "below 2 but rising toward it: refine further",
+    details: { norm: "l1" },
+  });
+  const xml = renderJunit(result);
+  assert.match(
+    xml,
+    /<testcase name="order \(l1 norm\)"[^>]*>\s*<error message="undecided: below 2/,
+  );
+  assert.match(xml, /<testsuites name="gridproof" tests="\d+" failures="\d+" errors="1"/);
+});

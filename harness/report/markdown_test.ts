@@ -4,7 +4,7 @@ import { HOSTILE_TEXT, makeFixtureResult } from "../../testdata/report/fixture.t
 
 Deno.test("renderMarkdown() puts the failures first, then warnings, then the table and caution", () => {
   const md = renderMarkdown(makeFixtureResult());
-  assert.match(md, /^### gridproof: 2 failed, 2 warnings, 12 passed\n/);
+  assert.match(md, /^### gridproof: 2 failed, 0 undecided, 2 warnings, 12 passed\n/);
   const failures = md.indexOf("**Failures**");
   const warnings = md.indexOf("**Warnings**");
   const table = md.indexOf("| case | solver |");

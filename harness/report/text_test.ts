@@ -12,7 +12,7 @@ Deno.test("renderText() prints a table per case and solver with every grid and t
   // 4 studies × 4 grids
   assert.equal(text.match(/^ {4}(9×9|17×17|33×33|65×65) /gm)?.length, 16);
   assert.match(text, /65×65 +0\.01563 +failed: the solver stopped after 20000 iterations/);
-  assert.match(text, /12 pass · 2 fail · 2 warn · 0 not applicable — exit code 1\n$/);
+  assert.match(text, /12 pass · 2 fail · 0 undecided · 2 warn · 0 not applicable — exit code 1\n$/);
 });
 
 Deno.test("renderText() shows the pairwise order computed from the errors in the row", () => {
