@@ -1,7 +1,9 @@
 /**
  * A cross-case reading of a solver's failures: which ingredient (a boundary kind on a side, an
  * operator term, a variable coefficient, non-square cells) is present in every case whose order
- * failed and absent from every case whose order passed. It adds a diagnosis to the failing
+ * failed and absent from every case whose order passed — or from all but a few of them (at most a
+ * quarter, at least one), which are named: a defect does not act where its ingredient's data
+ * vanish. It adds a diagnosis to the failing
  * studies and their order verdicts' reasons; it never changes a verdict.
  *
  * @module
@@ -25,6 +27,9 @@ const KIND_WORD: Record<string, string> = {
 /** The ingredients of a case, each named in the trade's words and the case's symbols. */
 export function ingredients(kase: CompiledCase): Ingredient[] {
   const out: Ingredient[] = [];
+  if (SIDES.some((s) => kase.boundary[s].kind !== "dirichlet")) {
+    out.push({ key: "derivative", words: "a Neumann or Robin side" });
+  }
   for (const kind of ["dirichlet", "neumann", "robin"]) {
     const sides = SIDES.filter((s) => kase.boundary[s].kind === kind);
     if (sides.length > 0) out.push({ key: kind, words: `a ${KIND_WORD[kind]} side` });
@@ -83,29 +88,46 @@ export function diagnoseAcrossCases(studies: StudyRecord[], cases: CompiledCase[
     const inFailing = of(failing[0]).filter((i) =>
       failing.every((s) => of(s).some((j) => j.key === i.key))
     );
-    const explaining = inFailing.filter((i) =>
-      passing.every((s) => !of(s).some((j) => j.key === i.key))
-    ).filter((i, _, all) => {
-      // a side-level ingredient adds nothing when its kind explains the failures already
-      const kind = i.key.split(":")[0];
-      return !(i.key.includes(":") && all.some((j) => j.key === kind));
-    });
+    // How many passing cases share each ingredient of every failing case: the fewest separate
+    // best. A side-level ingredient adds nothing over its kind when both share the same cases.
+    const scored = inFailing.map((i) => ({
+      i,
+      also: passing.filter((s) => of(s).some((j) => j.key === i.key)),
+    }));
+    const fewest = Math.min(...scored.map((x) => x.also.length));
+    const best = scored.filter((x) => x.also.length === fewest).filter((x, _, all) => {
+      const kind = x.i.key.split(":")[0];
+      return !(x.i.key.includes(":") && all.some((y) => y.i.key === kind));
+    }).filter((x, _, all) =>
+      // "a Neumann or Robin side" only when neither kind alone does as well
+      x.i.key !== "derivative" || !all.some((y) => y.i.key === "neumann" || y.i.key === "robin")
+    );
     const fl = failing.map((s) => s.caseId).join(", ");
     const pl = passing.map((s) => s.caseId).join(", ");
+    const words = best.map((x) => x.i.words);
     let text: string;
-    if (explaining.length > 0) {
+    if (inFailing.length === 0) {
+      text = `across the campaign, the cases where ${solver} fails the order (${fl}) share no ` +
+        `boundary kind, operator term or cell shape that the passing ones (${pl}) lack`;
+    } else if (fewest === 0) {
       text = `across the campaign, ${solver} fails the order on every case with ${
-        explaining.map((i) => i.words).join(" and with ")
-      } (${fl}) and passes it on every case without (${pl}): the defect is most likely in ${
-        explaining.map((i) => i.words).join(" or ")
+        words.join(" and with ")
+      } (${fl}) and passes it on every case without (${pl}): the defect most likely lies with ${
+        words.join(" or ")
       }`;
-    } else if (inFailing.length > 0) {
+    } else if (fewest <= Math.max(1, Math.floor(passing.length / 4))) {
+      const also = best[0].also.map((s) => s.caseId).join(", ");
+      text =
+        `across the campaign, every case where ${solver} fails the order (${fl}) has ${
+          words.join(" and ")
+        }; of the ${passing.length} cases where it passes only ${also} ${
+          fewest === 1 ? "has" : "have"
+        } it too (where the defect may not act, e.g. when the data there vanish): the defect ` +
+        `most likely lies with ${words.join(" or ")}`;
+    } else {
       text = `across the campaign, every case where ${solver} fails the order (${fl}) has ${
         inFailing.map((i) => i.words).join(", ")
       }, but so do cases where it passes (${pl}): no single ingredient explains the failures`;
-    } else {
-      text = `across the campaign, the cases where ${solver} fails the order (${fl}) share no ` +
-        `boundary kind, operator term or cell shape that the passing ones (${pl}) lack`;
     }
     for (const s of failing) {
       s.diagnosis = text;

@@ -167,7 +167,7 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
   if (unmet.length === 0) {
     log(
       `As intended: the reference and ${RELEASED} pass; ${CANDIDATE} fails on the cases with ` +
-        "Neumann or Robin sides, and the boundary-band orders point at the boundary code.",
+        "Neumann or Robin sides, and the cross-case diagnosis points at those closures.",
     );
   } else {
     log("The demonstration did not run as intended:");
