@@ -287,3 +287,14 @@ Deno.test("buildStudy() rejects two solves of the same grid and foreign solves",
   assert.throws(() => buildStudy([a, a], SPEC), /two solves share h = 0.0625/);
   assert.throws(() => buildStudy([{ ...a, solver: "other" }], SPEC), /belongs to case × other/);
 });
+
+Deno.test("buildStudy() only warns when a short residual reduction cannot move an order", () => {
+  // requested 1e-10, reached 1e-7: beyond the slack of 100, but 1e-7 is under 1 % of the
+  // discretization error h² ≥ 6e-5 of every grid (derived)
+  const solves = GRIDS.map((n) => solveOf(n, smooth, { residualHistory: [1, 1e-7] }));
+  const study = buildStudy(solves, SPEC);
+  const c = byCriterion(study.verdicts, "convergence")[0];
+  assert.equal(c.status, "warn");
+  assert.match(c.reason, /too small to move an order/);
+  assert.ok(byCriterion(study.verdicts, "order").every((v) => v.status === "pass"));
+});
