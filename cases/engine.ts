@@ -248,6 +248,7 @@ function assemble(
     title: caseFile.title,
     motivation: caseFile.motivation,
     manufactured: caseFile.manufactured,
+    file: structuredClone(caseFile),
     origin,
     domain: { ...caseFile.domain },
     parameters,

@@ -6,6 +6,7 @@
  * @module
  */
 import type { BoundaryKind, Domain, Problem, Side } from "../reference-solver/mod.ts";
+import type { CaseFile } from "./case_file.ts";
 
 /** A compiled point function: plain JavaScript built from a whitelisted expression tree. */
 export type PointFn = (x: number, y: number) => number;
@@ -116,6 +117,12 @@ export interface CompiledCase {
   sample(nx: number, ny: number): Problem;
   /** How the case follows the manufactured-solution guidance (the case file's `manufactured`). */
   manufactured: string;
+  /**
+   * The validated case file it was built from (a copy): variants of the case (an operator term
+   * switched off, a side made Dirichlet) are new files built the same way. Absent for cases made
+   * in code (the probe's).
+   */
+  file?: CaseFile;
   /** The same formulas as TeX (mathjs `toTex`). */
   tex: CaseFormulas;
   /** Advice for the reference solver (the case file's `solver`), when given. */
