@@ -41,6 +41,7 @@ export {
 export { type CaseValidation, validateCaseText } from "./validate.ts";
 export { buildCase, type BuildOptions } from "./engine.ts";
 export { expectationFor } from "./expectation_for.ts";
+export { type CaseVariant, caseVariants, variantEdits } from "./variants.ts";
 export { compileExpression, type CompileExpressionOptions } from "./compile_expression.ts";
 export {
   compileExpr,

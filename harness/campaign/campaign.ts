@@ -24,6 +24,7 @@ import {
 } from "./journal.ts";
 import { gridFor, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
 import { buildStudies } from "./study.ts";
+import { isolateFailures } from "./isolation.ts";
 
 /** Options of {@link runCampaign}. */
 export interface CampaignOptions {
@@ -47,6 +48,12 @@ export interface CampaignOptions {
    * `seconds` (default 120). `maxAdded: 0` turns refinement off.
    */
   refine?: { maxAdded?: number; maxUnknowns?: number; seconds?: number };
+  /**
+   * Isolation runs for studies whose order fails: the failing solver solves variants of the case
+   * that change one ingredient, on the study's finest three grids, within `seconds` of predicted
+   * solve time per study (default 60). `false` turns isolation off.
+   */
+  isolation?: { seconds?: number } | false;
   /** Folder for the journal; none means no journal. */
   outDir?: string;
   /** Continue from the journal in outDir. Default: false. */
@@ -208,6 +215,32 @@ export async function runCampaign(
     const a = added.get(`${s.caseId}\u0000${s.solver}`);
     if (a) s.added = { grids: a.grids, reason: a.reasons.join("; ") };
   }
+  const isolationSeconds = options.isolation === false ? 0 : options.isolation?.seconds ?? 60;
+  if (isolationSeconds > 0 && !options.signal?.aborted) {
+    journal = options.outDir !== undefined
+      ? JournalWriter.open(`${options.outDir}/${JOURNAL_FILE}`, undefined)
+      : undefined;
+    try {
+      const { found } = await isolateFailures(studies, records, cases, solvers, {
+        seconds: isolationSeconds,
+        jobs: options.jobs,
+        tolerance: options.tolerance,
+        journal,
+        finished,
+        onProgress: options.onProgress,
+        signal: options.signal,
+      });
+      for (const s of studies) {
+        const iso = found.get(`${s.caseId}\u0000${s.solver}`);
+        if (!iso) continue;
+        s.isolation = iso;
+        const v = s.verdicts.find((v) => v.criterion === "order" && v.status === "fail");
+        if (v) v.reason += `. Isolation: ${iso.finding}`;
+      }
+    } finally {
+      journal?.close();
+    }
+  }
   const result: CampaignResult = {
     format: RESULT_FORMAT,
     version: RESULT_VERSION,
@@ -221,6 +254,7 @@ export async function runCampaign(
       orderTolerance,
       requireGridIndependence: options.requireFlatIterations ?? true,
       refine: budget,
+      isolationSeconds,
     },
     cases: cases.map(caseInfo),
     solvers: solvers.map((s) => structuredClone(s.info)),

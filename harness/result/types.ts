@@ -168,6 +168,28 @@ export interface ScalingRecord {
   problems: string[];
 }
 
+/** What isolation found for one failing study. */
+export interface IsolationRecord {
+  /** The grids the variants ran on (intervals along x). */
+  grids: number[];
+  variants: {
+    key: string;
+    /** The change in words, e.g. "the Robin condition on the north side replaced by Dirichlet". */
+    change: string;
+    /** Where the defect is when this change restores the order. */
+    place: string;
+    /** Pairwise max-norm orders of the variant, coarsest pair first. */
+    orders: (number | null)[];
+    outcome: "restored" | "not restored" | "undecided" | "failed";
+  }[];
+  /** Changes not tried for lack of budget. */
+  skipped: string[];
+  /** The finding in words. */
+  finding: string;
+  /** Solve time the variants took. */
+  seconds: number;
+}
+
 /** Outcome of one criterion. */
 /**
  * Outcome of one criterion. "fail": the evidence says defect and the reason says what and where;
@@ -209,6 +231,8 @@ export interface StudyRecord {
   added?: { grids: number[]; reason: string };
   /** Cross-case reading of this solver's failures (never changes a verdict). */
   diagnosis?: string;
+  /** Isolation runs of a failing study: variants that change one ingredient (never change a verdict). */
+  isolation?: IsolationRecord;
   verdicts: Verdict[];
 }
 
@@ -264,6 +288,8 @@ export interface CampaignResult {
     baseline?: string;
     /** Budget of grids added to inconclusive studies. */
     refine?: { maxAdded: number; maxUnknowns: number; seconds: number };
+    /** Isolation runs of failing studies: seconds per study, 0 when off. */
+    isolationSeconds?: number;
   };
   cases: CaseInfo[];
   solvers: SolverInfo[];

@@ -1,0 +1,158 @@
+/**
+ * Variants of a case that change one ingredient while keeping the manufactured solution: a side's
+ * condition made Dirichlet, every Dirichlet side made Robin, an operator term switched off, a
+ * variable coefficient frozen, square cells. Sources and boundary data are derived again
+ * symbolically, so every variant is a consistent case of its own. Used to isolate the ingredient a
+ * defect lives in.
+ *
+ * @module
+ */
+import type { Side } from "../reference-solver/mod.ts";
+import type { CaseFile } from "./case_file.ts";
+import { buildCase } from "./engine.ts";
+import type { CompiledCase } from "./types.ts";
+
+/** One variant: what changed, in the trade's words and the case's symbols, and where it points. */
+export interface CaseVariant {
+  /** Short stable key, e.g. "dirichlet:north", "b=0". */
+  key: string;
+  /** The change as a clause, e.g. "the Robin condition on the north side is replaced by Dirichlet". */
+  change: string;
+  /** Where the defect is when this change restores the order, e.g. "the Robin treatment of the north side". */
+  place: string;
+  /** The variant case (id `<case>~<key>`). */
+  kase: CompiledCase;
+}
+
+const SIDES: readonly Side[] = ["west", "east", "south", "north"];
+const KIND_WORD = { dirichlet: "Dirichlet", neumann: "Neumann", robin: "Robin" } as const;
+const TERMS = [
+  { k: "b", words: "the first-derivative term in x (b·u_x)" },
+  { k: "d", words: "the first-derivative term in y (d·u_y)" },
+  { k: "e", words: "the reaction term (e·u)" },
+] as const;
+const COEFFICIENT_WORDS = {
+  a: "the variable coefficient of u_xx (a)",
+  b: "the variable coefficient of u_x (b)",
+  c: "the variable coefficient of u_yy (c)",
+  d: "the variable coefficient of u_y (d)",
+  e: "the variable coefficient of u (e)",
+} as const;
+
+/** The changes that make sense for a case, as edits of its file (without building them). */
+export function variantEdits(
+  kase: CompiledCase,
+): { key: string; change: string; place: string; edit: (f: CaseFile) => void }[] {
+  const out: { key: string; change: string; place: string; edit: (f: CaseFile) => void }[] = [];
+  const kind = (s: Side) => kase.boundary[s].kind;
+  const derivative = SIDES.filter((s) => kind(s) !== "dirichlet");
+  const dirichlet = SIDES.filter((s) => kind(s) === "dirichlet");
+  for (const s of derivative) {
+    const k = KIND_WORD[kind(s)];
+    out.push({
+      key: `dirichlet:${s}`,
+      change: `the ${k} condition on the ${s} side is replaced by Dirichlet`,
+      place: `the ${k} treatment of the ${s} side`,
+      edit: (f) => {
+        f.boundary[s] = { kind: "dirichlet" };
+      },
+    });
+  }
+  if (derivative.length >= 2) {
+    out.push({
+      key: "dirichlet:all",
+      change: "every Neumann and Robin side is replaced by Dirichlet",
+      place: "the treatment of the Neumann and Robin sides",
+      edit: (f) => {
+        for (const s of derivative) f.boundary[s] = { kind: "dirichlet" };
+      },
+    });
+  }
+  if (dirichlet.length > 0) {
+    // α, β > 0 with the outward normal keep the problem well posed (coercive) for a, c > 0.
+    out.push({
+      key: "robin:dirichlet-sides",
+      change: `every Dirichlet side (${dirichlet.join(", ")}) is replaced by a Robin condition ` +
+        `(α = 1, β = 1)`,
+      place: "the treatment of the Dirichlet sides",
+      edit: (f) => {
+        for (const s of dirichlet) f.boundary[s] = { kind: "robin", alpha: 1, beta: 1 };
+      },
+    });
+  }
+  const constant = kase.constantCoefficients;
+  // Without a Dirichlet or Robin side the reaction term is what makes the problem well posed.
+  const anchored = SIDES.some((s) => kind(s) !== "neumann");
+  for (const t of TERMS) {
+    if (constant[t.k] === 0) continue;
+    if (t.k === "e" && !anchored) continue;
+    out.push({
+      key: `${t.k}=0`,
+      change: `${t.words} is switched off (${t.k} = 0)`,
+      place: t.words,
+      edit: (f) => {
+        f.coefficients[t.k] = 0;
+      },
+    });
+  }
+  const { x0, x1, y0, y1 } = kase.domain;
+  const xm = (x0 + x1) / 2, ym = (y0 + y1) / 2;
+  for (const k of ["a", "c", "b", "d", "e"] as const) {
+    if (constant[k] !== undefined) continue;
+    const value = Number(kase.coefficients[k](xm, ym).toPrecision(4));
+    // a first-order or reaction coefficient that vanishes at the centre: freezing it is the same
+    // change as switching the term off, which is tried already
+    if (k !== "a" && k !== "c" && Math.abs(value) < 1e-9) continue;
+    out.push({
+      key: `${k}=const`,
+      change: `${COEFFICIENT_WORDS[k]} is frozen to its value at the centre, ${value}`,
+      place: `${COEFFICIENT_WORDS[k]}: its sampling or its variation in the stencil`,
+      edit: (f) => {
+        f.coefficients[k] = value;
+      },
+    });
+  }
+  const g = kase.gridFor(64);
+  const ratio = ((x1 - x0) / g.nx) / ((y1 - y0) / g.ny);
+  if (Math.abs(ratio - 1) > 1e-9) {
+    out.push({
+      key: "square-cells",
+      change: `the cells are made square (hx = hy instead of hx/hy = ${
+        Number(ratio.toPrecision(3))
+      })`,
+      place: "the spacing of one direction (hx and hy mixed up)",
+      edit: (f) => {
+        f.aspect = (y1 - y0) / (x1 - x0);
+      },
+    });
+  }
+  return out;
+}
+
+/**
+ * Builds every variant of a case ({@link variantEdits}): each is the case's file with one change,
+ * derived and compiled like any case, id `<case>~<key>`.
+ *
+ * @param kase A case built from a file (`kase.file`); cases made in code have no variants.
+ * @returns The variants, sides first, then terms, coefficients and cell shape.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { caseVariants, loadCase } from "./mod.ts";
+ * const v = await caseVariants(await loadCase("robin-all"));
+ * assert.ok(v.some((x) => x.key === "dirichlet:north"));
+ * ```
+ */
+export async function caseVariants(kase: CompiledCase): Promise<CaseVariant[]> {
+  if (!kase.file) return [];
+  const out: CaseVariant[] = [];
+  for (const v of variantEdits(kase)) {
+    const file = structuredClone(kase.file);
+    v.edit(file);
+    file.id = `${kase.id}~${v.key}`;
+    const built = await buildCase(file, { origin: kase.origin, parameters: kase.parameters });
+    out.push({ key: v.key, change: v.change, place: v.place, kase: built });
+  }
+  return out;
+}
