@@ -18,6 +18,8 @@ interface Row {
   cases: string[];
   /** Cases that must fail, with the criterion that fails and a pattern its reason must match. */
   fails: { caseId: string; criterion: string; says: RegExp }[];
+  /** What isolation must find on the first failing case (the change that restores the order). */
+  isolates?: RegExp;
 }
 
 // Each row varies the problem: boundary mixes, coefficients, domains and cell shapes differ.
@@ -25,6 +27,7 @@ const ROWS: Row[] = [
   {
     defect: "neumann-one-sided",
     layout: "vertex",
+    isolates: /every Neumann and Robin side is replaced by Dirichlet/,
     cases: ["neumann-all", "smooth-baseline"],
     fails: [{ caseId: "neumann-all", criterion: "order", says: /Neumann/ }],
   },
@@ -37,6 +40,7 @@ const ROWS: Row[] = [
   {
     defect: "robin-sign",
     layout: "cell",
+    isolates: /every Neumann and Robin side is replaced by Dirichlet/,
     cases: ["robin-all", "strong-anisotropy"],
     fails: [{ caseId: "robin-all", criterion: "order", says: /Robin/ }],
   },
@@ -61,12 +65,14 @@ const ROWS: Row[] = [
   {
     defect: "dirichlet-shift",
     layout: "cell",
+    isolates: /the treatment of the Dirichlet sides/,
     cases: ["variable-all", "neumann-all"],
     fails: [{ caseId: "variable-all", criterion: "order", says: /Dirichlet/ }],
   },
   {
     defect: "convection-x-sign",
     layout: "vertex",
+    isolates: /the first-derivative term in x \(b·u_x\) is switched off/,
     cases: ["smooth-baseline", "quartic-poisson"],
     fails: [{
       caseId: "smooth-baseline",
@@ -77,6 +83,7 @@ const ROWS: Row[] = [
   {
     defect: "convection-y-onesided",
     layout: "cell",
+    isolates: /the first-derivative term in y \(d·u_y\) is switched off/,
     cases: ["strong-anisotropy", "quartic-poisson"],
     fails: [{
       caseId: "strong-anisotropy",
@@ -87,18 +94,21 @@ const ROWS: Row[] = [
   {
     defect: "spacing-swap",
     layout: "vertex",
+    isolates: /the cells are made square/,
     cases: ["rectangle-2x1", "smooth-baseline"],
     fails: [{ caseId: "rectangle-2x1", criterion: "order", says: /non-square cells/ }],
   },
   {
     defect: "coefficient-shift",
     layout: "cell",
+    isolates: /the variable coefficient of u_xx \(a\)/,
     cases: ["variable-all", "smooth-baseline"],
     fails: [{ caseId: "variable-all", criterion: "order", says: /coefficient of u_xx/ }],
   },
   {
     defect: "source-shift",
     layout: "vertex",
+    isolates: /no single change restored the order/,
     cases: ["strong-anisotropy"],
     fails: [{
       caseId: "strong-anisotropy",
@@ -109,6 +119,7 @@ const ROWS: Row[] = [
   {
     defect: "reaction-dropped-boundary",
     layout: "vertex",
+    isolates: /the reaction term \(e·u\) is switched off/,
     cases: ["robin-all", "quartic-poisson"],
     fails: [{ caseId: "robin-all", criterion: "order", says: /reaction term/ }],
   },
@@ -182,6 +193,15 @@ for (const row of ROWS) {
       for (const w of study.verdicts.filter((w) => w.status === "fail")) {
         assert.doesNotMatch(w.reason, /may still be pre-asymptotic|refine further/);
       }
+    }
+    if (row.isolates) {
+      const study = bad.studies.find((s) => s.caseId === row.fails[0].caseId)!;
+      assert.ok(study.isolation, "isolation ran on the failing study");
+      assert.match(study.isolation.finding, row.isolates);
+    }
+    // isolation never runs where nothing failed on the order
+    for (const s of bad.studies.filter((s) => !s.verdicts.some((v) => v.status === "fail"))) {
+      assert.equal(s.isolation, undefined);
     }
     const twin = await run(row);
     const wrong = twin.studies.flatMap((s) =>
