@@ -51,6 +51,8 @@ export interface CheckFlags {
   refineGrids?: string;
   refineUnknowns?: string;
   refineSeconds?: string;
+  isolation?: boolean;
+  isolationSeconds?: string;
   baseline?: string;
   progress?: boolean;
 }
@@ -105,6 +107,14 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
     .option(
       "--refine-seconds <s>",
       "solve time the added grids of one study may take (default 120)",
+    )
+    .option(
+      "--no-isolation",
+      "do not rerun failing studies on case variants that change one ingredient (default: rerun)",
+    )
+    .option(
+      "--isolation-seconds <s>",
+      "predicted solve time the isolation variants of one failing study may take (default 60)",
     )
     .option("--baseline <file>", "compare with the result.json of the previous release")
     .option("--no-progress", "no progress output")
@@ -223,6 +233,11 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       throw error;
     }
   }
+  const isolation = flags.isolation === false
+    ? false as const
+    : flags.isolationSeconds === undefined
+    ? {}
+    : { seconds: parsePositive(flags.isolationSeconds, "--isolation-seconds") };
   const refine = {
     maxAdded: flags.refine === false
       ? 0
@@ -265,6 +280,7 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       orderTolerance,
       requireFlatIterations: !flags.iterationAdvice,
       refine,
+      isolation,
       outDir: flags.out,
       resume: flags.resume ?? false,
       environment: environmentRecord(),
@@ -368,6 +384,11 @@ export function summaryText(result: CampaignResult): string {
     for (const v of undecided) {
       lines.push(`  ${v.caseId} × ${v.solver} [${v.criterion}]: ${v.reason}`);
     }
+  }
+  const isolated = result.studies.filter((s) => s.isolation);
+  if (isolated.length > 0) {
+    lines.push("", "Isolation (variants of each failing case, one ingredient changed):");
+    for (const s of isolated) lines.push(`  ${s.caseId} × ${s.solver}: ${s.isolation!.finding}`);
   }
   const added = result.studies.filter((s) => s.added);
   if (added.length > 0) {

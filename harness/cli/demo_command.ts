@@ -109,7 +109,12 @@ export function demoSummary(result: CampaignResult): string {
     for (const s of failures) {
       const v = s.verdicts.find((v) => v.status === "fail" && v.criterion === "order") ??
         s.verdicts.find((v) => v.status === "fail")!;
-      lines.push(`  ${s.caseId} [${v.criterion}]: ${v.reason}`);
+      // the isolation finding says where in one sentence; the verdict's reason has the evidence
+      lines.push(
+        s.isolation
+          ? `  ${s.caseId} [${v.criterion}, isolated]: ${s.isolation.finding}`
+          : `  ${s.caseId} [${v.criterion}]: ${v.reason}`,
+      );
     }
   }
   lines.push(

@@ -84,6 +84,7 @@ function placeTable(study: StudyRecord): string {
 function studyNotes(study: StudyRecord): string {
   const notes: string[] = [];
   if (study.added) notes.push(`Grids added to decide: ${study.added.reason}.`);
+  if (study.isolation) notes.push(`Isolation: ${study.isolation.finding}.`);
   if (study.diagnosis) notes.push(`Diagnosis: ${study.diagnosis}.`);
   return notes.map((n) => `<p class="muted">${esc(n)}</p>`).join("");
 }

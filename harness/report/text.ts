@@ -152,6 +152,7 @@ export function renderText(result: CampaignResult, options: TextOptions = {}): s
           );
         }
         if (study.added) out.push(`    grids added to decide: ${oneLine(study.added.reason)}`);
+        if (study.isolation) out.push(`    isolation: ${oneLine(study.isolation.finding)}`);
         if (study.diagnosis) out.push(`    diagnosis: ${oneLine(study.diagnosis)}`);
         out.push(...verdictLines(study.verdicts, color, "    "));
       }
