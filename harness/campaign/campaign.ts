@@ -241,6 +241,7 @@ export async function runCampaign(
       journal?.close();
     }
   }
+  keepErrorMaps(records, studies);
   const result: CampaignResult = {
     format: RESULT_FORMAT,
     version: RESULT_VERSION,
@@ -278,6 +279,24 @@ function header(print: string, options: CampaignOptions): JournalHeader {
 /** Every verdict of a result: per study and against the baseline. */
 export function allVerdicts(result: CampaignResult): Verdict[] {
   return [...result.studies.flatMap((s) => s.verdicts), ...result.baselineVerdicts];
+}
+
+/**
+ * Error maps stay on the finest solved grid of each study with a failed verdict (where a reader
+ * needs to see where the error sits) and leave every other solve, to keep the result small.
+ */
+function keepErrorMaps(records: SolveRecord[], studies: StudyRecord[]): void {
+  const keep = new Set<SolveRecord>();
+  for (const s of studies) {
+    if (!s.verdicts.some((v) => v.status === "fail")) continue;
+    const finest = records.filter((r) =>
+      r.caseId === s.caseId && r.solver === s.solver && r.status === "ok" && r.errorMap
+    ).sort((a, b) =>
+      b.nx - a.nx
+    )[0];
+    if (finest) keep.add(finest);
+  }
+  for (const r of records) if (!keep.has(r)) delete r.errorMap;
 }
 
 /** Exit code of a campaign with an inconclusive verdict and no failure. */

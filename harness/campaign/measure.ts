@@ -7,6 +7,7 @@
 import type { CompiledCase } from "../../cases/types.ts";
 import {
   betterOrder,
+  errorMap,
   errorNorms,
   imposedDataCheck,
   placeNorms,
@@ -90,6 +91,7 @@ export function measureOutcome(
       : [outcome.nx, outcome.ny];
     const order = betterOrder(outcome.values, exact, mx, my);
     if (order !== null) record.outputOrder = order;
+    record.errorMap = errorMap(outcome.values, exact, mx, my);
   }
   if (outcome.layout === "vertex") {
     const data = dirichletData(kase, outcome.nx, outcome.ny);

@@ -10,7 +10,7 @@ import type { CampaignResult, NormSet } from "../result/types.ts";
 import { caseIds, pairs, solvesOf } from "./_shared.ts";
 
 /** Which kind of plot, used in the HTML as `data-plot`. */
-export type PlotKind = "errors" | "residuals" | "cost";
+export type PlotKind = "errors" | "residuals" | "cost" | "error-map";
 
 /** A plot to draw: its kind, what it shows and its Vega-Lite specification. */
 export interface PlotSpec {
@@ -251,6 +251,66 @@ export function costPlot(result: CampaignResult, caseId: string): PlotSpec | und
   };
 }
 
+/**
+ * Where the error sits on the finest grid of a failing study: the block maxima of |u_h − u| as a
+ * heat map with the sides named on the axes (only solves that kept a map: failing studies).
+ */
+export function errorMapPlot(
+  result: CampaignResult,
+  caseId: string,
+  solver: string,
+): PlotSpec | undefined {
+  const s =
+    solvesOf(result, caseId, solver).filter((r) => r.errorMap).sort((a, b) => b.nx - a.nx)[0];
+  if (!s?.errorMap) return undefined;
+  const { columns, rows, values } = s.errorMap;
+  const data = values.map((error, k) => ({
+    column: k % columns,
+    row: Math.floor(k / columns),
+    error,
+  }));
+  return {
+    kind: "error-map",
+    caseId,
+    solver,
+    caption:
+      `${solver}: where the error sits on the ${s.nx}×${s.ny} grid — the largest |u_h − u| ` +
+      `in each of ${columns} × ${rows} blocks, west to east and south to north`,
+    spec: {
+      $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+      config: CONFIG,
+      width: WIDTH * 0.7,
+      height: (WIDTH * 0.7 * rows) / columns,
+      title: `${solver}: |error| on ${s.nx}×${s.ny}`,
+      data: { values: data },
+      mark: { type: "rect" },
+      encoding: {
+        x: {
+          field: "column",
+          type: "ordinal",
+          title: "west ← x → east",
+          axis: { labels: false, ticks: false, grid: false },
+        },
+        y: {
+          field: "row",
+          type: "ordinal",
+          sort: "descending",
+          title: "south ← y → north",
+          axis: { labels: false, ticks: false, grid: false },
+        },
+        color: {
+          field: "error",
+          type: "quantitative",
+          title: "|u_h − u|",
+          scale: { scheme: "viridis" },
+          legend: { format: ".1e" },
+        },
+        tooltip: [{ field: "error", type: "quantitative", format: ".2e" }],
+      },
+    },
+  };
+}
+
 /** Every plot of the report, case by case, in the order the HTML shows them. */
 export function reportPlots(result: CampaignResult): PlotSpec[] {
   const out: PlotSpec[] = [];
@@ -263,6 +323,10 @@ export function reportPlots(result: CampaignResult): PlotSpec[] {
     }
     const c = costPlot(result, id);
     if (c) out.push(c);
+    for (const solver of pairs(result, id)) {
+      const m = errorMapPlot(result, id, solver);
+      if (m) out.push(m);
+    }
   }
   return out;
 }

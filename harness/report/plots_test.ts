@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { errorPlot, renderSvg, reportPlots, residualPlot } from "./plots.ts";
+import { errorMapPlot, errorPlot, renderSvg, reportPlots, residualPlot } from "./plots.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 import { assertClose } from "../../testing/mod.ts";
 
@@ -73,4 +73,21 @@ Deno.test("renderSvg() gives every plot its own element ids", async () => {
   // every url(#…) reference points at an id of the same SVG
   for (const m of one.matchAll(/url\(#([^)]+)\)/g)) assert.ok(ids(one).includes(m[1]), m[1]);
   assert.equal(one.replaceAll("p1-", "p2-"), two, "rendering is deterministic");
+});
+
+Deno.test("errorMapPlot() draws the kept error map of a failing study with the sides named", async () => {
+  const result = makeFixtureResult();
+  const solve = result.solves.find((s) => s.status === "ok")!;
+  // a 2 × 2 map whose largest error sits in the north-east block
+  solve.errorMap = { columns: 2, rows: 2, values: [1e-4, 2e-4, 3e-4, 9e-3] };
+  const plot = errorMapPlot(result, solve.caseId, solve.solver)!;
+  assert.equal(plot.kind, "error-map");
+  const values =
+    (plot.spec as { data: { values: { column: number; row: number; error: number }[] } })
+      .data.values;
+  assert.deepEqual(values[3], { column: 1, row: 1, error: 9e-3 });
+  assert.ok(reportPlots(result).some((p) => p.kind === "error-map"));
+  const svg = await renderSvg(plot.spec, "map");
+  assert.match(svg, /west ← x → east/);
+  assert.match(svg, /south ← y → north/);
 });

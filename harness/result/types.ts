@@ -89,6 +89,11 @@ export interface SolveRecord {
   /** Vertex layouts with Dirichlet sides: whether the imposed data came back. */
   imposed?: ImposedDataCheck;
   /**
+   * Where the error sits: block maxima of |u_h − u| (at most 16 × 16 blocks, rows from the south,
+   * west first). Kept in the result for the finest grid of a failing study only.
+   */
+  errorMap?: { columns: number; rows: number; values: number[] };
+  /**
    * Vertex and cell layouts: a reordering of the returned values that matches the exact solution
    * ten times better than the values as given (the output is in the wrong point order).
    */
