@@ -58,11 +58,28 @@ export function variantEdits(
       },
     });
   }
+  // Groups: every side of one derivative kind, then every derivative side (a defect shared by
+  // several sides is restored only when all of them change).
+  const kinds = [...new Set(derivative.map(kind))];
+  for (const k of kinds) {
+    const sides = derivative.filter((s) => kind(s) === k);
+    if (sides.length < 2 || kinds.length < 2) continue;
+    const word = KIND_WORD[k];
+    out.push({
+      key: `dirichlet:all-${k}`,
+      change: `every ${word} side (${sides.join(", ")}) is replaced by Dirichlet`,
+      place: `the ${word} treatment (every ${word} side)`,
+      edit: (f) => {
+        for (const s of sides) f.boundary[s] = { kind: "dirichlet" };
+      },
+    });
+  }
   if (derivative.length >= 2) {
+    const words = kinds.map((k) => KIND_WORD[k]).join(" and ");
     out.push({
       key: "dirichlet:all",
-      change: "every Neumann and Robin side is replaced by Dirichlet",
-      place: "the treatment of the Neumann and Robin sides",
+      change: `every ${words} side (${derivative.join(", ")}) is replaced by Dirichlet`,
+      place: `the ${words} treatment (every ${words} side)`,
       edit: (f) => {
         for (const s of derivative) f.boundary[s] = { kind: "dirichlet" };
       },
@@ -92,6 +109,17 @@ export function variantEdits(
       place: t.words,
       edit: (f) => {
         f.coefficients[t.k] = 0;
+      },
+    });
+  }
+  if (constant.b !== 0 && constant.d !== 0) {
+    out.push({
+      key: "b=d=0",
+      change: "both first-derivative terms are switched off (b = d = 0)",
+      place: "the first-derivative terms (both directions)",
+      edit: (f) => {
+        f.coefficients.b = 0;
+        f.coefficients.d = 0;
       },
     });
   }

@@ -145,16 +145,23 @@ export function finding(
       `${v.place}`;
   }
   if (restored.length > 1) {
-    // A group change (every derivative side) restoring beside a single side names the side.
-    const singles = restored.filter((v) => !v.key.endsWith(":all") && !v.key.startsWith("robin:"));
-    const named = singles.length === 1 ? singles[0] : undefined;
-    if (named) {
-      return `the order returns to ${target} (${last(named)}) when ${named.change}: the defect ` +
-        `is in ${named.place}`;
+    // The narrowest restoring change names the place: one side or term before a group of one
+    // kind, before every derivative side, before every Dirichlet side.
+    const rank = (v: IsolationRecord["variants"][number]) =>
+      v.key === "dirichlet:all" || v.key.startsWith("robin:")
+        ? 3
+        : v.key.startsWith("dirichlet:all-") || v.key === "b=d=0"
+        ? 2
+        : 1;
+    const narrowest = Math.min(...restored.map(rank));
+    const named = restored.filter((v) => rank(v) === narrowest);
+    if (named.length === 1) {
+      return `the order returns to ${target} (${last(named[0])}) when ${named[0].change}: the ` +
+        `defect is in ${named[0].place}`;
     }
     return `the order returns to ${target} when any one of these changes is made: ${
-      restored.map((v) => `${v.change} (${last(v)})`).join("; ")
-    }: the defect involves ${restored.map((v) => v.place).join(", or ")}`;
+      named.map((v) => `${v.change} (${last(v)})`).join("; ")
+    }: the defect involves ${named.map((v) => v.place).join(", or ")}`;
   }
   if (variants.length === 0) return `no variant could be tried${untried}`;
   // Not restored within the tolerance, but brought at least halfway back from the failing order:
