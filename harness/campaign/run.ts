@@ -11,6 +11,7 @@ import type { SolveRecord } from "../result/types.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { JournalWriter, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";
+import { errorMap } from "../analysis/mod.ts";
 
 /** One planned solve. */
 export interface PlannedSolve {
@@ -108,6 +109,7 @@ export async function runSolves(
     const d = relativeDifference(values, reference, { domain: p.kase.domain, nx: p.nx, ny: p.ny });
     record.differenceFromReference = d?.difference ?? null;
     record.differenceAt = d?.at ?? null;
+    if (d) record.differenceMap = errorMap(values, reference, p.nx + 1, p.ny + 1);
   };
 
   async function worker(): Promise<void> {

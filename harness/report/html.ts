@@ -65,19 +65,19 @@ function td(text: string, numeric = false): string {
   return numeric ? `<td class="n">${esc(text)}</td>` : `<td>${esc(text)}</td>`;
 }
 
-/** Max error per place on the finest grid and its finest pairwise order (where a defect sits). */
+/** Max error per place on each grid and the finest pairwise order (where a defect sits). */
 function placeTable(study: StudyRecord): string {
   const places = study.places ?? [];
   if (places.length === 0) return "";
-  const finest = (e: (number | null)[]) => [...e].reverse().find((x) => x !== null) ?? null;
-  return `<table><thead><tr><th>place</th><th>max error, finest grid</th>` +
-    `<th>order, finest pair</th></tr></thead><tbody>${
-      places.map((p) =>
-        `<tr><td>${esc(p.place)}</td><td>${num(finest(p.errors), 2)}</td><td>${
-          order(p.order)
-        }</td></tr>`
-      ).join("")
-    }</tbody></table>`;
+  return `<table><thead><tr><th>place</th>${
+    study.grids.map((n) => `<th>max error, ${esc(String(n))}</th>`).join("")
+  }<th>order, finest pair</th></tr></thead><tbody>${
+    places.map((p) =>
+      `<tr><td>${esc(p.place)}</td>${p.errors.map((e) => `<td>${num(e, 2)}</td>`).join("")}<td>${
+        order(p.order)
+      }</td></tr>`
+    ).join("")
+  }</tbody></table>`;
 }
 
 /** Grids added to decide, and the cross-case diagnosis. */

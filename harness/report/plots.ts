@@ -259,29 +259,34 @@ export function errorMapPlot(
   result: CampaignResult,
   caseId: string,
   solver: string,
+  which: "error" | "difference" = "error",
 ): PlotSpec | undefined {
-  const s =
-    solvesOf(result, caseId, solver).filter((r) => r.errorMap).sort((a, b) => b.nx - a.nx)[0];
-  if (!s?.errorMap) return undefined;
-  const { columns, rows, values } = s.errorMap;
+  const field = which === "error" ? "errorMap" : "differenceMap";
+  const s = solvesOf(result, caseId, solver).filter((r) => r[field]).sort((a, b) => b.nx - a.nx)[0];
+  const map = s?.[field];
+  if (!s || !map) return undefined;
+  const { columns, rows, values } = map;
   const data = values.map((error, k) => ({
     column: k % columns,
     row: Math.floor(k / columns),
     error,
   }));
+  const what = which === "error" ? "|u_h − u|" : "|u_h − u_ref|";
   return {
     kind: "error-map",
     caseId,
     solver,
-    caption:
-      `${solver}: where the error sits on the ${s.nx}×${s.ny} grid — the largest |u_h − u| ` +
-      `in each of ${columns} × ${rows} blocks, west to east and south to north`,
+    caption: which === "error"
+      ? `${solver}: where the error sits on the ${s.nx}×${s.ny} grid — the largest |u_h − u| ` +
+        `in each of ${columns} × ${rows} blocks, west to east and south to north`
+      : `${solver}: where it differs from the reference solver's discrete solution on the ` +
+        `${s.nx}×${s.ny} grid — the largest |u_h − u_ref| in each of ${columns} × ${rows} blocks`,
     spec: {
       $schema: "https://vega.github.io/schema/vega-lite/v6.json",
       config: CONFIG,
       width: WIDTH * 0.7,
       height: (WIDTH * 0.7 * rows) / columns,
-      title: `${solver}: |error| on ${s.nx}×${s.ny}`,
+      title: `${solver}: ${what} on ${s.nx}×${s.ny}`,
       data: { values: data },
       mark: { type: "rect" },
       encoding: {
@@ -301,7 +306,7 @@ export function errorMapPlot(
         color: {
           field: "error",
           type: "quantitative",
-          title: "|u_h − u|",
+          title: what,
           scale: { scheme: "viridis" },
           legend: { format: ".1e" },
         },
@@ -324,8 +329,10 @@ export function reportPlots(result: CampaignResult): PlotSpec[] {
     const c = costPlot(result, id);
     if (c) out.push(c);
     for (const solver of pairs(result, id)) {
-      const m = errorMapPlot(result, id, solver);
-      if (m) out.push(m);
+      for (const which of ["error", "difference"] as const) {
+        const m = errorMapPlot(result, id, solver, which);
+        if (m) out.push(m);
+      }
     }
   }
   return out;

@@ -93,6 +93,8 @@ export interface SolveRecord {
    * west first). Kept in the result for the finest grid of a failing study only.
    */
   errorMap?: { columns: number; rows: number; values: number[] };
+  /** Like `errorMap`, for |u_h − u_ref| against the reference's discrete solution on the same grid. */
+  differenceMap?: { columns: number; rows: number; values: number[] };
   /**
    * Vertex and cell layouts: a reordering of the returned values that matches the exact solution
    * ten times better than the values as given (the output is in the wrong point order).

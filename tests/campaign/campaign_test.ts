@@ -65,6 +65,13 @@ Deno.test("check: the reference passes and a solver with shifted east data fails
   // the order is not blamed on the discretization while the imposed data are wrong
   const order = defective.verdicts.filter((v) => v.criterion === "order");
   assert.ok(order.every((v) => v.status !== "fail"), JSON.stringify(order));
+  // where the error sits: maps are kept for the failing study's finest grid only, and the map of
+  // the difference from the reference puts its largest block on the east side (the shifted data)
+  const kept = result.solves.filter((r) => r.errorMap);
+  assert.deepEqual(kept.map((r) => [r.solver, r.nx]), [["defective", 128]]);
+  const d = kept[0].differenceMap!;
+  const top = d.values.indexOf(Math.max(...d.values));
+  assert.equal(top % d.columns, d.columns - 1, "largest difference in the east column of blocks");
   const max = defective.orders.find((o) => o.region === "boundary" && o.norm === "max")!;
   const last = max.pairwise[max.pairwise.length - 1]!;
   assert.ok(Math.abs(last - 1) < 0.2, `boundary-band order ${last} should be about 1`);
