@@ -160,75 +160,53 @@ export async function runCampaign(
       journal = JournalWriter.open(path, header(print, options));
     }
   }
+  // One journal for every solve of the campaign: the planned grids, the grids added to decide and
+  // the isolation variants.
+  const runOptions = {
+    jobs: options.jobs,
+    tolerance: options.tolerance,
+    journal,
+    finished,
+    onProgress: options.onProgress,
+    signal: options.signal,
+  };
   let records: SolveRecord[];
-  try {
-    records = await runSolves(plan, {
-      jobs: options.jobs,
-      tolerance: options.tolerance,
-      journal,
-      finished,
-      onProgress: options.onProgress,
-      signal: options.signal,
-    });
-  } finally {
-    journal?.close();
-  }
+  let studies: StudyRecord[];
   const orderTolerance = options.orderTolerance ?? 0.1;
   const studyOptions = {
     orderTolerance,
     requireFlatIterations: options.requireFlatIterations ?? true,
     tolerance: options.tolerance ?? 1e-10,
   };
-  let studies = buildStudies(cases, solvers, records, studyOptions);
   const budget = {
     maxAdded: options.refine?.maxAdded ?? 2,
     maxUnknowns: options.refine?.maxUnknowns ?? 1_100_000,
     seconds: options.refine?.seconds ?? 120,
   };
-  const added = new Map<string, { grids: number[]; reasons: string[]; seconds: number }>();
-  for (let round = 0; round < budget.maxAdded && !options.signal?.aborted; round++) {
-    const extra = planRefinement(studies, records, cases, solvers, added, budget);
-    if (extra.length === 0) break;
-    journal = options.outDir !== undefined
-      ? JournalWriter.open(`${options.outDir}/${JOURNAL_FILE}`, undefined)
-      : undefined;
-    try {
-      const more = await runSolves(extra, {
-        jobs: options.jobs,
-        tolerance: options.tolerance,
-        journal,
-        finished,
-        onProgress: options.onProgress,
-        signal: options.signal,
-      });
+  const isolationSeconds = options.isolation === false ? 0 : options.isolation?.seconds ?? 60;
+  try {
+    records = await runSolves(plan, runOptions);
+    studies = buildStudies(cases, solvers, records, studyOptions);
+    const added = new Map<string, { grids: number[]; reasons: string[]; seconds: number }>();
+    for (let round = 0; round < budget.maxAdded && !options.signal?.aborted; round++) {
+      const extra = planRefinement(studies, records, cases, solvers, added, budget);
+      if (extra.length === 0) break;
+      const more = await runSolves(extra, runOptions);
       records = [...records, ...more];
       for (const r of more) {
         const a = added.get(`${r.caseId}\u0000${r.solver}`);
         if (a) a.seconds += r.seconds;
       }
-    } finally {
-      journal?.close();
+      studies = buildStudies(cases, solvers, records, studyOptions);
     }
-    studies = buildStudies(cases, solvers, records, studyOptions);
-  }
-  for (const s of studies) {
-    const a = added.get(`${s.caseId}\u0000${s.solver}`);
-    if (a) s.added = { grids: a.grids, reason: a.reasons.join("; ") };
-  }
-  const isolationSeconds = options.isolation === false ? 0 : options.isolation?.seconds ?? 60;
-  if (isolationSeconds > 0 && !options.signal?.aborted) {
-    journal = options.outDir !== undefined
-      ? JournalWriter.open(`${options.outDir}/${JOURNAL_FILE}`, undefined)
-      : undefined;
-    try {
+    for (const s of studies) {
+      const a = added.get(`${s.caseId}\u0000${s.solver}`);
+      if (a) s.added = { grids: a.grids, reason: a.reasons.join("; ") };
+    }
+    if (isolationSeconds > 0 && !options.signal?.aborted) {
       const { found } = await isolateFailures(studies, records, cases, solvers, {
+        ...runOptions,
         seconds: isolationSeconds,
-        jobs: options.jobs,
-        tolerance: options.tolerance,
-        journal,
-        finished,
-        onProgress: options.onProgress,
-        signal: options.signal,
       });
       for (const s of studies) {
         const iso = found.get(`${s.caseId}\u0000${s.solver}`);
@@ -237,9 +215,9 @@ export async function runCampaign(
         const v = s.verdicts.find((v) => v.criterion === "order" && v.status === "fail");
         if (v) v.reason += `. Isolation: ${iso.finding}`;
       }
-    } finally {
-      journal?.close();
     }
+  } finally {
+    journal?.close();
   }
   keepErrorMaps(records, studies);
   const result: CampaignResult = {
