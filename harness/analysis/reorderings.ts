@@ -30,6 +30,12 @@ export const REORDERINGS: readonly {
 export const REORDER_GAIN = 10;
 
 /**
+ * Errors below this share of max |u| are round-off: no reordering is judged from them (a
+ * symmetric solution reproduced to round-off matches itself transposed, by chance better).
+ */
+export const REORDER_FLOOR = 1e-9;
+
+/**
  * Finds a reordering under which a structured field matches the exact solution at least
  * {@link REORDER_GAIN} times better (max norm) than as given: the signature of an output written
  * in the wrong point order. A correct field never qualifies — any reordering of a non-trivial
@@ -59,9 +65,12 @@ export function betterOrder(
 ): string | null {
   const n = mx * my;
   if (values.length !== n || exact.length !== n) return null;
-  let given = 0;
-  for (let k = 0; k < n; k++) given = Math.max(given, Math.abs(values[k] - exact[k]));
-  if (!(given > 0)) return null;
+  let given = 0, scale = 0;
+  for (let k = 0; k < n; k++) {
+    given = Math.max(given, Math.abs(values[k] - exact[k]));
+    scale = Math.max(scale, Math.abs(exact[k]));
+  }
+  if (!(given > REORDER_FLOOR * scale)) return null;
   for (const r of REORDERINGS) {
     let worst = 0;
     for (let j = 0; j < my && worst * REORDER_GAIN < given; j++) {
