@@ -33,9 +33,13 @@ export function assertClose(
   }
 }
 
-/** Finds Debian's python3 with SciPy, or returns undefined (tests then say plainly they skipped). */
+/**
+ * Finds Debian's python3 with SciPy, or returns undefined (tests then say plainly they skipped).
+ * Only `/usr/bin/python3` is probed: it is the interpreter the example solver files name, so a
+ * test never finds SciPy under one interpreter and runs the example under another.
+ */
 export async function findScipyPython(): Promise<string | undefined> {
-  for (const candidate of ["/usr/bin/python3", "python3"]) {
+  for (const candidate of ["/usr/bin/python3"]) {
     try {
       const out = await new Deno.Command(candidate, {
         args: ["-c", "import scipy, numpy; print(scipy.__version__)"],
@@ -51,5 +55,6 @@ export async function findScipyPython(): Promise<string | undefined> {
 }
 
 export { mulberry32, normalDeviates } from "./random.ts";
+export { buildCExample } from "./c_example.ts";
 export { CLI_PERMISSIONS, type CliRun, runGridproof } from "./cli.ts";
 export { type InputRun, runWithInput } from "./run_with_input.ts";

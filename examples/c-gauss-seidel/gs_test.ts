@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import { findScipyPython } from "../../testing/mod.ts";
+import { buildCExample, findScipyPython } from "../../testing/mod.ts";
 import {
   buildRequest,
   decodeValues,
@@ -15,18 +15,15 @@ import {
 const HERE = new URL(".", import.meta.url);
 const BINARY = new URL("gridproof-gs", HERE).pathname;
 const PYTHON = await findScipyPython();
+const NOT_BUILT = await buildCExample();
 const SKIP = PYTHON === undefined
   ? " — SKIPPED: no python3 with NumPy and SciPy (install python3-scipy)"
   : "";
+const SKIP_C = NOT_BUILT ? ` — SKIPPED: ${NOT_BUILT}` : "";
 
-/** Builds the binary (`make -C examples/c-gauss-seidel`, as `.ci/run` does) once per test run. */
+/** The binary is built once per test run (`make -C examples/c-gauss-seidel`, as `.ci/run` does). */
 async function build(): Promise<void> {
-  const out = await new Deno.Command("make", { args: ["-s"], cwd: HERE, stderr: "piped" }).output();
-  assert.ok(
-    out.success,
-    `make -C examples/c-gauss-seidel failed (needs gcc, make, libcjson-dev): ` +
-      new TextDecoder().decode(out.stderr),
-  );
+  assert.equal(await buildCExample(), undefined);
 }
 
 async function solve(req: Record<string, unknown>) {
@@ -36,7 +33,11 @@ async function solve(req: Record<string, unknown>) {
   return run.replies[0];
 }
 
-Deno.test("c-gauss-seidel reproduces a quadratic exact solution to round-off with every boundary kind", async (t) => {
+Deno.test({
+  name:
+    `c-gauss-seidel reproduces a quadratic exact solution to round-off with every boundary kind${SKIP_C}`,
+  ignore: NOT_BUILT !== undefined,
+}, async (t) => {
   // Source: derived — central differences and the ghost-node formulas are exact for quadratics.
   await build();
   for (const [mix, sides] of Object.entries(MIXES)) {
@@ -56,8 +57,8 @@ Deno.test("c-gauss-seidel reproduces a quadratic exact solution to round-off wit
 });
 
 Deno.test({
-  name: `c-gauss-seidel equals the python-scipy example's sparse direct solution${SKIP}`,
-  ignore: PYTHON === undefined,
+  name: `c-gauss-seidel equals the python-scipy example's sparse direct solution${SKIP}${SKIP_C}`,
+  ignore: PYTHON === undefined || NOT_BUILT !== undefined,
   fn: async (t) => {
     // Source: independent library — SciPy's spsolve (SuperLU) of the same scheme, assembled in
     // NumPy by examples/python-scipy; both tolerances far below the 1e-9 relative asked.
@@ -81,7 +82,10 @@ Deno.test({
   },
 });
 
-Deno.test("c-gauss-seidel answers hello, requests and goodbye in session mode", async () => {
+Deno.test({
+  name: `c-gauss-seidel answers hello, requests and goodbye in session mode${SKIP_C}`,
+  ignore: NOT_BUILT !== undefined,
+}, async () => {
   await build();
   const hello = { protocol: "gridproof-protocol/1", type: "hello" };
   const goodbye = { protocol: "gridproof-protocol/1", type: "goodbye" };
@@ -97,7 +101,10 @@ Deno.test("c-gauss-seidel answers hello, requests and goodbye in session mode", 
   );
 });
 
-Deno.test("c-gauss-seidel answers a broken request with an error naming the field", async () => {
+Deno.test({
+  name: `c-gauss-seidel answers a broken request with an error naming the field${SKIP_C}`,
+  ignore: NOT_BUILT !== undefined,
+}, async () => {
   await build();
   const req = buildRequest(QUADRATIC, MIXES["all dirichlet"], { nx: 4, ny: 4 });
   (req.coefficients as Record<string, unknown>).c = [1, 2, 3];

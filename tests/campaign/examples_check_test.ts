@@ -6,27 +6,21 @@
  * direct solve: SciPy's spsolve), and the seeded first-order defect fails naming its sides.
  */
 import assert from "node:assert/strict";
-import { findScipyPython, runGridproof } from "../../testing/mod.ts";
+import { buildCExample, findScipyPython, runGridproof } from "../../testing/mod.ts";
 
 const SCIPY = await findScipyPython();
 const SKIP = SCIPY ? "" : " (skipped: Debian python3-scipy not installed)";
 
 const gridproof = (args: string[]) => runGridproof(args);
 
-async function buildC(): Promise<void> {
-  const made = await new Deno.Command("make", {
-    args: ["-s", "-C", "examples/c-gauss-seidel"],
-    stdout: "piped",
-    stderr: "piped",
-  }).output();
-  assert.ok(made.success, new TextDecoder().decode(made.stderr));
-}
+const NOT_BUILT = await buildCExample();
 
 Deno.test({
-  name: `gridproof probe passes every example adapter in examples/solvers.json${SKIP}`,
-  ignore: !SCIPY,
+  name: `gridproof probe passes every example adapter in examples/solvers.json${SKIP}${
+    NOT_BUILT ? ` (skipped: ${NOT_BUILT})` : ""
+  }`,
+  ignore: !SCIPY || NOT_BUILT !== undefined,
   fn: async () => {
-    await buildC();
     const run = await gridproof(["probe", "--solvers", "examples/solvers.json"]);
     assert.equal(run.code, 0, run.stdout + run.stderr);
     assert.doesNotMatch(run.stdout, /FAIL/);
