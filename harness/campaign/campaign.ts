@@ -20,6 +20,7 @@ import {
   type JournalHeader,
   JournalWriter,
   readJournal,
+  repairJournal,
   solveKey,
 } from "./journal.ts";
 import { gridFor, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
@@ -132,6 +133,7 @@ export async function runCampaign(
   }
   const print = fingerprint(cases, solvers, options);
   let journal: JournalWriter | undefined;
+  const notes: string[] = [];
   let finished: Map<string, SolveRecord> | undefined;
   if (options.outDir !== undefined) {
     Deno.mkdirSync(options.outDir, { recursive: true });
@@ -151,6 +153,13 @@ export async function runCampaign(
         );
       }
       finished = new Map(earlier.records.map((r) => [solveKey(r), r]));
+      const torn = repairJournal(path, earlier);
+      if (torn !== null) {
+        notes.push(
+          `${path}: dropped an incomplete last line left by an interrupted write ` +
+            `(${torn.length} characters); its solve runs again`,
+        );
+      }
       journal = JournalWriter.open(
         path,
         earlier.header ? undefined : header(print, options),
@@ -240,6 +249,7 @@ export async function runCampaign(
     solves: records,
     studies,
     baselineVerdicts: [],
+    ...(notes.length > 0 ? { notes } : {}),
     summary: { pass: 0, fail: 0, inconclusive: 0, warn: 0, notApplicable: 0, exitCode: 0 },
   };
   result.summary = summarize(result);

@@ -78,26 +78,97 @@ export function finiteOrNull(_key: string, value: unknown): unknown {
 export function readJournal(text: string, path: string): {
   header: JournalHeader | undefined;
   records: SolveRecord[];
+  /** Bytes of complete lines: a torn last line (an interrupted write) starts here. */
+  completeBytes: number;
+  /** The torn last line that was dropped, if any. */
+  torn: string | null;
 } {
   const lines = text.split("\n");
   let header: JournalHeader | undefined;
   const records: SolveRecord[] = [];
-  for (let k = 0; k < lines.length; k++) {
-    const line = lines[k].trim();
+  // a last line without its newline was cut in the middle of a write
+  const tornText = text.endsWith("\n") || text === "" ? null : lines[lines.length - 1];
+  const torn = tornText !== null && tornText.trim() !== "" ? tornText : null;
+  const complete = tornText === null ? lines : lines.slice(0, -1);
+  for (let k = 0; k < complete.length; k++) {
+    const line = complete[k].trim();
     if (line === "") continue;
-    let value: JournalHeader | JournalEntry;
+    let value: unknown;
     try {
       value = JSON.parse(line);
     } catch {
-      if (k >= lines.length - 2) break; // torn final line from an interrupted write
       throw new RangeError(
         `${path}: line ${
           k + 1
         } is not valid JSON: the journal is damaged; remove the line or start without --resume`,
       );
     }
-    if (value.kind === "campaign") header ??= value;
-    else if (value.kind === "solve") records.push(value.record);
+    const problem = entryProblem(value);
+    if (problem) {
+      throw new RangeError(
+        `${path}: line ${k + 1} ${problem}: the journal is damaged; remove the line or start ` +
+          `without --resume`,
+      );
+    }
+    const entry = value as JournalHeader | JournalEntry;
+    if (entry.kind === "campaign") header ??= entry;
+    else records.push(entry.record);
   }
-  return { header, records };
+  const completeBytes = new TextEncoder().encode(
+    tornText === null ? text : text.slice(0, text.length - tornText.length),
+  ).length;
+  return { header, records, completeBytes, torn };
+}
+
+/** What is wrong with a parsed journal line, or null when it is a header or a valid solve entry. */
+function entryProblem(value: unknown): string | null {
+  if (value === null || typeof value !== "object" || Array.isArray(value)) {
+    return 'is not a journal entry (an object with kind "campaign" or "solve")';
+  }
+  const v = value as Record<string, unknown>;
+  if (v.kind === "campaign") {
+    return typeof v.fingerprint === "string" ? null : "is a header without its fingerprint";
+  }
+  if (v.kind !== "solve") return `has kind ${JSON.stringify(v.kind)}, not "campaign" or "solve"`;
+  const r = v.record as Record<string, unknown> | null;
+  if (r === null || typeof r !== "object") return "is a solve entry without its record";
+  const need: [string, (x: unknown) => boolean, string][] = [
+    ["caseId", (x) => typeof x === "string", "a string"],
+    ["solver", (x) => typeof x === "string", "a string"],
+    ["nx", (x) => Number.isInteger(x) && (x as number) > 0, "a positive whole number"],
+    ["ny", (x) => Number.isInteger(x) && (x as number) > 0, "a positive whole number"],
+    ["h", (x) => typeof x === "number" && x > 0, "a positive number"],
+    [
+      "status",
+      (x) => x === "ok" || x === "failed" || x === "not-applicable",
+      "ok, failed or not-applicable",
+    ],
+    ["residualHistory", (x) => Array.isArray(x), "an array"],
+    ["seconds", (x) => typeof x === "number", "a number"],
+  ];
+  for (const [field, ok, what] of need) {
+    if (!ok(r[field])) {
+      return `has a solve record whose field ${field} is ${
+        r[field] === undefined ? "missing" : `${JSON.stringify(r[field])}`
+      } (expected ${what})`;
+    }
+  }
+  return null;
+}
+
+/**
+ * Drops a torn last line (an interrupted write) from the journal file, so the next record starts
+ * on a line of its own.
+ *
+ * @param path The journal file.
+ * @param read What {@link readJournal} found in it.
+ * @returns The dropped text, or null when the journal ended with a complete line.
+ */
+export function repairJournal(
+  path: string,
+  read: Pick<ReturnType<typeof readJournal>, "torn" | "completeBytes">,
+): string | null {
+  if (read.torn === null) return null;
+  Deno.truncateSync(path, read.completeBytes);
+  return read.torn;
 }

@@ -395,6 +395,7 @@ export function summaryText(result: CampaignResult): string {
     lines.push("", "Grids added to decide:");
     for (const s of added) lines.push(`  ${s.caseId} × ${s.solver}: ${s.added!.reason}`);
   }
+  for (const note of result.notes ?? []) lines.push("", `note: ${note}`);
   const s = result.summary;
   lines.push(
     "",

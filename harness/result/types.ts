@@ -304,6 +304,8 @@ export interface CampaignResult {
   studies: StudyRecord[];
   /** Verdicts that compare with a saved baseline (not tied to one study's grids). */
   baselineVerdicts: Verdict[];
+  /** What the campaign repaired or noticed on the way (e.g. a torn journal line dropped). */
+  notes?: string[];
   summary: {
     pass: number;
     fail: number;
