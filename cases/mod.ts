@@ -51,7 +51,7 @@ export {
   type PointFunction,
   type RowSampler,
 } from "./compile.ts";
-export { sampleSide } from "./sample.ts";
+export { checkGridSize, MAX_NODES, sampleSide } from "./sample.ts";
 export {
   ALLOWED_FUNCTIONS,
   CONSTANTS,

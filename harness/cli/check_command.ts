@@ -7,7 +7,13 @@
  * @module
  */
 import { type Command, Option } from "commander";
-import { libraryIds, loadCase, loadCaseFiles, loadLibrary } from "../../cases/mod.ts";
+import {
+  checkGridSize,
+  libraryIds,
+  loadCase,
+  loadCaseFiles,
+  loadLibrary,
+} from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { compareWithBaseline } from "../baseline/mod.ts";
 import { allVerdicts, runCampaign, summarize } from "../campaign/campaign.ts";
@@ -78,7 +84,7 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
       'comma-separated solvers to run: "reference" and/or names from --solvers (default: all)',
     )
     .option("--upwind", "the reference solver uses first-order upwinding (expected order 1)")
-    .option("--jobs <n>", "solves at once (default: the number of cores)")
+    .option("--jobs <n>", "solves at once (default: the number of cores; at most 4 per core)")
     .option("--out <dir>", "output folder for the journal and result.json", DEFAULT_OUT)
     .option("--resume", "continue the campaign recorded in the output folder's journal")
     .option("--json", "print the result object as JSON instead of the summary")
@@ -197,9 +203,19 @@ export async function selectSolvers(
 
 /** Runs `check` with parsed flags: the campaign, the result file, the reports and the summary. */
 export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
-  const jobs = flags.jobs === undefined
-    ? navigator.hardwareConcurrency
+  const cores = Math.max(1, navigator.hardwareConcurrency);
+  const asked = flags.jobs === undefined
+    ? cores
     : parsePositive(flags.jobs, "--jobs", { integer: true });
+  // Each job may hold a solver process or a reference worker with its grid in memory: more than
+  // four per core only adds memory and contention.
+  const jobs = Math.min(asked, MAX_JOBS_PER_CORE * cores);
+  if (jobs < asked) {
+    console.error(
+      `gridproof: --jobs ${asked} capped at ${jobs} (${MAX_JOBS_PER_CORE} per core on ${cores} ` +
+        `cores)`,
+    );
+  }
   const grids = flags.grids !== undefined
     ? gridsOrThrow(
       () => gridSequence({ grids: parseNumberList(flags.grids!, "--grids") }),
@@ -223,6 +239,14 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const tolerance = flags.tolerance === undefined
     ? undefined
     : parsePositive(flags.tolerance, "--tolerance");
+  if (tolerance !== undefined && !(tolerance < 1)) {
+    throw new InputError(
+      `${tolerance} is not a relative residual reduction: give a number between 0 and 1, ` +
+        `e.g. 1e-10`,
+      { where: "--tolerance" },
+    );
+  }
+  checkOutFolder(flags.out);
   const formats = (flags.format ?? "").split(",").map((s) => s.trim()).filter((s) => s !== "");
   for (const format of formats) {
     // refuse an unknown report format before any solve runs
@@ -254,6 +278,22 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const baseline = flags.baseline === undefined ? undefined : await readResult(flags.baseline);
 
   const cases = await selectCases(flags);
+  // every grid of every case must fit before any solve starts
+  for (const kase of cases) {
+    for (const n of grids ?? kase.grids) {
+      const g = kase.gridFor(n);
+      try {
+        checkGridSize(g.nx, g.ny);
+      } catch (error) {
+        if (error instanceof RangeError) {
+          throw new InputError(`${error.message} (case ${kase.id})`, {
+            where: grids ? "--grids" : kase.origin,
+          });
+        }
+        throw error;
+      }
+    }
+  }
   const solvers = await selectSolvers(flags, jobs);
   const stopSolvers = () => Promise.all(solvers.map((s) => s.close()));
   // Ctrl-C: no new solve starts, running solvers are stopped, and the command ends with 130 —
@@ -316,6 +356,50 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
     console.log(`\nwritten: ${written.join(", ")}`);
   }
   return result;
+}
+
+/** At most this many solves at once per core (see runCheck). */
+const MAX_JOBS_PER_CORE = 4;
+
+/** The output folder must be a folder we can write: refuse anything else before any work. */
+function checkOutFolder(out: string): void {
+  if (out.trim() === "") {
+    throw new InputError("the output folder is empty: name a folder, e.g. --out results", {
+      where: "--out",
+    });
+  }
+  try {
+    const info = Deno.statSync(out);
+    if (!info.isDirectory) {
+      throw new InputError(
+        `${out} exists and is not a folder: name a folder (it is created when missing)`,
+        { where: "--out" },
+      );
+    }
+  } catch (error) {
+    if (error instanceof InputError) throw error;
+    if (error instanceof Deno.errors.NotCapable) {
+      throw new InputError(`gridproof may not write in ${out}: choose a folder of your own`, {
+        where: "--out",
+      });
+    }
+    if (!(error instanceof Deno.errors.NotFound)) {
+      throw new InputError(`cannot use ${out}: ${(error as Error).message}`, { where: "--out" });
+    }
+  }
+  try {
+    Deno.mkdirSync(out, { recursive: true });
+    const probe = `${out}/.gridproof-write-test`;
+    Deno.writeTextFileSync(probe, "");
+    Deno.removeSync(probe);
+  } catch (error) {
+    const why = error instanceof Deno.errors.NotCapable
+      ? "gridproof may not write there"
+      : (error as Error).message;
+    throw new InputError(`cannot write in ${out}: ${why}; choose a folder you can write to`, {
+      where: "--out",
+    });
+  }
 }
 
 function parseCount(text: string): number {

@@ -74,3 +74,16 @@ Deno.test("loadSolverFile() lists every problem with the file and the field", as
     });
   });
 });
+
+Deno.test("loadSolverFile() refuses a time limit beyond the timer's range (issue 12, item 8)", async () => {
+  // before, timeLimitSeconds ≥ 2147484 (2^31 ms) was accepted and every solve failed within 1 ms
+  const text = JSON.stringify({
+    solvers: [{ name: "a", command: ["./run"], timeLimitSeconds: 3e6 }],
+  });
+  await withFile(text, async (path) => {
+    await assert.rejects(loadSolverFile(path), (e: InputError) => {
+      assert.deepEqual(e.problems, ["solvers[0].timeLimitSeconds: must be <= 2147483"]);
+      return true;
+    });
+  });
+});

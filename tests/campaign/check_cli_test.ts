@@ -53,6 +53,20 @@ Deno.test("gridproof check refuses bad flags with exit code 2 and says what to f
       ["--format", "pdf", "--cases", "quadratic-exact", "--grids", "8,16"],
       /unknown report format "pdf"/,
     ],
+    // issue 12, item 12: before, these ran and exited 1 with FAIL verdicts
+    [
+      ["--cases", "quartic-poisson", "--grids", "8,16,1e9"],
+      /--grids: grid 1000000000×1000000000 has more than 134217728 nodes/,
+    ],
+    [
+      ["--cases", "quartic-poisson", "--tolerance", "2"],
+      /--tolerance: 2 is not a relative residual reduction: give a number between 0 and 1/,
+    ],
+    [
+      ["--cases", "quartic-poisson", "--isolation-seconds", "soon"],
+      /--isolation-seconds: "soon" is not a positive number/,
+    ],
+    [["--cases", "quartic-poisson", "--refine-grids", "-1"], /--refine-grids: "-1" is not a whole/],
   ];
   for (const [args, message] of cases) {
     await t.step(args.join(" "), async () => {
@@ -64,4 +78,31 @@ Deno.test("gridproof check refuses bad flags with exit code 2 and says what to f
       await Deno.remove(dir, { recursive: true });
     });
   }
+  // issue 12, item 10: before, an --out that names a file ended in "internal error" (exit 3)
+  await t.step("--out naming a file", async () => {
+    const file = await Deno.makeTempFile();
+    const run = await gridproof(["check", "--out", file, "--cases", "quartic-poisson"]);
+    assert.equal(run.code, 2, run.stdout + run.stderr);
+    assert.match(run.stderr, /--out: .* exists and is not a folder: name a folder/);
+    assert.doesNotMatch(run.stderr, /internal error/);
+    await Deno.remove(file);
+  });
+});
+
+Deno.test("gridproof check caps --jobs at four per core and says so (issue 12, item 9)", async () => {
+  // before, --jobs 1000000 started a worker per job and grew past 3 GB
+  const dir = await Deno.makeTempDir();
+  const run = await gridproof([
+    "check",
+    "--jobs",
+    "1000000",
+    "--cases",
+    "quartic-poisson",
+    "--out",
+    dir,
+    "--no-progress",
+  ]);
+  assert.equal(run.code, 0, run.stdout + run.stderr);
+  assert.match(run.stderr, /--jobs 1000000 capped at \d+ \(4 per core on \d+ cores\)/);
+  await Deno.remove(dir, { recursive: true });
 });
