@@ -28,7 +28,13 @@ import { InputError } from "./errors.ts";
 import type { SetExitCode } from "./mod.ts";
 import { writeReport } from "./report_command.ts";
 import { rendererFor } from "../report/mod.ts";
-import { environmentRecord, parseNumberList, parsePositive, progressPrinter } from "./shared.ts";
+import {
+  environmentRecord,
+  parseNumberList,
+  parsePositive,
+  progressPrinter,
+  writeFileWhole,
+} from "./shared.ts";
 
 /** Default output folder of `check`. */
 export const DEFAULT_OUT = "gridproof-results";
@@ -338,7 +344,7 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
     result.summary = summarize(result);
   }
   const resultPath = `${flags.out}/result.json`;
-  await Deno.writeTextFile(resultPath, JSON.stringify(result, finite, 1) + "\n");
+  await writeFileWhole(resultPath, JSON.stringify(result, finite, 1) + "\n", "the result");
   const written: string[] = [resultPath];
   for (const format of formats) {
     const extension =

@@ -17,7 +17,7 @@ import type { CampaignResult } from "../result/types.ts";
 import { createExternalSolver, loadSolverFile, type Solver } from "../solvers/mod.ts";
 import type { SetExitCode } from "./mod.ts";
 import { writeReport } from "./report_command.ts";
-import { environmentRecord, parsePositive, progressPrinter } from "./shared.ts";
+import { environmentRecord, parsePositive, progressPrinter, writeFileWhole } from "./shared.ts";
 
 /** Default output folder of the demo. */
 export const DEMO_OUT = "gridproof-demo";
@@ -156,10 +156,11 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
   } finally {
     await Promise.all(solvers.map((s) => s.close()));
   }
-  await Deno.writeTextFile(
+  await writeFileWhole(
     `${out}/result.json`,
     JSON.stringify(result, (_k, v) => typeof v === "number" && !Number.isFinite(v) ? null : v, 1) +
       "\n",
+    "the result",
   );
   for (
     const [format, file] of [["html", "report.html"], ["md", "report.md"], ["junit", "report.xml"]]

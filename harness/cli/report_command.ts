@@ -6,6 +6,7 @@
  */
 import type { Command } from "commander";
 import { InputError } from "./errors.ts";
+import { writeFileWhole } from "./shared.ts";
 import { readResult } from "../result/read.ts";
 import { type CampaignResult } from "../result/types.ts";
 import { RENDERERS, type ReportFormat } from "../report/mod.ts";
@@ -64,15 +65,7 @@ export async function writeReport(
     await writeAll(bytes);
     return undefined;
   }
-  try {
-    await Deno.writeFile(options.out, bytes);
-  } catch (error) {
-    throw new InputError(
-      `cannot write the report (${(error as Error).message}); check that the folder exists ` +
-        "and is writable",
-      { where: options.out },
-    );
-  }
+  await writeFileWhole(options.out, bytes, `the ${format} report`);
   return options.out;
 }
 

@@ -84,3 +84,35 @@ export function progressPrinter(): (event: ProgressEvent) => void {
     }
   };
 }
+
+/**
+ * Writes a file whole or not at all: the bytes go to a temporary file beside it, which is then
+ * renamed over the target, so a full disk or a crash never leaves a truncated result or report.
+ * A failure becomes an {@link InputError} that says what could not be written, where, and that
+ * the journal keeps every finished solve.
+ *
+ * @param path The file to write.
+ * @param data The content.
+ * @param what What the file is, for the message (e.g. "the result").
+ * @throws {InputError} when the file cannot be written.
+ */
+export async function writeFileWhole(
+  path: string,
+  data: string | Uint8Array,
+  what: string,
+): Promise<void> {
+  const temporary = `${path}.partial-${Deno.pid}`;
+  try {
+    if (typeof data === "string") await Deno.writeTextFile(temporary, data);
+    else await Deno.writeFile(temporary, data);
+    await Deno.rename(temporary, path);
+  } catch (error) {
+    await Deno.remove(temporary).catch(() => {});
+    throw new InputError(
+      `could not write ${what}: ${(error as Error).message}. Nothing was half-written; every ` +
+        `finished solve is in the journal of the output folder — free some space or fix the ` +
+        `folder, then run the same command with --resume`,
+      { where: path },
+    );
+  }
+}

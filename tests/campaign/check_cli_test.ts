@@ -106,3 +106,27 @@ Deno.test("gridproof check caps --jobs at four per core and says so (issue 12, i
   assert.match(run.stderr, /--jobs 1000000 capped at \d+ \(4 per core on \d+ cores\)/);
   await Deno.remove(dir, { recursive: true });
 });
+
+Deno.test("gridproof check that cannot write its result says so, keeps the journal and exits 2 (issue 12, item 3)", async () => {
+  // a folder where result.json should go makes the write fail, as a full disk would; before, the
+  // command ended in "internal error" with a stack trace
+  const dir = await Deno.makeTempDir();
+  await Deno.mkdir(`${dir}/result.json/blocker`, { recursive: true });
+  const run = await gridproof([
+    "check",
+    "--cases",
+    "quartic-poisson",
+    "--out",
+    dir,
+    "--no-progress",
+  ]);
+  assert.equal(run.code, 2, run.stdout + run.stderr);
+  assert.match(run.stderr, /result\.json: could not write the result: .*--resume/);
+  assert.doesNotMatch(run.stderr, /internal error|\n\s+at /);
+  const journal = (await Deno.readTextFile(`${dir}/journal.jsonl`)).trim().split("\n");
+  assert.equal(journal.length, 1 + 4, "the header and the four solves of quartic-poisson");
+  // nothing half-written is left beside it
+  const left = [...Deno.readDirSync(dir)].map((e) => e.name).filter((n) => n.includes("partial"));
+  assert.deepEqual(left, []);
+  await Deno.remove(dir, { recursive: true });
+});
