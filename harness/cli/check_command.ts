@@ -27,7 +27,7 @@ import type { Solver } from "../solvers/mod.ts";
 import { InputError } from "./errors.ts";
 import type { SetExitCode } from "./mod.ts";
 import { writeReport } from "./report_command.ts";
-import { rendererFor } from "../report/mod.ts";
+import { escapeTerminal, rendererFor } from "../report/mod.ts";
 import {
   environmentRecord,
   parseNumberList,
@@ -495,7 +495,7 @@ export function summaryText(result: CampaignResult): string {
     "Code verification shows the discrete equations are solved correctly; it does not validate " +
       "the physical model.",
   );
-  return lines.join("\n");
+  return lines.map((line) => line.split("\n").map(escapeTerminal).join("\n")).join("\n");
 }
 
 /** Progress for the campaign (re-exported for `demo`). */

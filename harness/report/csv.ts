@@ -4,6 +4,7 @@
  * @module
  */
 import { stringify } from "csv-stringify/sync";
+import { escapeCsvCell } from "./escape.ts";
 import type { CampaignResult, NormSet, Region } from "../result/types.ts";
 import { caseIds, orderOf, pairs, pairwiseAt, solvesOf } from "./_shared.ts";
 
@@ -81,5 +82,8 @@ export function renderCsv(result: CampaignResult): string {
       }
     }
   }
-  return stringify(rows, { header: true, columns: [...CSV_COLUMNS] });
+  const safe = rows.map((row) =>
+    Object.fromEntries(Object.entries(row).map(([k, v]) => [k, escapeCsvCell(v)]))
+  );
+  return stringify(safe, { header: true, columns: [...CSV_COLUMNS] });
 }

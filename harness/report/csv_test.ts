@@ -64,3 +64,16 @@ Deno.test("renderCsv() keeps a failed solve's rows with an empty error and its r
     assert.equal(r.converged, "false");
   }
 });
+
+Deno.test("renderCsv() guards cells a spreadsheet would read as formulas (issue 12, item 14)", () => {
+  const result = makeFixtureResult();
+  const failed = result.solves.find((s) => s.status === "failed") ?? result.solves[0];
+  failed.status = "failed";
+  failed.reason = '=HYPERLINK("http://example.invalid")';
+  const rows = parse(renderCsv(result), { columns: true }) as Record<string, string>[];
+  const cell = rows.find((r) => r.reason.includes("HYPERLINK"))!.reason;
+  // OWASP's guard against CSV injection (common practice): a leading apostrophe
+  assert.equal(cell, `'=HYPERLINK("http://example.invalid")`);
+  // numbers, even negative ones, stay numbers
+  assert.ok(rows.every((r) => r.h === "" || Number.isFinite(Number(r.h))));
+});

@@ -52,3 +52,38 @@ export function escapeMarkdown(text: string): string {
     .replace(/[\\`*_{}[\]|~]/g, (c) => "\\" + c)
     .replace(/[&<>]/g, (c) => HTML[c]);
 }
+
+/**
+ * Makes text safe for a terminal line: control characters (ESC, BEL, NUL … — the start of
+ * terminal escape sequences a solver's reason or a case title could carry) become "?", and line
+ * breaks and tabs become spaces.
+ *
+ * @param text Any text from the result or a solver.
+ * @returns Printable text on one line.
+ *
+ * @example
+ * ```ts
+ * import { escapeTerminal } from "./escape.ts";
+ * console.assert(escapeTerminal("ok\u001b[2J\nnext") === "ok?[2J next");
+ * ```
+ */
+export function escapeTerminal(text: string): string {
+  return String(text).replace(/[\r\n\t]+/g, " ")
+    // deno-lint-ignore no-control-regex
+    .replace(/[\u0000-\u001f\u007f-\u009f]/g, "?");
+}
+
+/**
+ * Makes a CSV cell safe to open in a spreadsheet: text starting with `=`, `+`, `-`, `@`, tab or
+ * carriage return would be read as a formula, so it gets a leading apostrophe (the usual guard
+ * against formula injection); numbers and other text stay as they are.
+ *
+ * @example
+ * ```ts
+ * import { escapeCsvCell } from "./escape.ts";
+ * console.assert(escapeCsvCell("=1+1") === "'=1+1" && escapeCsvCell(-2) === -2);
+ * ```
+ */
+export function escapeCsvCell<T>(value: T): T | string {
+  return typeof value === "string" && /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
+}

@@ -32,5 +32,5 @@ export {
   type RenderOptions,
   type ReportFormat,
 } from "./registry.ts";
-export { escapeHtml, escapeMarkdown } from "./escape.ts";
+export { escapeCsvCell, escapeHtml, escapeMarkdown, escapeTerminal } from "./escape.ts";
 export { type PlotKind, type PlotSpec, reportPlots } from "./plots.ts";

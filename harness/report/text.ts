@@ -4,6 +4,7 @@
  * @module
  */
 import type { CampaignResult, SolveRecord, Verdict, VerdictStatus } from "../result/types.ts";
+import { escapeTerminal } from "./escape.ts";
 import {
   allVerdicts,
   bySeverity,
@@ -64,10 +65,7 @@ function verdictLines(verdicts: Verdict[], color: boolean, indent: string): stri
 }
 
 /** Control characters from the result must not move the cursor or recolour the terminal. */
-function oneLine(text: string): string {
-  // deno-lint-ignore no-control-regex
-  return String(text).replace(/[\r\n\t]+/g, " ").replace(/[\u0000-\u001f\u007f-\u009f]/g, "?");
-}
+const oneLine = escapeTerminal;
 
 function solveRow(
   s: SolveRecord,
