@@ -41,10 +41,30 @@ function looksLikePath(s: string): boolean {
   return s.endsWith(".json") || s.includes("/") || s.includes("\\");
 }
 
+/** Largest case file read (1 MiB): a case is a few kilobytes of JSON. */
+export const MAX_CASE_FILE_BYTES = 1 << 20;
+
 async function readText(path: string | URL): Promise<string> {
   try {
+    // refuse what is not a regular file (a FIFO would hang, /dev/zero would never end) and
+    // anything far larger than a case file, before reading a byte
+    const info = await Deno.stat(path);
+    if (info.isFile === false && !info.isDirectory) {
+      throw new InputError(
+        "is not a regular file (a device, pipe or socket); give the path of a case file (.json)",
+        { where: String(path) },
+      );
+    }
+    if (info.isFile && info.size > MAX_CASE_FILE_BYTES) {
+      throw new InputError(
+        `is ${info.size} bytes, more than the ${MAX_CASE_FILE_BYTES} a case file may have; ` +
+          `check that this is a case file`,
+        { where: String(path) },
+      );
+    }
     return await Deno.readTextFile(path);
   } catch (error) {
+    if (error instanceof InputError) throw error;
     if (error instanceof Deno.errors.NotFound) {
       throw new InputError("file not found; check the path", { where: String(path) });
     }

@@ -1,6 +1,13 @@
 import assert from "node:assert/strict";
 import { InputError } from "../errors/mod.ts";
-import { checkCaseFiles, libraryIds, loadCase, loadCaseFiles, loadLibrary } from "./load.ts";
+import {
+  checkCaseFiles,
+  libraryIds,
+  loadCase,
+  loadCaseFiles,
+  loadLibrary,
+  MAX_CASE_FILE_BYTES,
+} from "./load.ts";
 
 const fixture = (name: string) => `testdata/cases/${name}`;
 
@@ -59,4 +66,24 @@ Deno.test("checkCaseFiles() collects every problem of every file and passes a go
       name,
     );
   }
+});
+
+Deno.test("loadCase() refuses devices, pipes and oversized files before reading them (issue 12, item 11)", async (t) => {
+  // before, /dev/zero was read until memory ran out and a FIFO hung
+  await t.step("a device", async () => {
+    await assert.rejects(
+      loadCaseFiles(["/dev/zero"]),
+      (e: InputError) => /not a regular file/.test(e.problems.join(" ") + e.message),
+    );
+  });
+  await t.step("a file beyond the size limit", async () => {
+    const path = await Deno.makeTempFile({ suffix: ".json" });
+    await Deno.writeTextFile(path, " ".repeat(MAX_CASE_FILE_BYTES + 1));
+    await assert.rejects(
+      loadCaseFiles([path]),
+      (e: InputError) =>
+        /more than the 1048576 a case file may have/.test(e.problems.join(" ") + e.message),
+    );
+    await Deno.remove(path);
+  });
 });
