@@ -26,6 +26,7 @@ import {
 import { gridFor, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
 import { buildStudies } from "./study.ts";
 import { isolateFailures } from "./isolation.ts";
+import { lockFolder } from "./folder_lock.ts";
 
 /** Options of {@link runCampaign}. */
 export interface CampaignOptions {
@@ -132,11 +133,38 @@ export async function runCampaign(
     }
   }
   const print = fingerprint(cases, solvers, options);
-  let journal: JournalWriter | undefined;
   const notes: string[] = [];
-  let finished: Map<string, SolveRecord> | undefined;
+  let unlock = () => {};
   if (options.outDir !== undefined) {
     Deno.mkdirSync(options.outDir, { recursive: true });
+    const lock = lockFolder(options.outDir);
+    unlock = lock.release;
+    if (lock.staleFrom !== null) {
+      notes.push(
+        `${options.outDir}: took over the lock of a campaign that no longer runs ` +
+          `(process ${lock.staleFrom})`,
+      );
+    }
+  }
+  try {
+    return await campaignIn(cases, solvers, options, plan, print, notes);
+  } finally {
+    unlock();
+  }
+}
+
+/** The campaign itself, once its output folder (if any) is locked. */
+async function campaignIn(
+  cases: CompiledCase[],
+  solvers: Solver[],
+  options: CampaignOptions,
+  plan: PlannedSolve[],
+  print: string,
+  notes: string[],
+): Promise<CampaignResult> {
+  let journal: JournalWriter | undefined;
+  let finished: Map<string, SolveRecord> | undefined;
+  if (options.outDir !== undefined) {
     const path = `${options.outDir}/${JOURNAL_FILE}`;
     if (options.resume) {
       let text = "";

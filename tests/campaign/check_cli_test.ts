@@ -130,3 +130,22 @@ Deno.test("gridproof check that cannot write its result says so, keeps the journ
   assert.deepEqual(left, []);
   await Deno.remove(dir, { recursive: true });
 });
+
+Deno.test("gridproof check refuses an output folder another running campaign holds (issue 12, item 2)", async () => {
+  // before, two campaigns in one folder interleaved their journals
+  const dir = await Deno.makeTempDir();
+  const other = new Deno.Command("sleep", { args: ["30"] }).spawn();
+  try {
+    await Deno.writeTextFile(`${dir}/.gridproof.lock`, `${other.pid}\n`);
+    const run = await gridproof(["check", "--cases", "quartic-poisson", "--out", dir]);
+    assert.equal(run.code, 2, run.stdout + run.stderr);
+    assert.match(
+      run.stderr,
+      new RegExp(`in use by another gridproof campaign \\(process ${other.pid}\\)`),
+    );
+  } finally {
+    other.kill();
+    await other.status;
+  }
+  await Deno.remove(dir, { recursive: true });
+});
