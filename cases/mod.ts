@@ -52,6 +52,7 @@ export {
   type RowSampler,
 } from "./compile.ts";
 export { checkGridSize, MAX_NODES, sampleSide } from "./sample.ts";
+export { JsonSyntaxError, type LocatedJson, readJsonWithPositions } from "./_json.ts";
 export {
   ALLOWED_FUNCTIONS,
   CONSTANTS,

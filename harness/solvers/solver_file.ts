@@ -6,6 +6,7 @@
  */
 import { dirname, resolve } from "node:path";
 import { Ajv2020, type ErrorObject } from "ajv/dist/2020";
+import { JsonSyntaxError, readJsonWithPositions } from "../../cases/mod.ts";
 import { InputError } from "../../errors/mod.ts";
 import solverFileSchema from "./solvers.schema.json" with { type: "json" };
 import type { ExternalSolverSpec } from "./types.ts";
@@ -76,11 +77,15 @@ export async function loadSolverFile(
   }
   let data: unknown;
   try {
-    data = JSON.parse(text);
+    // strict JSON with positions: a field given twice is refused, as in case files
+    data = readJsonWithPositions(text).value;
   } catch (error) {
-    throw new InputError(`the solver file is not valid JSON: ${(error as Error).message}`, {
-      where: path,
-    });
+    if (!(error instanceof JsonSyntaxError)) throw error;
+    const { line, column } = error.position;
+    throw new InputError(
+      `the solver file is not valid JSON at line ${line}, column ${column}: ${error.message}`,
+      { where: path },
+    );
   }
   validator ??= new Ajv2020({ allErrors: true, strict: false }).compile(solverFileSchema);
   if (!validator(data)) {

@@ -87,3 +87,15 @@ Deno.test("loadSolverFile() refuses a time limit beyond the timer's range (issue
     });
   });
 });
+
+Deno.test("loadSolverFile() refuses a field given twice, as case files do (issue 12, item 16)", async () => {
+  // before, JSON.parse kept the second value silently
+  const text = '{ "solvers": [ { "name": "a", "command": ["./run"], "name": "b" } ] }';
+  await withFile(text, async (path) => {
+    await assert.rejects(loadSolverFile(path), (e: InputError) => {
+      assert.equal(e.where, path);
+      assert.match(e.message, /line 1, column \d+: field "name" appears twice/);
+      return true;
+    });
+  });
+});
