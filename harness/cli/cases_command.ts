@@ -5,6 +5,7 @@
  * @module
  */
 import type { Command } from "commander";
+import { escapeTerminal } from "../report/mod.ts";
 import {
   type CaseFile,
   checkCaseFiles,
@@ -157,7 +158,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     .option("--json", "print a JSON array (id, title, expectedOrder, boundary, tags, …)")
     .action(async (opts: { json?: boolean }) => {
       const rows = (await libraryFiles()).map(caseListing);
-      console.log(opts.json ? JSON.stringify(rows, null, 2) : casesTable(rows));
+      console.log(opts.json ? JSON.stringify(rows, null, 2) : terminalSafe(casesTable(rows)));
     });
   cases
     .command("show")
@@ -172,7 +173,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {
       const parameters = parseParameterFlags(opts.param);
       const c = await loadCase(id, { parameters });
-      console.log(showCase(c, opts.tex === true));
+      console.log(terminalSafe(showCase(c, opts.tex === true)));
     });
   cases
     .command("check")
@@ -183,7 +184,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
       let bad = 0;
       for (const r of results) {
         if (r.problems.length === 0) {
-          console.log(`ok: ${r.file}`);
+          console.log(terminalSafe(`ok: ${r.file}`));
           continue;
         }
         bad++;
@@ -192,4 +193,9 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
       }
       if (bad) setExitCode(2);
     });
+}
+
+/** Each line without control characters: a case file's title or text may carry escape sequences. */
+function terminalSafe(text: string): string {
+  return text.split("\n").map(escapeTerminal).join("\n");
 }

@@ -123,3 +123,17 @@ Deno.test("gridproof cases check: an id used twice names both files", async () =
     [/duplicate-b\.json: id: "user-twice" is already used by testdata\/cases\/duplicate-a\.json/],
   );
 });
+
+Deno.test("gridproof cases show prints a case title's control characters as '?' (issue 12, item 14)", async () => {
+  // before, an escape sequence in a title reached the terminal raw
+  const doc = JSON.parse(await Deno.readTextFile(fixture("good.json")));
+  doc.title = "plate\u001b[2J\u0007 with a bell";
+  const path = await Deno.makeTempFile({ suffix: ".json" });
+  await Deno.writeTextFile(path, JSON.stringify(doc));
+  const run = await runCli(["cases", "show", path]);
+  assert.equal(run.code, 0, run.stderr);
+  // deno-lint-ignore no-control-regex
+  assert.doesNotMatch(run.stdout, /[\u0000-\u0009\u000b-\u001f\u007f]/);
+  assert.match(run.stdout, /plate\?\[2J\? with a bell/);
+  await Deno.remove(path);
+});
