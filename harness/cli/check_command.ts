@@ -302,21 +302,28 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   }
   const solvers = await selectSolvers(flags, jobs);
   const stopSolvers = () => Promise.all(solvers.map((s) => s.close()));
-  // Ctrl-C: no new solve starts, running solvers are stopped, and the command ends with 130 —
-  // whichever comes first, the handler or the campaign returning, never with a result of 0.
+  // Ctrl-C (SIGINT) or SIGTERM: no new solve starts, every running solver process group is
+  // killed at once, and the command ends with 130 (SIGINT) or 143 (SIGTERM) — whichever comes
+  // first, the handler or the campaign returning, never with a result of 0.
   const interrupt = new AbortController();
+  let exitCode = 130;
   const endInterrupted = (): never => {
     console.error(
       `\ngridproof: interrupted; every finished solve is in ${flags.out}/journal.jsonl — ` +
         `run the same command with --resume to continue`,
     );
-    Deno.exit(130);
+    Deno.exit(exitCode);
   };
-  const onInterrupt = () => {
+  const onSignal = (code: number) => () => {
+    if (interrupt.signal.aborted) return;
+    exitCode = code;
     interrupt.abort();
-    stopSolvers().finally(endInterrupted);
+    Promise.all(solvers.map((s) => s.stop?.())).then(stopSolvers).finally(endInterrupted);
   };
+  const onInterrupt = onSignal(130);
+  const onTerminate = onSignal(143);
   Deno.addSignalListener("SIGINT", onInterrupt);
+  Deno.addSignalListener("SIGTERM", onTerminate);
   let result: CampaignResult;
   try {
     result = await runCampaign(cases, solvers, {
@@ -334,7 +341,10 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       onProgress: flags.progress === false || flags.json ? undefined : progressPrinter(),
     });
   } finally {
-    if (!interrupt.signal.aborted) Deno.removeSignalListener("SIGINT", onInterrupt);
+    if (!interrupt.signal.aborted) {
+      Deno.removeSignalListener("SIGINT", onInterrupt);
+      Deno.removeSignalListener("SIGTERM", onTerminate);
+    }
     await stopSolvers();
   }
   if (interrupt.signal.aborted) endInterrupted();

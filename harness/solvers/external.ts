@@ -114,6 +114,10 @@ export function createExternalSolver(
       await queue;
       await session?.close();
     },
+    stop(): Promise<void> {
+      runner.killAll();
+      return Promise.resolve();
+    },
   };
 }
 
@@ -173,7 +177,15 @@ function unsupported(
 
 /** Starts processes and runs `once` solves. */
 class Runner {
+  /** Processes started and not yet ended, so a stop can end them at once. */
+  readonly #live = new Set<GroupProcess>();
+
   constructor(readonly spec: ExternalSolverSpec, readonly baseDir: string) {}
+
+  /** Ends every running process group of this solver now (SIGKILL). */
+  killAll(): void {
+    for (const proc of this.#live) proc.killGroup();
+  }
 
   get env(): Record<string, string> | undefined {
     return this.spec.env;
@@ -261,12 +273,15 @@ class Runner {
       return `the working folder ${cwd} does not exist (field cwd, relative to the solver file's folder)`;
     }
     try {
-      return GroupProcess.start({
+      const proc = GroupProcess.start({
         argv: [found.path, ...args],
         cwd,
         env: this.env,
         memoryLimitMiB: this.spec.memoryLimitMiB,
       });
+      this.#live.add(proc);
+      proc.status.finally(() => this.#live.delete(proc)).catch(() => {});
+      return proc;
     } catch (error) {
       return `could not start ${found.path}: ${(error as Error).message}`;
     }

@@ -75,6 +75,11 @@ export interface Solver {
   solve(task: SolveTask): Promise<SolveOutcome>;
   /** Releases processes and resources (ends a session); safe to call twice. */
   close(): Promise<void>;
+  /**
+   * Ends every running solve at once (their process groups are killed), so a following `close()`
+   * returns promptly; the solves end as failed. Optional: in-process solvers finish on their own.
+   */
+  stop?(): Promise<void>;
 }
 
 /** One external solver as written in a solver file, with defaults filled in. */

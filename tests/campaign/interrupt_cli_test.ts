@@ -62,3 +62,49 @@ Deno.test("an interrupted check keeps its finished solves and --resume completes
   assert.equal(journalSolves(journal), 4);
   await Deno.remove(dir, { recursive: true });
 });
+
+/** Processes running the SOR example's session (its command line ends in "main.ts"). */
+async function sorProcesses(): Promise<number> {
+  const out = await new Deno.Command("ps", { args: ["-eo", "args"], stdout: "piped" }).output();
+  return new TextDecoder().decode(out.stdout).split("\n")
+    .filter((l) => /--no-lock --quiet main\.ts$/.test(l.trim())).length;
+}
+
+Deno.test("SIGTERM ends check at once with 143, ends the solver processes and keeps the journal (issue 12, item 5)", async () => {
+  // before, SIGTERM killed the harness at once and left the solver processes running
+  const dir = await Deno.makeTempDir();
+  const args = [
+    "run",
+    "--quiet",
+    ...CLI_PERMISSIONS,
+    "cli.ts",
+    "check",
+    "--solvers",
+    "examples/solvers.json",
+    "--solver",
+    "deno-sor",
+    "--cases",
+    "smooth-baseline",
+    "--grids",
+    "16,32,384,512",
+    "--jobs",
+    "1",
+    "--out",
+    dir,
+    "--no-progress",
+  ];
+  const before = await sorProcesses();
+  const child = new Deno.Command(DENO, { args, stdout: "piped", stderr: "piped" }).spawn();
+  const journal = `${dir}/journal.jsonl`;
+  while (journalSolves(journal) < 2) await new Promise((r) => setTimeout(r, 50));
+  await new Promise((r) => setTimeout(r, 300)); // the 384 × 384 solve is under way
+  assert.ok((await sorProcesses()) > before, "the SOR session runs");
+  child.kill("SIGTERM");
+  const out = await child.output();
+  const stderr = new TextDecoder().decode(out.stderr);
+  assert.equal(out.code, 143, stderr);
+  assert.match(stderr, /interrupted; every finished solve is in/);
+  assert.equal(journalSolves(journal), 2);
+  assert.equal(await sorProcesses(), before, "no solver process is left running");
+  await Deno.remove(dir, { recursive: true });
+});
