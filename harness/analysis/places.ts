@@ -81,14 +81,13 @@ export function placeNorms(
   weights: ArrayLike<number>,
 ): Partial<Record<Place, NormSet>> {
   const out: Partial<Record<Place, NormSet>> = {};
+  // one mask buffer, refilled per place: errorNorms stays the one place the formulas live
+  const mask = new Uint8Array(code.length);
   for (let p = 0; p < PLACES.length; p++) {
-    const mask = new Uint8Array(code.length);
     let any = false;
     for (let k = 0; k < code.length; k++) {
-      if (code[k] === p) {
-        mask[k] = 1;
-        any = true;
-      }
+      mask[k] = code[k] === p ? 1 : 0;
+      any ||= mask[k] === 1;
     }
     if (any) out[PLACES[p]] = errorNorms(values, exact, { weights, mask });
   }

@@ -16,14 +16,12 @@ import type { Solver } from "../solvers/mod.ts";
 import { type PlannedSolve, type RunOptions, runSolves } from "./run.ts";
 
 /** Options of {@link isolateFailures}. */
-export interface IsolationOptions extends Omit<RunOptions, "finished"> {
+export interface IsolationOptions extends RunOptions {
   /**
    * Solve time one study's isolation may take, predicted from the study's own solves on the same
    * grids (default 60 s); variants that do not fit are listed as not tried.
    */
   seconds?: number;
-  /** Solves finished earlier (a resumed campaign's journal). */
-  finished?: RunOptions["finished"];
 }
 
 /** A study whose order failed on its own evidence (not blocked by a precondition). */

@@ -7,6 +7,30 @@ import { CLI_PERMISSIONS } from "../../testing/mod.ts";
 
 const DENO = Deno.execPath();
 
+/** `deno run … cli.ts check` with the slow SOR example on smooth-baseline, one job at a time. */
+function sorCheck(dir: string, grids: string): string[] {
+  return [
+    "run",
+    "--quiet",
+    ...CLI_PERMISSIONS,
+    "cli.ts",
+    "check",
+    "--solvers",
+    "examples/solvers.json",
+    "--solver",
+    "deno-sor",
+    "--cases",
+    "smooth-baseline",
+    "--grids",
+    grids,
+    "--jobs",
+    "1",
+    "--out",
+    dir,
+    "--no-progress",
+  ];
+}
+
 function journalSolves(path: string): number {
   try {
     return Deno.readTextFileSync(path).split("\n").filter((l) => l.includes('"kind":"solve"'))
@@ -20,26 +44,7 @@ Deno.test("an interrupted check keeps its finished solves and --resume completes
   const dir = await Deno.makeTempDir();
   // the SOR example is slow on purpose (work ~ N^1.5): the 256 and 384 grids take seconds, so
   // the interrupt lands while one of them runs
-  const args = [
-    "run",
-    "--quiet",
-    ...CLI_PERMISSIONS,
-    "cli.ts",
-    "check",
-    "--solvers",
-    "examples/solvers.json",
-    "--solver",
-    "deno-sor",
-    "--cases",
-    "smooth-baseline",
-    "--grids",
-    "16,32,256,384",
-    "--jobs",
-    "1",
-    "--out",
-    dir,
-    "--no-progress",
-  ];
+  const args = sorCheck(dir, "16,32,256,384");
   const child = new Deno.Command(DENO, { args, stdout: "piped", stderr: "piped" }).spawn();
   const journal = `${dir}/journal.jsonl`;
   while (journalSolves(journal) < 2) await new Promise((r) => setTimeout(r, 50));
@@ -73,26 +78,7 @@ async function sorProcesses(): Promise<number> {
 Deno.test("SIGTERM ends check at once with 143, ends the solver processes and keeps the journal (issue 12, item 5)", async () => {
   // before, SIGTERM killed the harness at once and left the solver processes running
   const dir = await Deno.makeTempDir();
-  const args = [
-    "run",
-    "--quiet",
-    ...CLI_PERMISSIONS,
-    "cli.ts",
-    "check",
-    "--solvers",
-    "examples/solvers.json",
-    "--solver",
-    "deno-sor",
-    "--cases",
-    "smooth-baseline",
-    "--grids",
-    "16,32,384,512",
-    "--jobs",
-    "1",
-    "--out",
-    dir,
-    "--no-progress",
-  ];
+  const args = sorCheck(dir, "16,32,384,512");
   const before = await sorProcesses();
   const child = new Deno.Command(DENO, { args, stdout: "piped", stderr: "piped" }).spawn();
   const journal = `${dir}/journal.jsonl`;

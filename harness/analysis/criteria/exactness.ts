@@ -73,7 +73,13 @@ export const exactness: Criterion = {
         details,
       }];
     }
-    const where = locateDefect(placeEvidence(context), options.boundaryKinds ?? {}, 99, 0);
+    // Any finite order is too low for an exact scheme: expected order Infinity, tolerance 0.
+    const where = locateDefect(
+      placeEvidence(context),
+      options.boundaryKinds ?? {},
+      Infinity,
+      0,
+    );
     return [{
       criterion: "exactness",
       status: "fail",
