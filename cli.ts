@@ -8,6 +8,8 @@
 import { Command, CommanderError } from "commander";
 import { registerCommands } from "./harness/cli/mod.ts";
 import { exitCodeFor, formatError } from "./harness/cli/exit.ts";
+import { narrowPermissions } from "./harness/cli/permissions.ts";
+import { VERSION } from "./harness/version.ts";
 
 async function main(args: string[]): Promise<number> {
   const program = new Command();
@@ -17,10 +19,17 @@ async function main(args: string[]): Promise<number> {
       "Verification harness for elliptic PDE solvers: manufactured solutions, observed order of " +
         "accuracy, grid convergence index and residual behaviour",
     )
+    .version(`gridproof ${VERSION}`, "-V, --version", "print gridproof's version")
     .exitOverride()
     .showSuggestionAfterError(true)
     // an unknown option or command prints the valid ones
     .showHelpAfterError()
+    // each command gives up the permissions it does not need before it starts
+    .hook("preAction", (_program, action) => {
+      const names: string[] = [];
+      for (let at: Command | null = action; at?.parent; at = at.parent) names.unshift(at.name());
+      narrowPermissions(names.join(" "));
+    })
     .configureOutput({
       writeOut: (s) => Deno.stdout.writeSync(new TextEncoder().encode(s)),
       writeErr: (s) => Deno.stderr.writeSync(new TextEncoder().encode(s)),
