@@ -17,13 +17,14 @@ import type { Solver } from "../solvers/mod.ts";
 import { VERSION } from "../version.ts";
 import {
   JOURNAL_FILE,
+  type JournaledSolve,
   type JournalHeader,
   JournalWriter,
   readJournal,
   repairJournal,
   solveKey,
 } from "./journal.ts";
-import { gridFor, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
+import { gridFor, plannedInputs, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
 import { buildStudies } from "./study.ts";
 import { isolateFailures } from "./isolation.ts";
 import { lockFolder } from "./folder_lock.ts";
@@ -163,7 +164,7 @@ async function campaignIn(
   notes: string[],
 ): Promise<CampaignResult> {
   let journal: JournalWriter | undefined;
-  let finished: Map<string, SolveRecord> | undefined;
+  let finished: Map<string, JournaledSolve> | undefined;
   if (options.outDir !== undefined) {
     const path = `${options.outDir}/${JOURNAL_FILE}`;
     if (options.resume) {
@@ -180,7 +181,8 @@ async function campaignIn(
             `resume with the same options, or choose another --out folder`,
         );
       }
-      finished = new Map(earlier.records.map((r) => [solveKey(r), r]));
+      finished = new Map(earlier.solves.map((s) => [solveKey(s.record), s]));
+      refuseChangedInputs(finished, plan, options.tolerance ?? 1e-10, path);
       const torn = repairJournal(path, earlier);
       if (torn !== null) {
         notes.push(
@@ -282,6 +284,30 @@ async function campaignIn(
   };
   result.summary = summarize(result);
   return result;
+}
+
+/**
+ * Refuses a resume when a journaled solve of the plan was computed from other inputs than the
+ * plan's (a case file edited since, another tolerance, another solver command): its record would
+ * otherwise be reused as if it answered this campaign's question.
+ */
+function refuseChangedInputs(
+  finished: Map<string, JournaledSolve>,
+  plan: PlannedSolve[],
+  tolerance: number,
+  path: string,
+): void {
+  for (const p of plan) {
+    const key = solveKey({ caseId: p.kase.id, solver: p.solver.info.name, nx: p.nx, ny: p.ny });
+    const earlier = finished.get(key);
+    if (earlier?.inputs === undefined || earlier.inputs === plannedInputs(p, tolerance)) continue;
+    throw new RangeError(
+      `${path}: line ${earlier.line} (case ${p.kase.id}, solver ${p.solver.info.name}, ` +
+        `${p.nx}×${p.ny}) was computed from other inputs than this run's (the case text, the ` +
+        `solver's command or the tolerance changed since): resume with the same inputs, or ` +
+        `choose another --out folder`,
+    );
+  }
 }
 
 function header(print: string, options: CampaignOptions): JournalHeader {

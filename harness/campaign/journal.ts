@@ -21,7 +21,39 @@ export interface JournalHeader {
 /** A line per finished solve. */
 export interface JournalEntry {
   kind: "solve";
+  /**
+   * A digest of what determined this solve: the case's formulas and parameters, the solver's
+   * identity and the residual tolerance ({@link solveInputs}). Journals written before it existed
+   * lack it; their solves are trusted on the header's fingerprint alone.
+   */
+  inputs?: string;
   record: SolveRecord;
+}
+
+/** A solve read back from a journal, with the line it came from. */
+export interface JournaledSolve {
+  record: SolveRecord;
+  /** 1-based line in the journal. */
+  line: number;
+  inputs: string | undefined;
+}
+
+/**
+ * The digest of what determines one solve's result, compared on resume so that no record computed
+ * with another case text, solver or tolerance is reused. A 53-bit string hash (cyrb53) of the
+ * JSON of `parts`: collisions between two different setups are not a practical concern here.
+ */
+export function solveInputs(parts: unknown): string {
+  const text = JSON.stringify(parts);
+  let h1 = 0xdeadbeef, h2 = 0x41c6ce57;
+  for (let k = 0; k < text.length; k++) {
+    const c = text.charCodeAt(k);
+    h1 = Math.imul(h1 ^ c, 2654435761);
+    h2 = Math.imul(h2 ^ c, 1597334677);
+  }
+  h1 = Math.imul(h1 ^ (h1 >>> 16), 2246822507) ^ Math.imul(h2 ^ (h2 >>> 13), 3266489909);
+  h2 = Math.imul(h2 ^ (h2 >>> 16), 2246822507) ^ Math.imul(h1 ^ (h1 >>> 13), 3266489909);
+  return (4294967296 * (2097151 & h2) + (h1 >>> 0)).toString(36);
 }
 
 /** The key of a solve within a campaign. */
@@ -46,9 +78,9 @@ export class JournalWriter {
     return writer;
   }
 
-  /** Appends one finished solve. */
-  append(record: SolveRecord): void {
-    this.#write({ kind: "solve", record } satisfies JournalEntry);
+  /** Appends one finished solve with the digest of its inputs ({@link solveInputs}). */
+  append(record: SolveRecord, inputs: string): void {
+    this.#write({ kind: "solve", inputs, record } satisfies JournalEntry);
   }
 
   #write(value: unknown): void {
@@ -78,6 +110,8 @@ export function finiteOrNull(_key: string, value: unknown): unknown {
 export function readJournal(text: string, path: string): {
   header: JournalHeader | undefined;
   records: SolveRecord[];
+  /** The same solves with their line and input digest. */
+  solves: JournaledSolve[];
   /** Bytes of complete lines: a torn last line (an interrupted write) starts here. */
   completeBytes: number;
   /** The torn last line that was dropped, if any. */
@@ -86,6 +120,7 @@ export function readJournal(text: string, path: string): {
   const lines = text.split("\n");
   let header: JournalHeader | undefined;
   const records: SolveRecord[] = [];
+  const solves: JournaledSolve[] = [];
   // a last line without its newline was cut in the middle of a write
   const tornText = text.endsWith("\n") || text === "" ? null : lines[lines.length - 1];
   const torn = tornText !== null && tornText.trim() !== "" ? tornText : null;
@@ -112,12 +147,15 @@ export function readJournal(text: string, path: string): {
     }
     const entry = value as JournalHeader | JournalEntry;
     if (entry.kind === "campaign") header ??= entry;
-    else records.push(entry.record);
+    else {
+      records.push(entry.record);
+      solves.push({ record: entry.record, line: k + 1, inputs: entry.inputs });
+    }
   }
   const completeBytes = new TextEncoder().encode(
     tornText === null ? text : text.slice(0, text.length - tornText.length),
   ).length;
-  return { header, records, completeBytes, torn };
+  return { header, records, solves, completeBytes, torn };
 }
 
 /** What is wrong with a parsed journal line, or null when it is a header or a valid solve entry. */
@@ -132,6 +170,9 @@ function entryProblem(value: unknown): string | null {
   if (v.kind !== "solve") return `has kind ${JSON.stringify(v.kind)}, not "campaign" or "solve"`;
   const r = v.record as Record<string, unknown> | null;
   if (r === null || typeof r !== "object") return "is a solve entry without its record";
+  if (v.inputs !== undefined && typeof v.inputs !== "string") {
+    return "has a solve entry whose inputs digest is not a string";
+  }
   const need: [string, (x: unknown) => boolean, string][] = [
     ["caseId", (x) => typeof x === "string", "a string"],
     ["solver", (x) => typeof x === "string", "a string"],

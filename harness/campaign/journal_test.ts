@@ -24,8 +24,8 @@ Deno.test("the journal keeps every appended solve and survives a torn last line"
   const dir = Deno.makeTempDirSync();
   const path = `${dir}/journal.jsonl`;
   const w = JournalWriter.open(path, { kind: "campaign", fingerprint: "f", startedAt: "now" });
-  w.append(record(8));
-  w.append(record(16));
+  w.append(record(8), "digest");
+  w.append(record(16), "digest");
   w.close();
   // simulate a process killed in the middle of a write
   Deno.writeTextFileSync(path, '{"kind":"solve","rec', { append: true });
@@ -42,13 +42,13 @@ Deno.test("a resumed journal drops a torn last line before appending, so no reco
   const dir = Deno.makeTempDirSync();
   const path = `${dir}/journal.jsonl`;
   const w = JournalWriter.open(path, { kind: "campaign", fingerprint: "f", startedAt: "now" });
-  w.append(record(8));
+  w.append(record(8), "digest");
   w.close();
   Deno.writeTextFileSync(path, '{"kind":"solve","rec', { append: true });
   const first = readJournal(Deno.readTextFileSync(path), path);
   assert.equal(repairJournal(path, first), '{"kind":"solve","rec');
   const again = JournalWriter.open(path);
-  again.append(record(16));
+  again.append(record(16), "digest");
   again.close();
   // a second resume reads both records: before the repair the new record was glued to the torn
   // line and the second read refused the journal

@@ -9,7 +9,7 @@
 import type { CompiledCase } from "../../cases/types.ts";
 import type { SolveRecord } from "../result/types.ts";
 import type { Solver } from "../solvers/mod.ts";
-import { JournalWriter, solveKey } from "./journal.ts";
+import { type JournaledSolve, JournalWriter, solveInputs, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";
 import { errorMap } from "../analysis/mod.ts";
 
@@ -38,8 +38,12 @@ export interface RunOptions {
   tolerance?: number;
   /** Journal to append finished solves to. Default: none. */
   journal?: JournalWriter;
-  /** Solves finished earlier (from a journal), by {@link solveKey}; they are not run again. */
-  finished?: Map<string, SolveRecord>;
+  /**
+   * Solves finished earlier (from a journal), by {@link solveKey}; they are not run again when
+   * their input digest matches the planned solve's ({@link plannedInputs}), and run again when it
+   * does not (a journal without digests is trusted).
+   */
+  finished?: Map<string, JournaledSolve>;
   /** Called after each solve. */
   onProgress?: (event: ProgressEvent) => void;
   /**
@@ -47,6 +51,28 @@ export interface RunOptions {
    * neither recorded nor journaled.
    */
   signal?: AbortSignal;
+}
+
+/**
+ * The digest of what determines a planned solve's result: the case (origin, domain, parameters,
+ * formulas, boundary kinds), the solver's identity and the residual tolerance.
+ */
+export function plannedInputs(p: PlannedSolve, tolerance: number): string {
+  const { kase, solver } = p;
+  const sides = Object.entries(kase.boundary).map(([side, b]) => [side, b.kind, b.alpha, b.beta]);
+  return solveInputs([
+    kase.id,
+    kase.origin,
+    kase.domain,
+    kase.parameters,
+    kase.formulas,
+    sides,
+    solver.info.name,
+    solver.info.scheme,
+    solver.info.layout,
+    solver.info.command ?? null,
+    tolerance,
+  ]);
 }
 
 /** ny for a case on a grid with nx intervals: the case's aspect, at least 2. */
@@ -89,10 +115,12 @@ export async function runSolves(
   plan.forEach((p, index) => {
     const key = solveKey({ caseId: p.kase.id, solver: p.solver.info.name, nx: p.nx, ny: p.ny });
     const earlier = options.finished?.get(key);
-    if (earlier) {
-      records[index] = earlier;
+    if (
+      earlier && (earlier.inputs === undefined || earlier.inputs === plannedInputs(p, tolerance))
+    ) {
+      records[index] = earlier.record;
       done++;
-      options.onProgress?.({ done, total: plan.length, record: earlier, resumed: true });
+      options.onProgress?.({ done, total: plan.length, record: earlier.record, resumed: true });
     }
   });
 
@@ -146,7 +174,7 @@ export async function runSolves(
           }
         }
       }
-      options.journal?.append(record);
+      options.journal?.append(record, plannedInputs(p, tolerance));
       done++;
       options.onProgress?.({ done, total: plan.length, record, resumed: false });
     }

@@ -131,6 +131,55 @@ Deno.test("check: an interrupted campaign keeps its finished solves and resumes 
   await Deno.remove(out, { recursive: true });
 });
 
+Deno.test("check: a resume refuses a journaled solve computed from an edited case file", async () => {
+  // The header's fingerprint names cases by id and origin; only the per-solve input digest sees
+  // that the file's exact solution changed, so without it the stale solves were reused as if
+  // they answered the new case.
+  const out = await Deno.makeTempDir();
+  const file = `${out}/mine.json`;
+  const text = await Deno.readTextFile(
+    new URL("../../cases/library/smooth-baseline.json", import.meta.url),
+  );
+  const json = JSON.parse(text);
+  delete json.$schema;
+  json.id = "mine";
+  await Deno.writeTextFile(file, JSON.stringify(json));
+  const grids = [8, 16, 32];
+  const controller = new AbortController();
+  let seen = 0;
+  await runCampaign([await loadCase(file)], [createReferenceSolver()], {
+    grids,
+    outDir: out,
+    signal: controller.signal,
+    onProgress: () => {
+      if (++seen === 2) controller.abort();
+    },
+  });
+  json.exact = "sin(pi*x)*cos(pi*y/2) + exp(x + y)";
+  await Deno.writeTextFile(file, JSON.stringify(json));
+  await assert.rejects(
+    async () =>
+      runCampaign([await loadCase(file)], [createReferenceSolver()], {
+        grids,
+        outDir: out,
+        resume: true,
+      }),
+    /journal\.jsonl: line 2 \(case mine, solver reference, 8×8\) was computed from other inputs/,
+  );
+  // the unedited file resumes as before
+  json.exact = "sin(pi*x)*cos(pi*y/2) + exp(x - y)";
+  await Deno.writeTextFile(file, JSON.stringify(json));
+  const resumed: boolean[] = [];
+  await runCampaign([await loadCase(file)], [createReferenceSolver()], {
+    grids,
+    outDir: out,
+    resume: true,
+    onProgress: (e) => resumed.push(e.resumed),
+  });
+  assert.deepEqual(resumed, [true, true, false]);
+  await Deno.remove(out, { recursive: true });
+});
+
 Deno.test("check: a case's own order tolerance takes precedence over the campaign's", async () => {
   const kase = await loadCase("smooth-baseline");
   // the same first-order defect as above (order ≈ 1 against 2): it fails at the campaign's
