@@ -35,7 +35,9 @@ export function escapeHtml(text: string): string {
 
 /**
  * Escapes text for Markdown inline content (and table cells): Markdown punctuation gets a
- * backslash, `< > &` become entities so no raw HTML reaches the page, and newlines become spaces.
+ * backslash, `< > &` become entities so no raw HTML reaches the page, newlines and tabs become
+ * spaces, and other control characters (ESC, BEL, NUL …, which a terminal showing the file would
+ * obey) become U+FFFD.
  *
  * @param text Any text from the result.
  * @returns Text that renders literally.
@@ -48,7 +50,9 @@ export function escapeHtml(text: string): string {
  */
 export function escapeMarkdown(text: string): string {
   return String(text)
-    .replace(/[\r\n]+/g, " ")
+    .replace(/[\r\n\t]+/g, " ")
+    // deno-lint-ignore no-control-regex
+    .replace(/[\u0000-\u001f\u007f-\u009f]/g, "\ufffd")
     .replace(/[\\`*_{}[\]|~]/g, (c) => "\\" + c)
     .replace(/[&<>]/g, (c) => HTML[c]);
 }
@@ -73,10 +77,15 @@ export function escapeTerminal(text: string): string {
     .replace(/[\u0000-\u001f\u007f-\u009f]/g, "?");
 }
 
+/** Control characters a CSV cell may not carry (tab and line breaks are data there). */
+// deno-lint-ignore no-control-regex
+const CSV_CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/g;
+
 /**
- * Makes a CSV cell safe to open in a spreadsheet: text starting with `=`, `+`, `-`, `@`, tab or
- * carriage return would be read as a formula, so it gets a leading apostrophe (the usual guard
- * against formula injection); numbers and other text stay as they are.
+ * Makes a CSV cell safe to open in a spreadsheet or a terminal: text starting with `=`, `+`, `-`,
+ * `@`, tab or carriage return would be read as a formula, so it gets a leading apostrophe (the
+ * usual guard against formula injection); control characters other than tab and line breaks
+ * (ESC, BEL, NUL …) become U+FFFD; numbers stay as they are.
  *
  * @example
  * ```ts
@@ -85,5 +94,7 @@ export function escapeTerminal(text: string): string {
  * ```
  */
 export function escapeCsvCell<T>(value: T): T | string {
-  return typeof value === "string" && /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
+  if (typeof value !== "string") return value;
+  const printable = value.replace(CSV_CONTROL, "\ufffd");
+  return /^[=+\-@\t\r]/.test(printable) ? `'${printable}` : printable;
 }
