@@ -15,7 +15,8 @@ export const WHY_GRANTED: Readonly<Record<GrantedPermission, string>> = {
   read: "case files, solver files, saved results and journals, and the program's own modules",
   write: "the output folder (journal, result.json, reports) and `--out` files",
   env: "PATH, to find a solver's command, and NO_COLOR",
-  run: "your solvers, util-linux `setsid` to give each its own process group, and `kill`",
+  run: "your solvers, util-linux `setsid` to give each its own process group, `kill`, and " +
+    "`/bin/sh` with `cat` to list in /proc the processes a solver started",
   sys: "the host name recorded in result.json",
 };
 

@@ -20,6 +20,7 @@ import {
 } from "../protocol/mod.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
 import { describeExit, GroupProcess, within } from "./process.ts";
+import { type EndedProcesses, MARK_VARIABLE } from "./descendants.ts";
 import { resolveProgram } from "./resolve_command.ts";
 import { emptyOutcome, solutionOutcome, stderrGist } from "./outcome.ts";
 import { gridPoints, type LayoutPoints } from "./geometry.ts";
@@ -115,10 +116,25 @@ export function createExternalSolver(
       await session?.close();
     },
     stop(): Promise<void> {
-      runner.killAll();
-      return Promise.resolve();
+      return runner.endAll();
     },
   };
+}
+
+/**
+ * Says which processes the solver left running when it exited (they have been ended), for the
+ * outcome's description; undefined when it left none.
+ */
+function leftoverNote(ended: EndedProcesses): string | undefined {
+  const pids = [...ended.inGroup, ...ended.outside];
+  if (pids.length === 0) return undefined;
+  const which = pids.length === 1 ? `pid ${pids[0]}` : `pids ${pids.join(", ")}`;
+  const escaped = ended.outside.length > 0
+    ? ` (${ended.outside.length} outside its process group)`
+    : "";
+  return `${pids.length === 1 ? "a process" : `${pids.length} processes`} the solver started ` +
+    `${pids.length === 1 ? "was" : "were"} still running after it exited (${which})${escaped}; ` +
+    `${pids.length === 1 ? "it was" : "they were"} ended`;
 }
 
 /** Last line of defence: a bug in the runner becomes a failed outcome, not an exception. */
@@ -182,9 +198,9 @@ class Runner {
 
   constructor(readonly spec: ExternalSolverSpec, readonly baseDir: string) {}
 
-  /** Ends every running process group of this solver now (SIGKILL). */
-  killAll(): void {
-    for (const proc of this.#live) proc.killGroup();
+  /** Ends every running process of this solver now, with all it started (see `GroupProcess.end`). */
+  async endAll(): Promise<void> {
+    await Promise.all([...this.#live].map((proc) => proc.end()));
   }
 
   get env(): Record<string, string> | undefined {
@@ -301,17 +317,31 @@ class Runner {
       return r;
     });
     const finish = async (reason: string): Promise<SolveOutcome> => {
-      proc.killGroup();
+      await proc.end();
       await within(proc.stderrDone, 500);
       await proc.release();
       const tail = proc.stderr.text();
       return emptyOutcome("failed", reason, grid, { seconds: elapsed(), stderrTail: tail });
     };
-    const read = await within(proc.readAll(this.maxReplyBytes), left());
+    // the reply is complete once the solver has exited, even while a process it left holds
+    // stdout open: settle() ends such processes as soon as the solver exits
+    const read = await proc.settle(proc.readAll(this.maxReplyBytes), left());
     if (read === undefined) {
+      const exit = proc.exitStatus;
+      if (!exit) {
+        return await finish(
+          `the solver exceeded its time limit of ${p.limitSeconds} s; its process group ` +
+            `(children included) was killed`,
+        );
+      }
+      const why = (await proc.end()).tracked
+        ? `one that left its process group and dropped ${MARK_VARIABLE} from its environment, ` +
+          `so gridproof could not find it`
+        : `one outside its process group, and without Linux's /proc gridproof cannot find it`;
       return await finish(
-        `the solver exceeded its time limit of ${p.limitSeconds} s; its process group ` +
-          `(children included) was killed`,
+        `the solver ${describeExit(exit)}, but its standard output stayed open until the time ` +
+          `limit of ${p.limitSeconds} s: a process it started holds it, ${why}; its process ` +
+          `group was killed`,
       );
     }
     if (read.kind === "overflow") {
@@ -327,14 +357,19 @@ class Runner {
           `its process group was killed`,
       );
     }
-    const seconds = elapsed();
+    // the solver's time ends with its exit, not with the cleaning up after it
+    const seconds = ((proc.exitTime ?? performance.now()) - started) / 1000;
     // stray children of a finished solver must not outlive the solve
-    proc.killGroup();
+    const leftover = leftoverNote(await proc.end());
     const write = (await within(writing, 1000)) ?? { written: -1 };
     await within(proc.stderrDone, 500);
     await proc.release();
     const tail = proc.stderr.text();
-    const extra = { seconds, stderrTail: tail };
+    const extra = {
+      seconds,
+      stderrTail: tail,
+      ...(leftover ? { description: { leftoverProcesses: leftover } } : {}),
+    };
     const bytes = read.kind === "data" ? read.bytes : new Uint8Array(0);
     const shortWrite = write.written >= 0 && write.written < p.request.byteLength;
     if (!status.success) {
@@ -359,7 +394,7 @@ class Runner {
         extra,
       );
     }
-    return this.judge(new TextDecoder().decode(bytes), p, extra, {});
+    return this.judge(new TextDecoder().decode(bytes), p, extra, extra.description ?? {});
   }
 
   /**
@@ -416,9 +451,9 @@ class Session {
     const wait = Math.min(limitSeconds, MAX_STARTUP_SECONDS) * 1000;
     const line = wrote.error
       ? undefined
-      : await within(proc.readLine(this.runner.maxReplyBytes), wait);
+      : await proc.settle(proc.readLine(this.runner.maxReplyBytes), wait);
     const abandon = async (why: string) => {
-      proc.killGroup();
+      await proc.end();
       await within(proc.stderrDone, 500);
       await proc.release();
       return `the session did not start: ${why}${stderrGist(proc.stderr.text())}`;
@@ -505,7 +540,8 @@ class Session {
     this.runner.pointsMeanwhile(p);
     let line;
     do {
-      line = await within(
+      // settle: a session that exits is done, even while a process it left holds stdout open
+      line = await proc.settle(
         proc.readLine(this.runner.maxReplyBytes, { parse: true }),
         deadline - performance.now(),
       );
@@ -538,8 +574,9 @@ class Session {
       seconds,
       stderrTail: proc.stderr.text(mark),
     }, description);
-    // after a bad reply the conversation may be out of step: start afresh next time
-    if (outcome.status === "failed") await this.#kill();
+    // after a bad reply the conversation may be out of step, and a process that exited after
+    // its reply cannot take the next request: start afresh next time
+    if (outcome.status === "failed" || proc.exitStatus) await this.#kill();
     return outcome;
   }
 
@@ -548,7 +585,7 @@ class Session {
     this.#proc = undefined;
     this.#ready = undefined;
     if (!proc) return;
-    proc.killGroup();
+    await proc.end();
     await within(proc.stderrDone, 500);
     await proc.release();
   }

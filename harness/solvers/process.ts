@@ -1,11 +1,13 @@
 /**
  * A child process in its own session and process group (started through util-linux `setsid`,
  * since Deno.Command cannot detach), so the whole group — children and grandchildren — can be
- * killed at once. Reads stdout with a size limit, keeps the tail of stderr.
+ * killed at once; descendants that leave the group are tracked and ended with it (see
+ * `descendants.ts`). Reads stdout with a size limit, keeps the tail of stderr.
  *
  * @module
  */
 import { LineScanner, type ParsedMessage } from "../protocol/mod.ts";
+import { DescendantWatch, type EndedProcesses, MARK_VARIABLE } from "./descendants.ts";
 
 /** How much of stderr is kept per solve. */
 export const STDERR_TAIL_BYTES = 64 * 1024;
@@ -87,6 +89,8 @@ export class GroupProcess {
   readonly stderr: TailBuffer = new TailBuffer();
   /** Set once the group leader has exited. */
   exitStatus: Deno.CommandStatus | undefined;
+  /** When the group leader exited (`performance.now()`), once it has. */
+  exitTime: number | undefined;
   /** Resolves when stderr is closed (all holders exited). */
   readonly stderrDone: Promise<void>;
 
@@ -101,16 +105,20 @@ export class GroupProcess {
   #held = 0;
   #scanner = new LineScanner();
   #eof = false;
+  #watch: DescendantWatch;
+  #ending: Promise<EndedProcesses> | undefined;
 
-  private constructor(child: Deno.ChildProcess) {
+  private constructor(child: Deno.ChildProcess, mark: string) {
     this.#child = child;
     this.pid = child.pid;
     this.#writer = child.stdin.getWriter();
     this.#reader = child.stdout.getReader({ mode: "byob" });
     this.status = child.status.then((s) => {
       this.exitStatus = s;
+      this.exitTime = performance.now();
       return s;
     });
+    this.#watch = new DescendantWatch(child.pid, mark);
     this.stderrDone = (async () => {
       try {
         for await (const chunk of child.stderr) this.stderr.push(chunk);
@@ -121,7 +129,9 @@ export class GroupProcess {
   }
 
   /**
-   * Starts a process in a new session (its pid is the process group id).
+   * Starts a process in a new session (its pid is the process group id), with a mark of its own
+   * in the environment variable `GRIDPROOF_PROCESS_MARK`, and begins recording its descendants.
+   * Call {@link end} when it is done, or at least {@link release}.
    *
    * @throws Deno errors when `setsid` or `prlimit` cannot be started
    */
@@ -129,15 +139,16 @@ export class GroupProcess {
     const wrapper = options.memoryLimitMiB !== undefined
       ? ["prlimit", `--as=${Math.round(options.memoryLimitMiB * 1024 * 1024)}`, "--"]
       : [];
+    const mark = crypto.randomUUID();
     const child = new Deno.Command("setsid", {
       args: [...wrapper, ...options.argv],
       cwd: options.cwd,
-      env: options.env,
+      env: { ...options.env, [MARK_VARIABLE]: mark },
       stdin: "piped",
       stdout: "piped",
       stderr: "piped",
     }).spawn();
-    return new GroupProcess(child);
+    return new GroupProcess(child, mark);
   }
 
   /**
@@ -263,6 +274,24 @@ export class GroupProcess {
     return result;
   }
 
+  /**
+   * Waits at most `ms` for a read of stdout. When the group leader exits first, whatever it left
+   * behind may hold stdout open for ever, so that is ended ({@link end}): the read then ends
+   * after the last bytes written, and what the leader wrote is read in full.
+   *
+   * @param reading a read started on this process (`readAll`, `readLine`)
+   * @param ms most time to wait
+   * @returns the read, or undefined at the time limit
+   */
+  async settle<T>(reading: Promise<T>, ms: number): Promise<T | undefined> {
+    const deadline = performance.now() + ms;
+    const exited = Symbol("exited");
+    const first = await within(Promise.race([reading, this.status.then(() => exited)]), ms);
+    if (first !== exited) return first as T | undefined;
+    await this.end();
+    return await within(reading, deadline - performance.now());
+  }
+
   /** Sends SIGKILL to the whole process group; a group that is already gone is fine. */
   killGroup(): void {
     try {
@@ -272,8 +301,20 @@ export class GroupProcess {
     }
   }
 
-  /** Releases the pipes after the process ended (or was killed). */
+  /**
+   * Ends the process and everything it started: the process group is killed, and descendants
+   * recorded outside it get SIGTERM, then SIGKILL after half a second. Safe to call again (the
+   * first call's result is returned).
+   *
+   * @returns the processes that were still running and were ended
+   */
+  end(): Promise<EndedProcesses> {
+    return this.#ending ??= this.#watch.end(() => this.killGroup());
+  }
+
+  /** Releases the pipes after the process ended (or was killed); stops recording descendants. */
   async release(): Promise<void> {
+    await this.#watch.stop();
     await this.closeStdin();
     try {
       await this.#reader.cancel();

@@ -100,3 +100,23 @@ Deno.test("readLine() stops at the size limit, and readAll() returns everything 
     await again.release();
   }
 });
+
+Deno.test("settle() gives all the leader wrote once it exits, though a process it left holds stdout open", async () => {
+  // the background `sleep` inherits stdout: the end of stdout comes only once it is ended
+  const proc = GroupProcess.start({
+    argv: ["/bin/sh", "-c", "printf 'the reply'; sleep 300 & echo \"sleep $!\" >&2; exit 0"],
+    cwd: Deno.cwd(),
+  });
+  try {
+    const read = await proc.settle(proc.readAll(1 << 20), 60_000);
+    assert.equal(read?.kind, "data");
+    if (read?.kind === "data") assert.equal(new TextDecoder().decode(read.bytes), "the reply");
+    assert.equal(proc.exitStatus?.code, 0);
+    await proc.stderrDone;
+    const sleep = Number(/sleep (\d+)/.exec(proc.stderr.text())?.[1]);
+    assert.deepEqual(await proc.end(), { tracked: true, inGroup: [sleep], outside: [] });
+  } finally {
+    await proc.end();
+    await proc.release();
+  }
+});

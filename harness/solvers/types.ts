@@ -5,7 +5,7 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import type { SolverInfo } from "../result/types.ts";
+import type { SolverInfo } from "../result/mod.ts";
 import type { ArrayEncoding } from "../protocol/mod.ts";
 
 /** One solve: a case on an nx × ny grid under one scheme. */
@@ -64,7 +64,10 @@ export interface SolveOutcome {
   seconds: number;
   /** Last 64 KiB of the solver's stderr during this solve (external solvers). */
   stderrTail?: string;
-  /** The solver's describe() record, or its reported name, version and notes. */
+  /**
+   * The solver's describe() record, or its reported name, version and notes; for a once solver
+   * that left processes running when it exited, `leftoverProcesses` says which were ended.
+   */
   description?: Record<string, unknown>;
 }
 

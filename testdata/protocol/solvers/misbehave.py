@@ -70,6 +70,24 @@ def once(mode, arg):
         return 0
     request = json.loads(sys.stdin.read())
     source = decode(request["source"])
+    if mode in ("holdstdout", "escape", "escape-scrubbed"):
+        # a good reply, leaving a `sleep 300` behind: holdstdout — in the process group, holding
+        # stdout and stderr open; escape — in a session of its own (setsid), its output elsewhere;
+        # escape-scrubbed — the same with an empty environment, after which the solver waits 1.5 s
+        # (gridproof's only trace of it is its parent, this process, while it lives)
+        if mode == "holdstdout":
+            child = subprocess.Popen(["sleep", "300"])
+        else:
+            child = subprocess.Popen(["/bin/sleep", "300"], start_new_session=True,
+                                     stdin=subprocess.DEVNULL, stdout=subprocess.DEVNULL,
+                                     stderr=subprocess.DEVNULL,
+                                     env={} if mode == "escape-scrubbed" else None)
+        sys.stderr.write("grandchild pid %d\n" % child.pid)
+        sys.stderr.flush()
+        if mode == "escape-scrubbed":
+            time.sleep(1.5)
+        out(solution(request, source))
+        return 0
     if mode == "echo":
         # values = the request's source, re-encoded in the encoding given as ARG
         out(solution(request, source, arg or "numbers", iterations=0, converged=True,
@@ -140,7 +158,8 @@ def once(mode, arg):
 
 
 def session(mode, arg):
-    """Session modes: session (good), session-crash N (exit 5 on request N),
+    """Session modes: session (good), session-crash N (exit 5 on request N), session-crash-held N
+    (the same, leaving a `sleep 300` that holds stdout open),
     session-hang N (hang on request N), session-logs (a log line before each reply),
     session-allocate N (allocate 2 GiB on request N, which fails under a smaller memory limit),
     session-constants (declares that it reads the constant array form). Every reply's notes name
@@ -161,6 +180,11 @@ def session(mode, arg):
         sys.stderr.flush()
         if mode == "session-crash" and count == int(arg):
             sys.stderr.write("crashing on request %d\n" % count)
+            return 5
+        if mode == "session-crash-held" and count == int(arg):
+            # the `sleep 300` left behind holds stdout open: only the crash ends the solve
+            child = subprocess.Popen(["sleep", "300"])
+            sys.stderr.write("grandchild pid %d; crashing on request %d\n" % (child.pid, count))
             return 5
         if mode == "session-hang" and count == int(arg):
             time.sleep(300)
