@@ -2,8 +2,9 @@ import { assertClose } from "../testing/mod.ts";
 import { coefficients, exactU, secondDerivatives, source } from "./bench_problem.ts";
 
 Deno.test("the benchmark's hand-derived u_xx, u_yy and f agree with central finite differences of u", () => {
-  // Common practice (CHECK-VALUES.md): central differences of the exact solution at scattered
-  // points, step 1e-4, truncation error ~1e-8 relative, round-off ~1e-8.
+  // Common practice (docs/check-values.md, "Independent libraries"): central differences of the
+  // exact solution at scattered points, step 1e-4, truncation error ~1e-8 relative, round-off
+  // ~1e-8.
   const h = 1e-4;
   let seed = 5;
   const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;

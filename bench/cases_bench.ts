@@ -7,12 +7,15 @@
  *    written out by hand in TypeScript vs mathjs's own compiled `evaluate` of the simplified tree.
  * 2. Sampling every input of that case (a, b, c, d, e, f and the boundary data) at n = 2048
  *    (4.2 M nodes): row sampler on one thread vs rows split between this thread and a worker.
+ * 3. Building the whole library with the operator check (issue 12, item 13: a·c > 0 and finite
+ *    values on the whole domain) against the same builds with a 2 × 2 check lattice and no
+ *    refinement, which cost next to nothing: the difference is what the check adds.
  *
  * Run: ./node_modules/.bin/deno run --allow-read --allow-env --allow-sys --allow-hrtime bench/cases_bench.ts
  *
  * @module
  */
-import { buildCase, type CaseFile } from "../cases/mod.ts";
+import { buildCase, type CaseFile, libraryFiles } from "../cases/mod.ts";
 import { loadMath, mathjsEvaluator } from "../cases/_mathjs.ts";
 
 const benchCase: CaseFile = {
@@ -160,3 +163,32 @@ console.log(
   }×`,
 );
 console.log(`  hand-written loop, f only     ${median(handGrid).toFixed(3)} s`);
+
+// building the library: the operator check against a nearly free one (every build compiles new
+// functions, so each round is as cold as a command-line run)
+const files = await libraryFiles();
+const buildLibrary = async (operatorCheck?: { intervals: number; refinements: number }) => {
+  const t0 = performance.now();
+  for (const file of files) {
+    await buildCase(file, { origin: "library", ...(operatorCheck ? { operatorCheck } : {}) });
+  }
+  return (performance.now() - t0) / 1000;
+};
+await buildLibrary();
+const withCheck: number[] = [];
+const nearlyFree: number[] = [];
+for (let r = 0; r < 7; r++) {
+  withCheck.push(await buildLibrary());
+  nearlyFree.push(await buildLibrary({ intervals: 2, refinements: 0 }));
+}
+const added = median(withCheck) - median(nearlyFree);
+console.log(
+  `Building the library (${files.length} cases), median of 7 interleaved rounds`,
+);
+console.log(`  with the operator check               ${(median(withCheck) * 1e3).toFixed(0)} ms`);
+console.log(
+  `  2 × 2 check lattice, no refinement    ${(median(nearlyFree) * 1e3).toFixed(0)} ms   ` +
+    `the check adds ${(added * 1e3).toFixed(0)} ms (${
+      (added * 1e3 / files.length).toFixed(1)
+    } ms a case)`,
+);

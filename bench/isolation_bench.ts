@@ -8,7 +8,7 @@
  * @module
  */
 import { loadCase } from "../cases/mod.ts";
-import { runCampaign } from "../harness/campaign/campaign.ts";
+import { runCampaign } from "../harness/campaign/mod.ts";
 import { createZooSolver, type DefectName } from "../testing/zoo/mod.ts";
 
 const ROWS: [DefectName, "vertex" | "cell", string][] = [

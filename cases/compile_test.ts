@@ -8,7 +8,7 @@ import { libraryFiles } from "./load.ts";
 import { mulberry32 } from "../testing/mod.ts";
 
 Deno.test("compiled functions agree with mathjs evaluate to round-off on every built-in case", async (t) => {
-  // Independent library: mathjs's own evaluator (CHECK-VALUES.md, "Independent libraries").
+  // Independent library: mathjs's own evaluator (docs/check-values.md, "Independent libraries").
   const math = await loadMath();
   const random = mulberry32(20240601);
   for (const file of await libraryFiles()) {

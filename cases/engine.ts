@@ -15,7 +15,9 @@ import type { CaseFile, CaseProblem } from "./case_file.ts";
 import { formatProblem } from "./case_file.ts";
 import { compileExpr, compileRowSampler } from "./compile.ts";
 import { deriveTrees, isZeroTree } from "./derive.ts";
+import type { DomainCheckOptions, LatticeFill } from "./domain_check.ts";
 import { type Expr, involvesNoPoint, parseExpression, pointAt, toExpr } from "./expression.ts";
+import { checkOperator } from "./operator_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import type { CaseBoundary, CaseFormulas, CompiledCase, ExpectedOrder } from "./types.ts";
 
@@ -29,6 +31,11 @@ export interface BuildOptions {
   located?: LocatedJson;
   /** Parameter values overriding the file's defaults. Default: none. */
   parameters?: Record<string, number>;
+  /**
+   * The operator check's lattice and refinement budget (`operator_check.ts`). Default: 128
+   * intervals per direction, 8 refinements per function and kind.
+   */
+  operatorCheck?: Pick<DomainCheckOptions, "intervals" | "refinements">;
 }
 
 const SIDES: readonly Side[] = ["west", "east", "south", "north"];
@@ -74,9 +81,11 @@ export function mergeParameters(
 }
 
 /**
- * Parses, checks, derives and compiles a validated case file.
+ * Parses, checks, derives and compiles a validated case file, then checks the operator on the whole
+ * closed domain (`operator_check.ts`: a·c > 0 and finite values, between grid nodes too).
  *
- * @throws {InputError} with every expression problem (file, field, line, column, what and fix)
+ * @throws {InputError} with every expression problem (file, field, line, column, what and fix),
+ *   or every field that is not elliptic or not finite somewhere on the domain (with the point)
  * @throws {RangeError} for unknown parameter overrides
  */
 export async function buildCase(caseFile: CaseFile, options: BuildOptions): Promise<CompiledCase> {
@@ -152,7 +161,24 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       ),
     ]);
   }
-  return assemble(math, caseFile, options.origin, parameters, trees, derived);
+  const { compiled, fill } = assemble(math, caseFile, options.origin, parameters, trees, derived);
+  // named fields, not a spread: a spread would run the lazy `formulas` getter (mathjs simplify)
+  const faults = checkOperator({
+    domain: compiled.domain,
+    coefficients: compiled.coefficients,
+    source: compiled.source,
+    exact: compiled.exact,
+    boundary: compiled.boundary,
+    parameters: compiled.parameters,
+    fill,
+  }, options.operatorCheck);
+  if (faults.length) {
+    throw collected(
+      file,
+      faults.map((f) => problemAt(file, options.located, f.pointer, f.field, f.message)),
+    );
+  }
+  return compiled;
 }
 
 function collected(file: string, problems: CaseProblem[]): InputError {
@@ -169,7 +195,7 @@ function assemble(
   parameters: Record<string, number>,
   trees: Record<string, MathNode>,
   derived: ReturnType<typeof deriveTrees>,
-): CompiledCase {
+): { compiled: CompiledCase; fill: LatticeFill } {
   const expr = (node: MathNode): Expr => toExpr(node, parameters);
   const coefficientExprs = COEFFICIENTS.map((k) => expr(trees[k]));
   const sourceExpr = expr(derived.source);
@@ -283,5 +309,10 @@ function assemble(
     },
   };
   if (caseFile.solver) compiled.solver = { ...caseFile.solver };
-  return compiled;
+  // the check lattices are sampled by the same compiled samplers as the study grids
+  const fill: LatticeFill = (x0, hx, nx, y0, hy, ny, outputs) => {
+    problemSampler.run(x0, hx, nx, y0, hy, 0, ny + 1, outputs.slice(0, 6));
+    exactSampler.run(x0, hx, nx, y0, hy, 0, ny + 1, [outputs[6]]);
+  };
+  return { compiled, fill };
 }

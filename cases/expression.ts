@@ -9,11 +9,18 @@
 import type { MathNode } from "mathjs";
 import type { MathTools } from "./_mathjs.ts";
 import { closestName } from "./_suggest.ts";
+import { scanExpression } from "./_scan_expression.ts";
 
 /** Longest expression text accepted, in characters. */
 export const MAX_EXPRESSION_LENGTH = 2000;
-/** Deepest expression tree accepted (operators and function calls nested). */
+/**
+ * Deepest nesting accepted: of parentheses in the text, and of operators and function calls in the
+ * tree (a sum of n terms counts n − 1).
+ */
 export const MAX_EXPRESSION_DEPTH = 64;
+
+/** Reported when the tree holds an implicit product the token pass did not locate. */
+const IMPLICIT_PRODUCT = "implicit multiplication is not allowed: write every product with *";
 
 /** Whitelisted functions: name → [fewest, most] arguments, and what it computes. */
 export const ALLOWED_FUNCTIONS: Readonly<Record<string, readonly [number, number, string]>> = {
@@ -151,6 +158,7 @@ export function checkTree(
       }
       case "OperatorNode": {
         const fn = String(n.fn);
+        if (n.implicit === true) add(IMPLICIT_PRODUCT);
         if (!Object.hasOwn(OPERATORS, fn)) {
           add(
             `operator "${n.op}" is not allowed; allowed operators: + - * / ^ and unary minus`,
@@ -234,19 +242,39 @@ export function parseExpression(
     };
   }
   if (text.trim() === "") return { problems: [{ message: "expression is empty" }] };
+  const scan = scanExpression(text, {
+    maxDepth: MAX_EXPRESSION_DEPTH,
+    functions: Object.keys(ALLOWED_FUNCTIONS),
+  });
+  // too deep for mathjs's recursive parser: report without parsing
+  if (!scan.parseable) return { problems: scan.problems };
   let node: MathNode;
   try {
     node = math.parse(text);
   } catch (error) {
+    if (error instanceof RangeError) {
+      // the parser ran out of stack: the text is too deeply nested, whatever the counts above say
+      return {
+        problems: [...scan.problems, {
+          message: `expression is nested too deeply to be read (${error.message}); use at most ` +
+            `${MAX_EXPRESSION_DEPTH} levels of parentheses and operators, or split it up`,
+        }],
+      };
+    }
     const char = (error as { char?: unknown }).char;
     const column = typeof char === "number" ? Math.max(1, Math.min(char, text.length + 1)) : 1;
     const reason = (error instanceof Error ? error.message : String(error)).replace(
       / \(char \d+\)$/,
       "",
     );
-    return { problems: [{ message: `syntax error: ${reason}`, column }] };
+    return { problems: [...scan.problems, { message: `syntax error: ${reason}`, column }] };
   }
-  const problems = checkTree(node, text, parameters);
+  const problems = [
+    ...scan.problems,
+    ...checkTree(node, text, parameters).filter((p) =>
+      !(scan.implicitProduct && p.message === IMPLICIT_PRODUCT)
+    ),
+  ];
   return problems.length ? { problems } : { node, problems };
 }
 

@@ -44,16 +44,17 @@ function looksLikePath(s: string): boolean {
 /** Largest case file read (1 MiB): a case is a few kilobytes of JSON. */
 export const MAX_CASE_FILE_BYTES = 1 << 20;
 
+const NOT_REGULAR = "is not a regular file (a device, pipe, socket or process file): case files " +
+  "must be regular files; to read a case from a pipe, save it to a file first and give that " +
+  "file's path (.json)";
+
 async function readText(path: string | URL): Promise<string> {
   try {
     // refuse what is not a regular file (a FIFO would hang, /dev/zero would never end) and
     // anything far larger than a case file, before reading a byte
     const info = await Deno.stat(path);
     if (info.isFile === false && !info.isDirectory) {
-      throw new InputError(
-        "is not a regular file (a device, pipe or socket); give the path of a case file (.json)",
-        { where: String(path) },
-      );
+      throw new InputError(NOT_REGULAR, { where: String(path) });
     }
     if (info.isFile && info.size > MAX_CASE_FILE_BYTES) {
       throw new InputError(
@@ -62,9 +63,14 @@ async function readText(path: string | URL): Promise<string> {
         { where: String(path) },
       );
     }
-    return await Deno.readTextFile(path);
+    // a byte-order mark, as some Windows editors write, is not part of the JSON: drop it
+    return (await Deno.readTextFile(path)).replace(/^\uFEFF/, "");
   } catch (error) {
     if (error instanceof InputError) throw error;
+    // Deno refuses /dev/stdin, /dev/fd/N and /proc files to anything short of --allow-all
+    if (error instanceof Deno.errors.NotCapable) {
+      throw new InputError(NOT_REGULAR, { where: String(path) });
+    }
     if (error instanceof Deno.errors.NotFound) {
       throw new InputError("file not found; check the path", { where: String(path) });
     }

@@ -87,3 +87,37 @@ Deno.test("loadCase() refuses devices, pipes and oversized files before reading 
     await Deno.remove(path);
   });
 });
+
+Deno.test("loadCase() reads a case file that starts with a UTF-8 byte-order mark (issue 12, item 15)", async () => {
+  // before, the mark was reported as a JSON error at 1:1 showing an invisible character
+  const dir = await Deno.makeTempDir();
+  try {
+    const text = await Deno.readTextFile(fixture("good.json"));
+    await Deno.writeTextFile(`${dir}/bom.json`, "\uFEFF" + text);
+    const c = await loadCase(`${dir}/bom.json`);
+    assert.equal(c.id, "user-good");
+    // positions after the mark are those of the file without it
+    await Deno.writeTextFile(`${dir}/bad.json`, "\uFEFF" + text.replace('"x0": 0', '"x0": 2'));
+    const [check] = await checkCaseFiles([`${dir}/bad.json`]);
+    assert.match(check.problems.join("\n"), /bad\.json:7:13: domain: x0 must be less than x1/);
+  } finally {
+    await Deno.remove(dir, { recursive: true });
+  }
+});
+
+Deno.test("loadCase() says a case must be a regular file when given /dev/stdin (issue 12, item 15)", async () => {
+  // before: 'cannot read the file: Requires all access to "/dev/stdin", run again with the
+  // --allow-all flag', a permission flag gridproof never needs
+  for (const path of ["/dev/stdin", "/dev/fd/0"]) {
+    await assert.rejects(loadCase(path), (e: InputError) => {
+      assert.ok(e instanceof InputError);
+      assert.equal(e.where, path);
+      assert.match(
+        e.message,
+        /is not a regular file .*case files must be regular files; to read a case from a pipe, save it to a file first/,
+      );
+      assert.doesNotMatch(e.message, /allow-all/);
+      return true;
+    });
+  }
+});

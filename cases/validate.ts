@@ -167,6 +167,53 @@ const LAYOUT_OVERRIDE = /^\/expected\/[^/]+\/layouts\/[^/]+$/;
 
 const RESERVED = new Set(["x", "y", "pi", "e", ...Object.keys(ALLOWED_FUNCTIONS)]);
 
+/** Largest |coordinate| of a domain corner: beyond it the grid spacing loses its digits. */
+export const MAX_DOMAIN_COORDINATE = 1e6;
+/** Smallest width (and height) of a domain, relative to max(1, |x0|, |x1|) along that side. */
+export const MIN_DOMAIN_WIDTH = 1e-6;
+
+/**
+ * The domain's own problems, as [JSON pointer, message]: corners finite and within
+ * ±{@link MAX_DOMAIN_COORDINATE}, x0 < x1 and y0 < y1, and each side at least
+ * {@link MIN_DOMAIN_WIDTH} · max(1, |lower|, |upper|) long, so that a spacing of 1/n of it is
+ * far above the rounding of the coordinates.
+ */
+function domainProblems(domain: CaseFile["domain"]): [string, string][] {
+  const problems: [string, string][] = [];
+  const fix = "shift and scale the case to a domain near the origin, e.g. [0, 1] × [0, 1]";
+  let bounded = true;
+  for (const key of ["x0", "x1", "y0", "y1"] as const) {
+    const v = domain[key];
+    if (!Number.isFinite(v) || Math.abs(v) > MAX_DOMAIN_COORDINATE) {
+      bounded = false;
+      problems.push([
+        `/domain/${key}`,
+        `${key} = ${v} is outside [-${MAX_DOMAIN_COORDINATE}, ${MAX_DOMAIN_COORDINATE}]: ` +
+        `coordinates that large leave too few digits for the grid spacing; ${fix}`,
+      ]);
+    }
+  }
+  if (!bounded) return problems;
+  for (const [lo, hi] of [["x0", "x1"], ["y0", "y1"]] as const) {
+    const width = domain[hi] - domain[lo];
+    const least = MIN_DOMAIN_WIDTH * Math.max(1, Math.abs(domain[lo]), Math.abs(domain[hi]));
+    if (!(domain[lo] < domain[hi])) {
+      problems.push([
+        "/domain",
+        `${lo} must be less than ${hi}, found ${lo} = ${domain[lo]}, ${hi} = ${domain[hi]}`,
+      ]);
+    } else if (width < least) {
+      problems.push([
+        "/domain",
+        `${hi} − ${lo} = ${width.toPrecision(3)} is less than ${MIN_DOMAIN_WIDTH} · max(1, ` +
+        `|${lo}|, |${hi}|) = ${least.toPrecision(3)}: the grid spacing would be lost in the ` +
+        `rounding of the coordinates; ${fix}`,
+      ]);
+    }
+  }
+  return problems;
+}
+
 function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[] {
   const problems: CaseProblem[] = [];
   const push = (pointer: string, message: string) => {
@@ -178,12 +225,7 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
       message,
     });
   };
-  if (!(c.domain.x0 < c.domain.x1)) {
-    push("/domain", `x0 must be less than x1, found x0 = ${c.domain.x0}, x1 = ${c.domain.x1}`);
-  }
-  if (!(c.domain.y0 < c.domain.y1)) {
-    push("/domain", `y0 must be less than y1, found y0 = ${c.domain.y0}, y1 = ${c.domain.y1}`);
-  }
+  for (const [pointer, message] of domainProblems(c.domain)) push(pointer, message);
   // The reference solver's advice names components of its registries: refuse an unknown name at
   // the door, before any solve, with the valid ones.
   const advice = c.solver;

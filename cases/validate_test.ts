@@ -131,3 +131,37 @@ Deno.test("validateCaseText() refuses reference-solver advice with unknown names
   assert.match(text, /solver\.smoother: unknown smoother "line-z": use one of .*line-y/);
   assert.match(text, /solver\.cycle: unknown cycle "Z": use one of V, W, F, fmg/);
 });
+
+Deno.test("validateCaseText() checks the domain itself and names it (issue 12, item 15)", async (t) => {
+  // before, a domain of ±1e308 passed and sampling blamed the source term: its width overflows
+  const messages = (domain: Record<string, number | string>) => {
+    const text = good.replace(/"domain": \{[^}]*\}/, `"domain": ${JSON.stringify(domain)}`);
+    const { problems, value } = validateCaseText(text, "d.json");
+    assert.equal(value, undefined);
+    return problems.map(formatProblem).join("\n");
+  };
+  await t.step("corners of ±1e308 (x1 − x0 overflows)", () => {
+    const text = messages({ x0: -1e308, x1: 1e308, y0: 0, y1: 1 });
+    assert.match(
+      text,
+      /^d\.json:\d+:\d+: domain\.x0: x0 = -1e\+308 is outside \[-1000000, 1000000\]: .*shift and scale the case to a domain near the origin/m,
+    );
+    assert.match(text, /domain\.x1: x1 = 1e\+308 is outside/);
+  });
+  await t.step("a corner beyond the number range (1e400 reads as Infinity)", () => {
+    const text = good.replace(/"y1": 1\b/, '"y1": 1e400');
+    assert.match(
+      validateCaseText(text, "d.json").problems.map(formatProblem).join("\n"),
+      /domain\.y1/,
+    );
+  });
+  await t.step("a side too short for its coordinates", () => {
+    assert.match(
+      messages({ x0: 1000, x1: 1000.0001, y0: 0, y1: 1 }),
+      /domain: x1 − x0 = 0\.000100 is less than 0\.000001 · max\(1, \|x0\|, \|x1\|\) = 0\.00100: the grid spacing would be lost/,
+    );
+  });
+  await t.step("x0 < x1 as before", () => {
+    assert.match(messages({ x0: 1, x1: 0, y0: 0, y1: 1 }), /domain: x0 must be less than x1/);
+  });
+});

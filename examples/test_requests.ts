@@ -21,8 +21,8 @@ export interface Exact {
 
 /**
  * u = 1 + x + 2y + x² − xy + y²/2. Central differences and the ghost-node formulas are exact for
- * quadratics (derived: CHECK-VALUES.md, "Exact facts of central differences"), so a vertex-centred
- * solver of the reference scheme reproduces it at the nodes to round-off.
+ * quadratics (derived: docs/check-values.md, "Exact facts of central differences"), so a
+ * vertex-centred solver of the reference scheme reproduces it at the nodes to round-off.
  */
 export const QUADRATIC: Exact = {
   u: (x, y) => 1 + x + 2 * y + x * x - x * y + 0.5 * y * y,

@@ -17,7 +17,8 @@ const COMMAND = [Deno.execPath(), "run", "--no-lock", "--quiet", "main.ts"];
 
 Deno.test("deno-sor reproduces a quadratic exact solution to round-off with every boundary kind", async (t) => {
   // Source: derived — central differences and the ghost-node formulas are exact for quadratics
-  // (CHECK-VALUES.md), so the discrete solution equals u at the nodes up to the solver tolerance.
+  // (docs/check-values.md, "Exact facts of central differences"), so the discrete solution equals
+  // u at the nodes up to the solver tolerance.
   for (const [mix, sides] of Object.entries(MIXES)) {
     for (const encoding of ["numbers", "base64"] as const) {
       await t.step(`${mix}, ${encoding}`, async () => {

@@ -91,7 +91,8 @@ Deno.test({
   ignore: NO_SCIPY,
   fn: async (t) => {
     // Source: common practice / derived — a second-order scheme's max error falls by 4 per halving
-    // of h in the asymptotic range (CHECK-VALUES.md, Salari & Knupp; Roache); tolerance ±0.1.
+    // of h in the asymptotic range (docs/check-values.md, "Manufactured solutions and order of
+    // accuracy": Salari & Knupp; Roache); tolerance ±0.1.
     for (const mix of Object.keys(MIXES)) {
       await t.step(mix, async () => {
         const [p1, p2] = await orders(["--layout", "cell"], "cell", mix, 12);

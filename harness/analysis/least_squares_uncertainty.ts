@@ -37,7 +37,8 @@ export interface LeastSquaresResult {
  * after Eça & Hoekstra, "A procedure for the estimation of the numerical uncertainty of CFD
  * calculations based on grid refinement studies", J. Comput. Phys. 262:104–130, 2014.
  *
- * Published in outline (CHECK-VALUES.md): fits of φ_i = φ0 + α h_i^p (p free), φ0 + α h_i,
+ * Published in outline (docs/check-values.md, "Eça and Hoekstra (2014): least-squares
+ * uncertainty"): fits of φ_i = φ0 + α h_i^p (p free), φ0 + α h_i,
  * φ0 + α h_i², φ0 + α1 h_i + α2 h_i², each unweighted and weighted, the one with the smaller
  * standard deviation used; Fs = 1.25 for well-behaved data and 3 otherwise; data range
  * Δ_M = (φ_max − φ_min)/(n − 1); reduces to the GCI for clean data.

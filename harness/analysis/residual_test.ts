@@ -50,7 +50,8 @@ Deno.test("residualMetrics() gives the factors of a geometric history exactly", 
 });
 
 Deno.test("residualMetrics() finds the spectral radius of weighted Jacobi", () => {
-  // derived (CHECK-VALUES.md): weighted Jacobi multiplies mode k by 1 − 2ω·sin²(kπh/2); with
+  // derived (docs/check-values.md, "Exact facts of central differences"): weighted Jacobi
+  // multiplies mode k by 1 − 2ω·sin²(kπh/2); with
   // ω = 2/3 the slowest mode k = 1 dominates the asymptotic factor
   const n = 16;
   const m = residualMetrics(jacobiHistory(n, 2 / 3, { iterations: 600 }));

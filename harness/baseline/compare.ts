@@ -10,8 +10,8 @@ import type {
   StudyRecord,
   Verdict,
   VerdictStatus,
-} from "../result/types.ts";
-import { worstStatus } from "../result/severity.ts";
+} from "../result/mod.ts";
+import { worstStatus } from "../result/mod.ts";
 
 /** Options of {@link compareWithBaseline}; every field has a default. */
 export interface BaselineOptions {

@@ -1,6 +1,6 @@
 import assert from "node:assert/strict";
 import { compareWithBaseline } from "./compare.ts";
-import type { CampaignResult, Verdict } from "../result/types.ts";
+import type { CampaignResult, Verdict } from "../result/mod.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 
 function clone<T>(x: T): T {

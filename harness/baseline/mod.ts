@@ -6,7 +6,7 @@
  * @example
  * ```ts ignore
  * import { compareWithBaseline } from "./mod.ts";
- * import { readResult } from "../result/read.ts";
+ * import { readResult } from "../result/mod.ts";
  * const verdicts = compareWithBaseline(current, await readResult("release-1.4.json"));
  * const regressions = verdicts.filter((v) => v.status === "fail");
  * ```

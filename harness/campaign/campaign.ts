@@ -5,14 +5,8 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import type {
-  CampaignResult,
-  CaseInfo,
-  SolveRecord,
-  StudyRecord,
-  Verdict,
-} from "../result/types.ts";
-import { RESULT_FORMAT, RESULT_VERSION } from "../result/types.ts";
+import type { CampaignResult, CaseInfo, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
+import { RESULT_FORMAT, RESULT_VERSION } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { VERSION } from "../version.ts";
 import {

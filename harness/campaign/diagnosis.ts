@@ -9,7 +9,7 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import type { SideName, StudyRecord } from "../result/types.ts";
+import type { SideName, StudyRecord } from "../result/mod.ts";
 
 /** One ingredient of a case, in the trade's words. */
 interface Ingredient {

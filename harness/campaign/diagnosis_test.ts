@@ -1,6 +1,6 @@
 import assert from "node:assert/strict";
 import { loadCase } from "../../cases/mod.ts";
-import type { StudyRecord, VerdictStatus } from "../result/types.ts";
+import type { StudyRecord, VerdictStatus } from "../result/mod.ts";
 import { diagnoseAcrossCases, ingredients } from "./diagnosis.ts";
 
 /** A study whose only verdict is an order verdict with the given status. */

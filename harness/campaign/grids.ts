@@ -5,6 +5,7 @@
  *
  * @module
  */
+import { MAX_NODES } from "../../cases/mod.ts";
 
 /** How a campaign chooses its grids. */
 export interface GridSpec {
@@ -21,8 +22,9 @@ export interface GridSpec {
 /**
  * Returns the grid sequence (interval counts along x), coarsest first.
  *
- * @throws {RangeError} when a count is below 2, repeated, the ratio is below 1.1 or rounding
- * makes two successive grids equal
+ * @throws {RangeError} when a count is below 2, repeated, the ratio is below 1.1, rounding
+ * makes two successive grids equal, or a grid of the sequence is beyond the largest sampled grid
+ * (`MAX_NODES` nodes on a square)
  * @example
  * ```ts
  * import { gridSequence } from "./grids.ts";
@@ -64,6 +66,21 @@ export function gridSequence(spec: GridSpec = {}): number[] {
   const grids: number[] = [];
   for (let k = 0; k < levels; k++) {
     const n = Math.round(coarsest * ratio ** k);
+    // stop at the first grid too large to sample (a square one), before building the rest
+    if ((n + 1) ** 2 > MAX_NODES) {
+      const fix = k === 0
+        ? "use a smaller coarsest grid"
+        : k === 1
+        ? "use a smaller coarsest grid or ratio"
+        : `use at most ${k} levels${
+          k <= 12 ? ` (grids ${grids.join(", ")})` : ""
+        }, or a smaller ratio or coarsest grid`;
+      throw new RangeError(
+        `${levels} levels with ratio ${ratio} from ${coarsest}: grid ${k + 1} would have ${n} ` +
+          `intervals along x, more than the largest grid (${MAX_NODES} nodes, ` +
+          `${Math.floor(Math.sqrt(MAX_NODES)) - 1} intervals a side); ${fix}`,
+      );
+    }
     if (grids.length > 0 && n <= grids[grids.length - 1]) {
       throw new RangeError(
         `ratio ${ratio} from ${coarsest} rounds two grids to the same count ${n}: start from a finer coarsest grid`,

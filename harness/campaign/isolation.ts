@@ -11,7 +11,7 @@
 import { type CaseVariant, caseVariants, expectationFor } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { orderTrend, pairwiseOrders } from "../analysis/mod.ts";
-import type { IsolationRecord, SolveRecord, StudyRecord } from "../result/types.ts";
+import type { IsolationRecord, SolveRecord, StudyRecord } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { type PlannedSolve, type RunOptions, runSolves } from "./run.ts";
 

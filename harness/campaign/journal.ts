@@ -5,7 +5,7 @@
  *
  * @module
  */
-import type { SolveRecord } from "../result/types.ts";
+import type { SolveRecord } from "../result/mod.ts";
 
 /** File name of the journal inside the output folder. */
 export const JOURNAL_FILE = "journal.jsonl";

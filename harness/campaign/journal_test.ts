@@ -1,5 +1,5 @@
 import assert from "node:assert/strict";
-import type { SolveRecord } from "../result/types.ts";
+import type { SolveRecord } from "../result/mod.ts";
 import { JournalWriter, readJournal, repairJournal, solveKey } from "./journal.ts";
 
 function record(nx: number): SolveRecord {

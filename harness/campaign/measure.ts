@@ -16,8 +16,8 @@ import {
   residualMetrics,
   type SideData,
 } from "../analysis/mod.ts";
-import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/types.ts";
-import { PLACES } from "../result/types.ts";
+import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/mod.ts";
+import { PLACES } from "../result/mod.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
 import { discreteQuantities } from "./quantities.ts";
 

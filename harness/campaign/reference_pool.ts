@@ -7,7 +7,7 @@
  */
 import type { SolveOptions } from "../../reference-solver/mod.ts";
 import { emptyOutcome, type SolveOutcome, type Solver, type SolveTask } from "../solvers/mod.ts";
-import type { SolverInfo } from "../result/types.ts";
+import type { SolverInfo } from "../result/mod.ts";
 
 /** A task sent to a worker: the case by reference (the worker compiles it itself). */
 export interface WorkerRequest {

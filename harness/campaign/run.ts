@@ -7,7 +7,7 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import type { SolveRecord } from "../result/types.ts";
+import type { SolveRecord } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { type JournaledSolve, JournalWriter, solveInputs, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";

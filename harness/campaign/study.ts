@@ -11,7 +11,7 @@
 import { expectationFor } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { buildStudy, pairwiseOrders } from "../analysis/mod.ts";
-import type { SideName, SolveRecord, StudyRecord, Verdict } from "../result/types.ts";
+import type { SideName, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { diagnoseAcrossCases } from "./diagnosis.ts";
 import { exactQuantities, QUANTITIES } from "./quantities.ts";

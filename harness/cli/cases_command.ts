@@ -14,7 +14,7 @@ import {
   libraryFiles,
   loadCase,
 } from "../../cases/mod.ts";
-import type { SetExitCode } from "./mod.ts";
+import type { SetExitCode } from "./exit.ts";
 import { parseParameterFlags } from "./solve_command.ts";
 
 const SHORT = { dirichlet: "D", neumann: "N", robin: "R" } as const;

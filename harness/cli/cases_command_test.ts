@@ -100,14 +100,16 @@ Deno.test("gridproof cases check: import, evaluate, parse, createUnit and config
 });
 
 Deno.test("gridproof cases check: a non-elliptic coefficient names the point and the values", async () => {
+  // a = x − 0.5 is smallest at x = 0, a point of the check grid (cases/operator_check.ts)
   assertBadInput(await runCli(["cases", "check", fixture("not-elliptic.json")]), [
-    /not elliptic at node \(i=0, j=0\) at \(x, y\) = \(0, 0\): a = -0\.5, c = 1, a·c = -0\.5/,
+    /not-elliptic\.json:\d+:\d+: coefficients\.a: a = -0\.5 at \(x, y\) = \(0, 0\), a point of the 129×129 check grid; the operator must be elliptic \(a·c > 0\)/,
+    /make a positive on the whole domain, including between grid nodes/,
   ]);
 });
 
 Deno.test("gridproof cases check: infinity on the grid names the point and field", async () => {
   assertBadInput(await runCli(["cases", "check", fixture("not-finite.json")]), [
-    /coefficients\.e is -Infinity at node \(i=0, j=0\) at \(x, y\) = \(0, 0\) on the 8×8 grid/,
+    /not-finite\.json:\d+:\d+: coefficients\.e: e = -Infinity at \(x, y\) = \(0, 0\), a point of the 129×129 check grid; make e finite/,
   ]);
 });
 
@@ -136,4 +138,49 @@ Deno.test("gridproof cases show prints a case title's control characters as '?' 
   assert.doesNotMatch(run.stdout, /[\u0000-\u0009\u000b-\u001f\u007f]/);
   assert.match(run.stdout, /plate\?\[2J\? with a bell/);
   await Deno.remove(path);
+});
+
+Deno.test("gridproof cases show and check refuse /dev/stdin: case files must be regular files (issue 12, item 15)", async () => {
+  // before: "Requires all access to "/dev/stdin", run again with the --allow-all flag"
+  for (const args of [["cases", "show", "/dev/stdin"], ["cases", "check", "/dev/stdin"]]) {
+    const run = await runCli(args);
+    assertBadInput(run, [
+      /\/dev\/stdin: is not a regular file .*to read a case from a pipe, save it to a file first/,
+    ]);
+    assert.doesNotMatch(run.stderr, /allow-all/);
+  }
+});
+
+Deno.test("gridproof cases check accepts a byte-order mark and refuses deep nesting and undocumented syntax (issue 12, items 15 and 16)", async () => {
+  const dir = await Deno.makeTempDir();
+  try {
+    const good = await Deno.readTextFile(fixture("good.json"));
+    const doc = JSON.parse(good);
+    await Deno.writeTextFile(`${dir}/bom.json`, "\uFEFF" + good);
+    const bom = await runCli(["cases", "check", `${dir}/bom.json`]);
+    assert.equal(bom.code, 0, bom.stderr);
+    assert.match(bom.stdout, /ok: .*bom\.json/);
+    const variants: [string, string, RegExp][] = [
+      [
+        "deep.json",
+        "(".repeat(500) + "x" + ")".repeat(500),
+        /deep\.json:\d+:\d+: exact: column 65 of the expression: parentheses are nested deeper than 64 levels/,
+      ],
+      [
+        "implicit.json",
+        "sin(x)(y) + 2x",
+        /implicit\.json:\d+:\d+: exact: column 7 of the expression: implicit multiplication "sin\(x\)\(y\)" is not allowed: write sin\(x\)\*\(y\)/,
+      ],
+      ["percent.json", "x%", /percent\.json:\d+:\d+: exact: column 2 .*"%" is not allowed/],
+      ["comment.json", "x # y", /comment\.json:\d+:\d+: exact: column 3 .*"#" is not allowed/],
+    ];
+    for (const [name, exact, pattern] of variants) {
+      await Deno.writeTextFile(`${dir}/${name}`, JSON.stringify({ ...doc, exact }, null, 2));
+      const run = await runCli(["cases", "check", `${dir}/${name}`]);
+      assertBadInput(run, [pattern]);
+      assert.doesNotMatch(run.stderr, /call stack/);
+    }
+  } finally {
+    await Deno.remove(dir, { recursive: true });
+  }
 });

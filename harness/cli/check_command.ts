@@ -16,16 +16,24 @@ import {
 } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { compareWithBaseline } from "../baseline/mod.ts";
-import { allVerdicts, runCampaign, summarize } from "../campaign/campaign.ts";
-import { gridSequence } from "../campaign/grids.ts";
-import { createPooledReferenceSolver } from "../campaign/reference_pool.ts";
-import type { ProgressEvent } from "../campaign/run.ts";
-import { readResult } from "../result/read.ts";
-import type { CampaignResult } from "../result/types.ts";
-import { createExternalSolver, createReferenceSolver, loadSolverFile } from "../solvers/mod.ts";
+import {
+  allVerdicts,
+  createPooledReferenceSolver,
+  gridSequence,
+  type ProgressEvent,
+  runCampaign,
+  summarize,
+} from "../campaign/mod.ts";
+import { type CampaignResult, readResult } from "../result/mod.ts";
+import {
+  createExternalSolver,
+  createReferenceSolver,
+  loadSolverFile,
+  resolveProgram,
+} from "../solvers/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { InputError } from "./errors.ts";
-import type { SetExitCode } from "./mod.ts";
+import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
 import { escapeTerminal, rendererFor } from "../report/mod.ts";
 import {
@@ -82,7 +90,10 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
     .option("--case-file <files...>", "case files of your own (JSON); may be repeated")
     .option("--grids <list>", "interval counts, e.g. 16,32,64,128 (default: each case's own grids)")
     .option("--ratio <r>", "refinement ratio of a geometric grid sequence, ≥ 1.1 (e.g. 1.5)")
-    .option("--levels <k>", "number of grids of the geometric sequence (default 5)")
+    .option(
+      "--levels <k>",
+      "number of grids of the geometric sequence (default 5; the finest must fit 2^27 nodes)",
+    )
     .option("--coarsest <n>", "coarsest grid of the geometric sequence (default 16)")
     .option("--solvers <file>", "solver file naming external solvers to run beside the reference")
     .option(
@@ -143,14 +154,21 @@ export async function selectCases(
   const cases: CompiledCase[] = [];
   if (flags.cases !== undefined) {
     const known = libraryIds();
-    for (const id of flags.cases.split(",").map((s) => s.trim()).filter((s) => s !== "")) {
+    const ids = flags.cases.split(",").map((s) => s.trim()).filter((s) => s !== "");
+    // the whole list is checked before any case is compiled
+    ids.forEach((id, k) => {
+      if (ids.indexOf(id) < k) {
+        throw new InputError(`case ${id} is named twice in --cases; name each case once`, {
+          where: "--cases",
+        });
+      }
       if (!known.includes(id)) {
         throw new InputError(`unknown case "${id}": valid ids are ${known.join(", ")}`, {
           where: "--cases",
         });
       }
-      cases.push(await loadCase(id));
-    }
+    });
+    for (const id of ids) cases.push(await loadCase(id));
   }
   if (flags.caseFile !== undefined) cases.push(...await loadCaseFiles(flags.caseFile));
   if (flags.cases === undefined && flags.caseFile === undefined) cases.push(...await loadLibrary());
@@ -185,24 +203,39 @@ export async function selectSolvers(
     : createReferenceSolver({ scheme, solveOptions: { scheme: { upwind: !!flags.upwind } } });
   reference.info.scheme = scheme;
   const all: Solver[] = [reference];
-  if (flags.solvers !== undefined) {
-    const specs = await loadSolverFile(flags.solvers);
-    for (const spec of specs) {
-      all.push(createExternalSolver(spec, { solverFileDir: spec.solverFileDir }));
-    }
+  const specs = flags.solvers === undefined ? [] : await loadSolverFile(flags.solvers);
+  for (const spec of specs) {
+    all.push(createExternalSolver(spec, { solverFileDir: spec.solverFileDir }));
   }
-  if (flags.solver === undefined) return all;
-  const wanted = flags.solver.split(",").map((s) => s.trim()).filter((s) => s !== "");
-  const names = all.map((s) => s.info.name);
-  for (const name of wanted) {
-    if (!names.includes(name)) {
+  let chosen = all;
+  if (flags.solver !== undefined) {
+    const wanted = flags.solver.split(",").map((s) => s.trim()).filter((s) => s !== "");
+    const names = all.map((s) => s.info.name);
+    for (const name of wanted) {
+      if (!names.includes(name)) {
+        await Promise.all(all.map((s) => s.close()));
+        throw new InputError(`unknown solver "${name}": valid names are ${names.join(", ")}`, {
+          where: "--solver",
+        });
+      }
+    }
+    chosen = all.filter((s) => wanted.includes(s.info.name));
+  }
+  // a chosen solver whose program cannot start (missing, not executable, a script whose #! line
+  // names a missing interpreter) is bad input: refused before any work, not one failure per solve
+  for (const [index, spec] of specs.entries()) {
+    if (!chosen.some((s) => s.info.name === spec.name)) continue;
+    const found = await resolveProgram(spec.command[0], {
+      baseDir: spec.solverFileDir,
+      path: spec.env?.PATH,
+    });
+    if (!found.ok) {
       await Promise.all(all.map((s) => s.close()));
-      throw new InputError(`unknown solver "${name}": valid names are ${names.join(", ")}`, {
-        where: "--solver",
+      throw new InputError(`solvers[${index}] ("${spec.name}"): ${found.reason}`, {
+        where: flags.solvers,
       });
     }
   }
-  const chosen = all.filter((s) => wanted.includes(s.info.name));
   await Promise.all(all.filter((s) => !chosen.includes(s)).map((s) => s.close()));
   return chosen;
 }

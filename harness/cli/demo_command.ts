@@ -11,11 +11,10 @@
 import { fileURLToPath } from "node:url";
 import type { Command } from "commander";
 import { loadLibrary } from "../../cases/mod.ts";
-import { runCampaign } from "../campaign/campaign.ts";
-import { createPooledReferenceSolver } from "../campaign/reference_pool.ts";
-import type { CampaignResult } from "../result/types.ts";
+import { createPooledReferenceSolver, runCampaign } from "../campaign/mod.ts";
+import type { CampaignResult } from "../result/mod.ts";
 import { createExternalSolver, loadSolverFile, type Solver } from "../solvers/mod.ts";
-import type { SetExitCode } from "./mod.ts";
+import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
 import { environmentRecord, parsePositive, progressPrinter, writeFileWhole } from "./shared.ts";
 

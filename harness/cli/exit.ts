@@ -1,10 +1,17 @@
 /**
- * Maps errors to messages and exit codes: bad input (InputError, RangeError) → 2 with the message only; anything else is a
- * bug in gridproof → 3 with the stack, so it can be reported.
+ * Exit codes of the command line: the callback type through which a command raises the code, and
+ * the mapping of errors to messages and codes: bad input (InputError, RangeError) → 2 with the
+ * message only; anything else is a bug in gridproof → 3 with the stack, so it can be reported.
+ *
+ * The command files and `mod.ts` both take {@link SetExitCode} from here, so no command imports
+ * the `mod.ts` that imports it.
  *
  * @module
  */
 import { InputError } from "./errors.ts";
+
+/** Raises the process exit code to at least `code`. */
+export type SetExitCode = (code: number) => void;
 
 /** The exit code for an error that escaped a command. */
 export function exitCodeFor(error: unknown): number {

@@ -12,9 +12,9 @@ import { registerCheckCommand } from "./check_command.ts";
 import { registerDemoCommand } from "./demo_command.ts";
 import { registerRefineCommand } from "./refine_command.ts";
 import { registerProbeCommand } from "./probe_command.ts";
+import type { SetExitCode } from "./exit.ts";
 
-/** Raises the process exit code to at least `code`. */
-export type SetExitCode = (code: number) => void;
+export type { SetExitCode } from "./exit.ts";
 
 /** Registers every command on the program. */
 export function registerCommands(program: Command, setExitCode: SetExitCode): void {

@@ -16,7 +16,7 @@ import {
   probeSolver,
 } from "../solvers/mod.ts";
 import { InputError } from "./errors.ts";
-import type { SetExitCode } from "./mod.ts";
+import type { SetExitCode } from "./exit.ts";
 
 /** The flags of `gridproof probe` as commander parses them (all text). */
 export interface ProbeFlags {

@@ -21,9 +21,9 @@ import {
 } from "../analysis/mod.ts";
 import { type RefineConvergence, refineConvergence } from "../analysis/refine_convergence.ts";
 import { refineSafetyFactor, type SafetyFactorBasis } from "../analysis/refine_safety_factor.ts";
-import type { QuantityRecord } from "../result/types.ts";
+import type { QuantityRecord } from "../result/mod.ts";
 import { InputError } from "./errors.ts";
-import type { SetExitCode } from "./mod.ts";
+import type { SetExitCode } from "./exit.ts";
 
 /** One grid of a user's study, as read from the CSV. */
 export interface StudyRow {

@@ -7,8 +7,7 @@
 import type { Command } from "commander";
 import { InputError } from "./errors.ts";
 import { writeFileWhole } from "./shared.ts";
-import { readResult } from "../result/read.ts";
-import { type CampaignResult } from "../result/types.ts";
+import { type CampaignResult, readResult } from "../result/mod.ts";
 import { RENDERERS, type ReportFormat } from "../report/mod.ts";
 
 /** Options of {@link writeReport}. */

@@ -4,8 +4,8 @@
  *
  * @module
  */
-import type { CampaignResult } from "../result/types.ts";
-import type { ProgressEvent } from "../campaign/run.ts";
+import type { CampaignResult } from "../result/mod.ts";
+import type { ProgressEvent } from "../campaign/mod.ts";
 import { InputError } from "./errors.ts";
 
 /** Parses a positive number flag. */

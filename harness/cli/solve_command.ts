@@ -18,7 +18,7 @@ import {
 } from "../../reference-solver/mod.ts";
 import { errorNorms, vertexWeights } from "../analysis/mod.ts";
 import { InputError } from "./errors.ts";
-import type { SetExitCode } from "./mod.ts";
+import type { SetExitCode } from "./exit.ts";
 
 /** The flags of `gridproof solve` as commander parses them (all text). */
 export interface SolveFlags {

@@ -81,7 +81,10 @@ Deno.test("gridproof solve refuses unknown cases, cycles, smoothers and bad numb
       ["--case", "boundary-layer", "--param", "q=1"],
       /has no parameter "q"; valid parameters: width/,
     ],
-    [["--case", "testdata/cases/not-elliptic.json", "--n", "8"], /not elliptic at node/],
+    [
+      ["--case", "testdata/cases/not-elliptic.json", "--n", "8"],
+      /coefficients\.a: a = -0\.5 at \(x, y\) = \(0, 0\)/,
+    ],
     [["--case", "testdata/cases/missing.json"], /testdata\/cases\/missing\.json: file not found/],
   ];
   for (const [args, pattern] of bad) {

@@ -13,7 +13,7 @@ import type {
   StudyRecord,
   Verdict,
   VerdictStatus,
-} from "../result/types.ts";
+} from "../result/mod.ts";
 
 /** A number in 4 significant figures, exponent form when small or large; "—" for null/NaN. */
 export function num(value: number | null | undefined, digits = 4): string {
@@ -44,8 +44,8 @@ export function percent(value: number | null | undefined): string {
   return `${Number((value * 100).toPrecision(3))} %`;
 }
 
-export { SEVERITY } from "../result/severity.ts";
-import { SEVERITY, worstStatus } from "../result/severity.ts";
+export { SEVERITY } from "../result/mod.ts";
+import { SEVERITY, worstStatus } from "../result/mod.ts";
 
 /** Upper-case word shown for a status in text and Markdown. */
 export const STATUS_WORD: Record<VerdictStatus, string> = {

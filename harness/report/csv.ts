@@ -5,7 +5,7 @@
  */
 import { stringify } from "csv-stringify/sync";
 import { escapeCsvCell } from "./escape.ts";
-import type { CampaignResult, NormSet, Region } from "../result/types.ts";
+import type { CampaignResult, NormSet, Region } from "../result/mod.ts";
 import { caseIds, orderOf, pairs, pairwiseAt, solvesOf } from "./_shared.ts";
 
 /** The columns of {@link renderCsv}, in order. */

@@ -11,7 +11,7 @@ import type {
   StudyRecord,
   Verdict,
   VerdictStatus,
-} from "../result/types.ts";
+} from "../result/mod.ts";
 import {
   allVerdicts,
   bySeverity,

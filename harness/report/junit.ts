@@ -13,7 +13,7 @@
  *
  * @module
  */
-import type { CampaignResult, Verdict } from "../result/types.ts";
+import type { CampaignResult, Verdict } from "../result/mod.ts";
 import { escapeHtml as esc } from "./escape.ts";
 
 interface Suite {

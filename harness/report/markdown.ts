@@ -3,7 +3,7 @@
  *
  * @module
  */
-import type { CampaignResult, Verdict } from "../result/types.ts";
+import type { CampaignResult, Verdict } from "../result/mod.ts";
 import {
   allVerdicts,
   bySeverity,

@@ -10,7 +10,7 @@
  * @example
  * ```ts ignore
  * import { rendererFor, renderMarkdown } from "./mod.ts";
- * import { readResult } from "../result/read.ts";
+ * import { readResult } from "../result/mod.ts";
  * const result = await readResult("gridproof-demo/result.json");
  * console.log(renderMarkdown(result));
  * await Deno.writeTextFile("report.html", await rendererFor("html").render(result));
@@ -18,7 +18,7 @@
  *
  * @module
  */
-import type { CampaignResult } from "../result/types.ts";
+import type { CampaignResult } from "../result/mod.ts";
 export type { CampaignResult };
 export { renderText, type TextOptions } from "./text.ts";
 export { CSV_COLUMNS, renderCsv } from "./csv.ts";

@@ -6,7 +6,7 @@
  */
 import * as vega from "vega";
 import * as vl from "vega-lite";
-import type { CampaignResult, NormSet } from "../result/types.ts";
+import type { CampaignResult, NormSet } from "../result/mod.ts";
 import { caseIds, pairs, solvesOf } from "./_shared.ts";
 
 /** Which kind of plot, used in the HTML as `data-plot`. */

@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { CampaignResult } from "../result/types.ts";
+import type { CampaignResult } from "../result/mod.ts";
 import { renderCsv } from "./csv.ts";
 import { renderHtml } from "./html.ts";
 import { renderJunit } from "./junit.ts";

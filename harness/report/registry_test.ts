@@ -1,6 +1,6 @@
 import assert from "node:assert/strict";
 import { rendererFor, RENDERERS } from "./registry.ts";
-import { parseResult } from "../result/read.ts";
+import { parseResult } from "../result/mod.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 
 Deno.test("RENDERERS renders the fixture in every format", async () => {

@@ -3,7 +3,7 @@
  *
  * @module
  */
-import type { CampaignResult, SolveRecord, Verdict, VerdictStatus } from "../result/types.ts";
+import type { CampaignResult, SolveRecord, Verdict, VerdictStatus } from "../result/mod.ts";
 import { escapeTerminal } from "./escape.ts";
 import {
   allVerdicts,

@@ -13,6 +13,9 @@ import type { ExternalSolverSpec } from "./types.ts";
 
 let validator: ReturnType<Ajv2020["compile"]> | undefined;
 
+/** The bundled reference solver's name in results and `--solver` (see `reference.ts`). */
+const REFERENCE_NAME = "reference";
+
 function fieldPath(error: ErrorObject): string {
   // "/solvers/0/command" → "solvers[0].command"
   const parts = error.instancePath.split("/").slice(1);
@@ -52,7 +55,7 @@ function problemText(error: ErrorObject): string {
  * @param path the JSON file; relative paths inside it are taken from its folder
  * @returns one spec per solver, defaults filled in and `solverFileDir` set to the file's folder
  * @throws InputError naming the file and every field at fault (missing file, bad JSON, schema
- *   violations, duplicate names)
+ *   violations, duplicate names, the reserved name "reference")
  *
  * @example
  * ```ts ignore
@@ -78,7 +81,8 @@ export async function loadSolverFile(
   let data: unknown;
   try {
     // strict JSON with positions: a field given twice is refused, as in case files
-    data = readJsonWithPositions(text).value;
+    // a leading byte-order mark, as some Windows editors write, is not part of the JSON
+    data = readJsonWithPositions(text.replace(/^\uFEFF/, "")).value;
   } catch (error) {
     if (!(error instanceof JsonSyntaxError)) throw error;
     const { line, column } = error.position;
@@ -101,6 +105,13 @@ export async function loadSolverFile(
   const raw = (data as { solvers: Record<string, unknown>[] }).solvers;
   raw.forEach((entry, index) => {
     const name = entry.name as string;
+    if (name === REFERENCE_NAME) {
+      throw new InputError(
+        `solvers[${index}].name: "${name}" is reserved for gridproof's bundled reference solver, ` +
+          `the one --solver ${name} names; give this solver another name, e.g. "my-${name}"`,
+        { where: path },
+      );
+    }
     if (seen.has(name)) {
       throw new InputError(
         `solvers[${index}].name: "${name}" is used twice; names must be unique`,

@@ -99,3 +99,30 @@ Deno.test("loadSolverFile() refuses a field given twice, as case files do (issue
     });
   });
 });
+
+Deno.test("loadSolverFile() refuses the name of the bundled reference solver (issue 12, item 15)", async () => {
+  // before, a user solver named "reference" ran beside the bundled one under the same name
+  const text = JSON.stringify({
+    solvers: [{ name: "mine", command: ["./run"] }, { name: "reference", command: ["./run"] }],
+  });
+  await withFile(text, async (path) => {
+    await assert.rejects(loadSolverFile(path), (e: InputError) => {
+      assert.ok(e instanceof InputError);
+      assert.equal(e.where, path);
+      assert.match(
+        e.message,
+        /^solvers\[1\]\.name: "reference" is reserved for gridproof's bundled reference solver.*give this solver another name, e\.g\. "my-reference"$/,
+      );
+      return true;
+    });
+  });
+});
+
+Deno.test("loadSolverFile() reads a file that starts with a UTF-8 byte-order mark (issue 12, item 15)", async () => {
+  // before: "the solver file is not valid JSON at line 1, column 1: expected a JSON value"
+  const text = "\uFEFF" + JSON.stringify({ solvers: [{ name: "a", command: ["./run"] }] });
+  await withFile(text, async (path) => {
+    const [spec] = await loadSolverFile(path);
+    assert.equal(spec.name, "a");
+  });
+});

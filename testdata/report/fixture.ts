@@ -25,7 +25,7 @@ import type {
   SolverInfo,
   StudyRecord,
   Verdict,
-} from "../../harness/result/types.ts";
+} from "../../harness/result/mod.ts";
 
 /** Options of {@link makeFixtureResult}. */
 export interface FixtureOptions {

@@ -6,8 +6,7 @@
 import assert from "node:assert/strict";
 import { loadCase } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
-import { runCampaign } from "../../harness/campaign/campaign.ts";
-import { createPooledReferenceSolver } from "../../harness/campaign/reference_pool.ts";
+import { createPooledReferenceSolver, runCampaign } from "../../harness/campaign/mod.ts";
 import { createReferenceSolver, emptyOutcome, type Solver } from "../../harness/solvers/mod.ts";
 
 /**

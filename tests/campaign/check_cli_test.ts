@@ -1,7 +1,7 @@
 /**
  * The `check` command end to end, as a release gate runs it: a plain `gridproof check` with the
  * reference solver passes every built-in case (each case declares the order theory predicts for
- * it — CHECK-VALUES.md, formal orders of the central 5-point scheme), writes result.json and the
+ * it — docs/check-values.md, "Exact facts of central differences"), writes result.json and the
  * requested reports, and refuses bad flags with exit code 2.
  */
 import assert from "node:assert/strict";
@@ -148,4 +148,59 @@ Deno.test("gridproof check refuses an output folder another running campaign hol
     await other.status;
   }
   await Deno.remove(dir, { recursive: true });
+});
+
+Deno.test("gridproof check refuses a case named twice, too many levels and a solver that cannot start, before any solve (issue 12, item 15)", async (t) => {
+  const dir = await Deno.makeTempDir();
+  const out = `${dir}/out`;
+  const refused = async (args: string[], pattern: RegExp) => {
+    const run = await gridproof(["check", "--out", out, "--no-progress", ...args]);
+    assert.equal(run.code, 2, run.stdout + run.stderr);
+    assert.match(run.stderr, pattern);
+    assert.doesNotMatch(run.stderr, /internal error|\n\s+at /);
+    // nothing ran: no journal was started
+    await assert.rejects(Deno.stat(`${out}/journal.jsonl`), Deno.errors.NotFound);
+  };
+  try {
+    await t.step("--cases x,x", async () => {
+      // before: 'case id "quartic-poisson" is used twice (library and library): give each case
+      // its own id', after compiling the case twice
+      await refused(
+        ["--cases", "quartic-poisson,smooth-baseline,quartic-poisson"],
+        /--cases: case quartic-poisson is named twice in --cases; name each case once/,
+      );
+    });
+    await t.step("--levels 1000000", async () => {
+      // before: 'ratio 2 from 16 rounds two grids to the same count Infinity'
+      await refused(
+        ["--cases", "quartic-poisson", "--levels", "1000000"],
+        /--ratio\/--levels\/--coarsest: 1000000 levels with ratio 2 from 16: .*use at most 10 levels/,
+      );
+    });
+    await t.step("a script whose #! line names a missing interpreter", async () => {
+      // before, every solve failed on its own with a bare "No such file or directory"
+      await Deno.writeTextFile(`${dir}/solver.sh`, "#!/no/such/interpreter\necho hi\n");
+      await Deno.chmod(`${dir}/solver.sh`, 0o755);
+      await Deno.writeTextFile(
+        `${dir}/solvers.json`,
+        JSON.stringify({ solvers: [{ name: "mine", command: ["./solver.sh"] }] }),
+      );
+      await refused(
+        ["--cases", "quartic-poisson", "--solvers", `${dir}/solvers.json`],
+        /solvers\.json: solvers\[0\] \("mine"\): command "\.\/solver\.sh" \(.*\) names the interpreter \/no\/such\/interpreter on its first line .*which does not exist; fix the script's first line/,
+      );
+    });
+    await t.step("a solver named reference", async () => {
+      await Deno.writeTextFile(
+        `${dir}/solvers.json`,
+        JSON.stringify({ solvers: [{ name: "reference", command: ["/bin/sh"] }] }),
+      );
+      await refused(
+        ["--cases", "quartic-poisson", "--solvers", `${dir}/solvers.json`],
+        /solvers\[0\]\.name: "reference" is reserved for gridproof's bundled reference solver/,
+      );
+    });
+  } finally {
+    await Deno.remove(dir, { recursive: true });
+  }
 });

@@ -13,8 +13,8 @@
 import assert from "node:assert/strict";
 import { loadCase } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
-import { runCampaign } from "../../harness/campaign/campaign.ts";
-import type { CampaignResult } from "../../harness/result/types.ts";
+import { runCampaign } from "../../harness/campaign/mod.ts";
+import type { CampaignResult } from "../../harness/result/mod.ts";
 import {
   createExternalSolver,
   createReferenceSolver,

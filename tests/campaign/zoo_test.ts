@@ -7,8 +7,8 @@
  */
 import assert from "node:assert/strict";
 import { loadCase } from "../../cases/mod.ts";
-import { runCampaign } from "../../harness/campaign/campaign.ts";
-import type { CampaignResult, Verdict } from "../../harness/result/types.ts";
+import { runCampaign } from "../../harness/campaign/mod.ts";
+import type { CampaignResult, Verdict } from "../../harness/result/mod.ts";
 import { createZooSolver, type DefectName } from "../../testing/zoo/mod.ts";
 
 /** One row: a defect, a layout, the cases it runs on, where it must fail and what it must say. */

@@ -53,8 +53,8 @@ Deno.test("every built-in case shows its declared order with the reference solve
   }
 });
 
-Deno.test("quartic-poisson gives the derived max errors of CHECK-VALUES.md", () => {
-  // derived (CHECK-VALUES.md, "Exact facts of central differences"): u = x⁴, unit square,
+Deno.test("quartic-poisson gives the derived max errors of docs/check-values.md", () => {
+  // derived (docs/check-values.md, "Exact facts of central differences"): u = x⁴, unit square,
   // Dirichlet, h = 1/4 … 1/32 → 8.789062e-03, 2.274457e-03, 5.737951e-04, 1.437788e-04
   const c = library.find((k) => k.id === "quartic-poisson")!;
   const want = [8.789062e-03, 2.274457e-03, 5.737951e-04, 1.437788e-04];

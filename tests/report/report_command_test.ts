@@ -5,7 +5,7 @@
 import assert from "node:assert/strict";
 import { runGridproof } from "../../testing/mod.ts";
 import { parse } from "csv-parse/sync";
-import { parseResult } from "../../harness/result/read.ts";
+import { parseResult } from "../../harness/result/mod.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 
 const ROOT = new URL("../../", import.meta.url).pathname;
