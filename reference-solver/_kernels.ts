@@ -2,9 +2,23 @@
  * Pure numeric kernels on the padded layout of `level.ts`: flat `Float64Array` loops with no
  * allocation and no closures inside them. Callers pass validated, consistent arrays.
  *
+ * The stencil kernels below are five-point loops. A nine-point level (with corner arrays) is
+ * handed, by one test at the top of each call, to its counterpart in `_kernels_nine.ts`; on a
+ * nine-point level `redBlackSweep` becomes the four-colour sweep (red–black is not an exact
+ * two-colouring once corners couple).
+ *
  * @module
  */
-import type { LevelOperator } from "./level.ts";
+import { isNinePoint, type LevelOperator } from "./level.ts";
+import {
+  fourColourSweep,
+  gaussSeidelSweepNine,
+  lineXSweepNine,
+  lineYSweepNine,
+  residualNine,
+  residualNorm2Nine,
+  roundoffScaleNine,
+} from "./_kernels_nine.ts";
 
 /** r = f − A·u at every node (halo of r untouched, so it stays zero). */
 export function residual(
@@ -13,6 +27,7 @@ export function residual(
   f: Float64Array,
   r: Float64Array,
 ): void {
+  if (isNinePoint(op)) return residualNine(op, u, f, r);
   const { W, E, S, N, C, nx, ny, stride } = op;
   const symmetric = W === E && S === N;
   for (let j = 0; j <= ny; j++) {
@@ -35,6 +50,7 @@ export function residual(
 
 /** ‖f − A·u‖₂ without storing the residual. */
 export function residualNorm2(op: LevelOperator, u: Float64Array, f: Float64Array): number {
+  if (isNinePoint(op)) return residualNorm2Nine(op, u, f);
   const { W, E, S, N, C, nx, ny, stride } = op;
   const symmetric = W === E && S === N;
   let sum = 0;
@@ -68,6 +84,7 @@ export function norm2(r: Float64Array): number {
 
 /** ‖ |f| + |A|·|u| ‖₂: the scale of the round-off in a computed residual (times ε). */
 export function roundoffScale(op: LevelOperator, u: Float64Array, f: Float64Array): number {
+  if (isNinePoint(op)) return roundoffScaleNine(op, u, f);
   const { W, E, S, N, C, nx, ny, stride } = op;
   let s = 0;
   for (let j = 0; j <= ny; j++) {
@@ -107,6 +124,7 @@ function relaxRow(
  * by a full black pass.
  */
 export function redBlackSweep(op: LevelOperator, u: Float64Array, f: Float64Array): void {
+  if (isNinePoint(op)) return fourColourSweep(op, u, f);
   const { W, E, S, N, invC, nx, ny, stride: s } = op;
   const symmetric = W === E && S === N;
   relaxRow(op, u, f, 0, 0);
@@ -132,6 +150,7 @@ export function redBlackSweep(op: LevelOperator, u: Float64Array, f: Float64Arra
 
 /** One lexicographic Gauss–Seidel sweep (x fastest, then y). */
 export function gaussSeidelSweep(op: LevelOperator, u: Float64Array, f: Float64Array): void {
+  if (isNinePoint(op)) return gaussSeidelSweepNine(op, u, f);
   const { W, E, S, N, invC, nx, ny, stride } = op;
   for (let j = 0; j <= ny; j++) {
     const base = (j + 1) * stride + 1;
@@ -194,6 +213,7 @@ export function lineXSweep(
   j0: number,
   dj: number,
 ): void {
+  if (isNinePoint(op)) return lineXSweepNine(op, u, f, fac, j0, dj);
   const { W, S, N, nx, ny, stride } = op;
   const { cp, dinv } = fac;
   for (let j = j0; j <= ny; j += dj) {
@@ -218,6 +238,7 @@ export function lineYSweep(
   i0: number,
   di: number,
 ): void {
+  if (isNinePoint(op)) return lineYSweepNine(op, u, f, fac, i0, di);
   const { W, E, S, nx, ny, stride } = op;
   const { cp, dinv } = fac;
   for (let i = i0; i <= nx; i += di) {

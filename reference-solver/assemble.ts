@@ -1,7 +1,8 @@
 /**
  * The assembled discrete system in compressed sparse row form, and its residual norm: the exact
- * system `solve` works on (see `discretize.ts`), for residual checks, debugging and comparison with
- * other solvers.
+ * system `solve` works on (see `discretize.ts` and, for a problem with a conductivity,
+ * `discretize_conservative.ts`), for residual checks, debugging and comparison with other solvers.
+ * Rows have up to nine entries (the corners of a mixed term or a full conductivity tensor).
  *
  * @module
  */
@@ -52,6 +53,8 @@ export function assembleMatrix(
   const { op, rhs: padded } = discretize(problem, options.upwind ?? false);
   const { nx, ny, stride, W, E, S, N, C } = op;
   const n = (nx + 1) * (ny + 1);
+  const none = new Float64Array(op.length);
+  const SW = op.SW ?? none, SE = op.SE ?? none, NW = op.NW ?? none, NE = op.NE ?? none;
   const rowPtr = new Int32Array(n + 1);
   const col: number[] = [], val: number[] = [];
   const rhs = op.unpad(padded);
@@ -59,11 +62,15 @@ export function assembleMatrix(
     for (let i = 0; i <= nx; i++) {
       const q = j * (nx + 1) + i, k = (j + 1) * stride + i + 1;
       const entries: [number, number][] = [
+        [q - (nx + 1) - 1, SW[k]],
         [q - (nx + 1), S[k]],
+        [q - (nx + 1) + 1, SE[k]],
         [q - 1, W[k]],
         [q, C[k]],
         [q + 1, E[k]],
+        [q + nx + 1 - 1, NW[k]],
         [q + nx + 1, N[k]],
+        [q + nx + 1 + 1, NE[k]],
       ];
       for (const [c, v] of entries) if (v !== 0) (col.push(c), val.push(v));
       rowPtr[q + 1] = col.length;

@@ -3,7 +3,7 @@
  *
  * @module
  */
-import type { LevelOperator } from "./level.ts";
+import { isNinePoint, type LevelOperator } from "./level.ts";
 import { bandedLU } from "./banded_lu.ts";
 
 /** Largest band storage (in doubles) the coarsest level may take: 400 MB. */
@@ -19,7 +19,8 @@ export interface DirectSolver {
 
 /**
  * Factorizes a level's operator. Nodes are numbered along the shorter side first, so the
- * bandwidth is min(nx, ny) + 1.
+ * bandwidth is m = min(nx, ny) + 1 for a five-point level; on a nine-point level the corner
+ * neighbours sit one further away (m − 1 and m + 1 positions), so the band is m + 1.
  *
  * A singular level (constants in the null space) is solved as the bordered system
  * A·u = f − λ·1 with λ chosen to make it compatible: the row of node (0, 0) is replaced by u = 0,
@@ -48,7 +49,8 @@ export interface DirectSolver {
 export function createDirectSolver(op: LevelOperator): DirectSolver {
   const { nx, ny, stride, W, E, S, N, C } = op;
   const xFirst = nx <= ny;
-  const m = xFirst ? nx + 1 : ny + 1;
+  const nine = isNinePoint(op);
+  const m = (xFirst ? nx + 1 : ny + 1) + (nine ? 1 : 0);
   const n = (nx + 1) * (ny + 1);
   if (n * (3 * m + 1) > MAX_BAND_STORAGE) {
     throw new RangeError(
@@ -79,15 +81,25 @@ export function createDirectSolver(op: LevelOperator): DirectSolver {
         if (i < nx && E[k] !== 0) set(q, pos(i + 1, j), E[k]);
         if (j > 0 && S[k] !== 0) set(q, pos(i, j - 1), S[k]);
         if (j < ny && N[k] !== 0) set(q, pos(i, j + 1), N[k]);
+        if (!nine) continue;
+        if (i > 0 && j > 0 && op.SW[k] !== 0) set(q, pos(i - 1, j - 1), op.SW[k]);
+        if (i < nx && j > 0 && op.SE[k] !== 0) set(q, pos(i + 1, j - 1), op.SE[k]);
+        if (i > 0 && j < ny && op.NW[k] !== 0) set(q, pos(i - 1, j + 1), op.NW[k]);
+        if (i < nx && j < ny && op.NE[k] !== 0) set(q, pos(i + 1, j + 1), op.NE[k]);
       }
     }
   });
   const b = new Float64Array(n);
   let y: Float64Array | undefined;
   const k0 = order[0];
+  const s = stride;
   const rowDot = (u: Float64Array) =>
-    C[k0] * u[k0] + W[k0] * u[k0 - 1] + E[k0] * u[k0 + 1] + S[k0] * u[k0 - stride] +
-    N[k0] * u[k0 + stride];
+    C[k0] * u[k0] + W[k0] * u[k0 - 1] + E[k0] * u[k0 + 1] + S[k0] * u[k0 - s] +
+    N[k0] * u[k0 + s] +
+    (nine
+      ? op.SW[k0] * u[k0 - s - 1] + op.SE[k0] * u[k0 - s + 1] + op.NW[k0] * u[k0 + s - 1] +
+        op.NE[k0] * u[k0 + s + 1]
+      : 0);
   if (singular) {
     b.fill(1);
     b[0] = 0;

@@ -26,11 +26,31 @@
  * sides are Neumann/Robin, ghosts are eliminated in both directions, each with its own side's value
  * at the corner (the `values` arrays include the corners).
  *
+ * Mixed term (`m`, non-conservative form): m·u_xy by the central four-corner difference
+ *
+ *   m·(u_NE − u_SE − u_NW + u_SW)/(4·hx·hy),
+ *
+ * that is corner coefficients NE = SW = m/(4hx·hy) and NW = SE = −m/(4hx·hy) (with
+ * u_NE = u(i+1, j+1) and so on). Truncation error (m/6)(hx²·u_xxxy + hy²·u_xyyy): second order,
+ * exact for polynomials of degree 3 (in particular for u = x·y). The level then carries the four
+ * corner arrays (a nine-point stencil); without `m`, or with m ≡ 0, the level stays five-point.
+ * On a Neumann/Robin side the corner ghosts are eliminated like the edge ghost, each by the side's
+ * condition at the boundary node beside it, e.g. on the west side
+ * u(−1, j±1) = u(1, j±1) + (2hx/β)·(g[j±1] − α·u(0, j±1)): the ghost's coefficient K moves to the
+ * mirrored corner (NW → NE, SW → SE), the boundary neighbour (0, j±1) gains −K·2hx·α/β (through
+ * N or S) and the right-hand side gains −K·2hx·g[j±1]/β; alike on the east (NE → NW, SE → SW),
+ * south (SW → NW, SE → NE, through W or E, data g[i±1]) and north (NW → SW, NE → SE) sides. This
+ * is exact for quadratics like the rest. At a corner where two Neumann/Robin sides meet, the ghost
+ * outside both sides has no condition that defines it; such a corner must have m = 0
+ * (`validateProblem` refuses otherwise). A problem with a conductivity is discretized by
+ * `discretize_conservative.ts` instead (the conservative form).
+ *
  * @module
  */
 import type { BoundaryCondition, Problem } from "./problem.ts";
 import { levelLayout, type LevelOperator } from "./level.ts";
 import { isDirichletLike, isSingular } from "./validate.ts";
+import { discretizeConservative } from "./discretize_conservative.ts";
 
 /** The operator of a level and the right-hand side of its own problem (padded layout). */
 export interface Discretization {
@@ -55,7 +75,8 @@ function ghostData(bc: BoundaryCondition): { alpha: number; beta: number } {
 }
 
 /**
- * Builds the stencil arrays and right-hand side of a (validated) problem, per the module doc.
+ * Builds the stencil arrays and right-hand side of a (validated) problem, per the module doc; a
+ * problem with a conductivity goes to `discretizeConservative`.
  *
  * @param problem The problem, already checked by `validateProblem`.
  * @param upwind First-order upwinding of b·u_x and d·u_y (default false).
@@ -74,6 +95,7 @@ function ghostData(bc: BoundaryCondition): { alpha: number; beta: number } {
  * ```
  */
 export function discretize(problem: Problem, upwind = false): Discretization {
+  if (problem.conductivity !== undefined) return discretizeConservative(problem, upwind);
   const { nx, ny, domain, boundary } = problem;
   const hx = (domain.x1 - domain.x0) / nx;
   const hy = (domain.y1 - domain.y0) / ny;
@@ -167,7 +189,7 @@ export function discretize(problem: Problem, upwind = false): Discretization {
     }
     node(nx, j);
   }
-  const op: LevelOperator = {
+  const base = {
     ...layout,
     hx,
     hy,
@@ -180,5 +202,92 @@ export function discretize(problem: Problem, upwind = false): Discretization {
     dirichlet: Int32Array.from(dirichlet),
     singular: isSingular(problem),
   };
-  return { op, rhs };
+  if (problem.m === undefined || allZero(problem.m)) return { op: base, rhs };
+  return { op: { ...base, ...mixedCorners(problem, base, rhs) }, rhs };
+}
+
+/**
+ * The corner arrays of m·u_xy with the ghost elimination of the module doc; W, E, S, N and rhs of
+ * the boundary rows gain the folded terms in place.
+ */
+function mixedCorners(
+  problem: Problem,
+  op: LevelOperator,
+  rhs: Float64Array,
+): { SW: Float64Array; SE: Float64Array; NW: Float64Array; NE: Float64Array } {
+  const { nx, ny, boundary } = problem;
+  const { stride: s, length, hx, hy, W, E, S, N } = op;
+  const m = problem.m!;
+  const SW = new Float64Array(length), SE = new Float64Array(length);
+  const NW = new Float64Array(length), NE = new Float64Array(length);
+  const isDir = new Uint8Array(length);
+  for (const k of op.dirichlet) isDir[k] = 1;
+  const kappa = 1 / (4 * hx * hy);
+  for (let j = 0; j <= ny; j++) {
+    for (let i = 0; i <= nx; i++) {
+      const k = (j + 1) * s + i + 1, q = j * (nx + 1) + i;
+      if (isDir[k] || m[q] === 0) continue;
+      const v = m[q] * kappa;
+      NE[k] = v, SW[k] = v, NW[k] = -v, SE[k] = -v;
+    }
+  }
+  // Folding of the corner ghosts, side by side (module doc). Each fold moves a coefficient K of a
+  // ghost to its mirror image and adds −K·2h·α/β to the boundary neighbour the condition is taken
+  // at, and −K·2h·g/β to the right-hand side.
+  const fold = (
+    k: number,
+    K: number,
+    mirror: Float64Array,
+    mk: number,
+    neighbour: Float64Array,
+    g: number,
+    h2: number,
+    alpha: number,
+    beta: number,
+  ) => {
+    mirror[mk] += K;
+    neighbour[k] -= K * h2 * alpha / beta;
+    rhs[k] -= K * h2 * g / beta;
+  };
+  const ab = (side: "west" | "east" | "south" | "north") => {
+    const bc = boundary[side];
+    return bc.kind === "robin" ? [bc.alpha, bc.beta] : [0, 1];
+  };
+  if (!isDirichletLike(boundary.west)) {
+    const [al, be] = ab("west"), g = boundary.west.values;
+    for (let j = 0; j <= ny; j++) {
+      const k = (j + 1) * s + 1;
+      if (isDir[k]) continue;
+      if (NW[k] !== 0) fold(k, NW[k], NE, k, N, g[j + 1], 2 * hx, al, be), NW[k] = 0;
+      if (SW[k] !== 0) fold(k, SW[k], SE, k, S, g[j - 1], 2 * hx, al, be), SW[k] = 0;
+    }
+  }
+  if (!isDirichletLike(boundary.east)) {
+    const [al, be] = ab("east"), g = boundary.east.values;
+    for (let j = 0; j <= ny; j++) {
+      const k = (j + 1) * s + nx + 1;
+      if (isDir[k]) continue;
+      if (NE[k] !== 0) fold(k, NE[k], NW, k, N, g[j + 1], 2 * hx, al, be), NE[k] = 0;
+      if (SE[k] !== 0) fold(k, SE[k], SW, k, S, g[j - 1], 2 * hx, al, be), SE[k] = 0;
+    }
+  }
+  if (!isDirichletLike(boundary.south)) {
+    const [al, be] = ab("south"), g = boundary.south.values;
+    for (let i = 0; i <= nx; i++) {
+      const k = s + i + 1;
+      if (isDir[k]) continue;
+      if (SW[k] !== 0) fold(k, SW[k], NW, k, W, g[i - 1], 2 * hy, al, be), SW[k] = 0;
+      if (SE[k] !== 0) fold(k, SE[k], NE, k, E, g[i + 1], 2 * hy, al, be), SE[k] = 0;
+    }
+  }
+  if (!isDirichletLike(boundary.north)) {
+    const [al, be] = ab("north"), g = boundary.north.values;
+    for (let i = 0; i <= nx; i++) {
+      const k = (ny + 1) * s + i + 1;
+      if (isDir[k]) continue;
+      if (NW[k] !== 0) fold(k, NW[k], SW, k, W, g[i - 1], 2 * hy, al, be), NW[k] = 0;
+      if (NE[k] !== 0) fold(k, NE[k], SE, k, E, g[i + 1], 2 * hy, al, be), NE[k] = 0;
+    }
+  }
+  return { SW, SE, NW, NE };
 }

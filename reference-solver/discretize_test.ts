@@ -14,7 +14,7 @@ import {
 } from "./_test_problems.ts";
 import type { Side } from "./problem.ts";
 
-// Derived (CHECK-VALUES.md, exact facts of central differences): central first and second
+// Derived (docs/check-values.md, "Exact facts of central differences"): central first and second
 // differences and the ghost-node treatment of Neumann/Robin sides are exact for quadratics.
 const QUADRATIC: Exact = {
   u: (x, y) => 1 + 2 * x - y + 0.5 * x * x + 0.75 * x * y - 0.3 * y * y,

@@ -8,7 +8,12 @@
  * Use {@link LevelOperator.pad} / {@link LevelOperator.unpad} to convert from and to the public
  * layout of {@link Problem} (x fastest, no halo).
  *
- * Row k of the system is `W·u[k−1] + E·u[k+1] + S·u[k−stride] + N·u[k+stride] + C·u[k] = rhs[k]`.
+ * Row k of the system is `W·u[k−1] + E·u[k+1] + S·u[k−stride] + N·u[k+stride] + C·u[k] = rhs[k]`
+ * on a five-point level. A nine-point level (a mixed term u_xy, a full conductivity tensor, or a
+ * Galerkin coarse operator) also has the four corner arrays, and its row adds
+ * `SW·u[k−stride−1] + SE·u[k−stride+1] + NW·u[k+stride−1] + NE·u[k+stride+1]`. Five-point levels
+ * have no corner arrays at all, so their kernels stay the five-point loops (see
+ * {@link isNinePoint}).
  *
  * @module
  */
@@ -40,6 +45,14 @@ export interface LevelOperator {
   readonly N: Float64Array;
   /** Diagonal coefficient (1 on Dirichlet rows). */
   readonly C: Float64Array;
+  /** Coefficient of the south-west neighbour u[k − stride − 1]; nine-point levels only. */
+  readonly SW?: Float64Array;
+  /** Coefficient of the south-east neighbour u[k − stride + 1]; nine-point levels only. */
+  readonly SE?: Float64Array;
+  /** Coefficient of the north-west neighbour u[k + stride − 1]; nine-point levels only. */
+  readonly NW?: Float64Array;
+  /** Coefficient of the north-east neighbour u[k + stride + 1]; nine-point levels only. */
+  readonly NE?: Float64Array;
   /** 1 / C (1 in the halo, never used there). */
   readonly invC: Float64Array;
   /** Padded indices of the Dirichlet rows (identity rows u = value). */
@@ -54,6 +67,29 @@ export interface LevelOperator {
   pad(values: Float64Array): Float64Array;
   /** Copies a padded vector out into a new public-layout array. */
   unpad(padded: Float64Array): Float64Array;
+}
+
+/** A level with its four corner arrays (a nine-point stencil). */
+export type NinePointOperator = LevelOperator & {
+  readonly SW: Float64Array;
+  readonly SE: Float64Array;
+  readonly NW: Float64Array;
+  readonly NE: Float64Array;
+};
+
+/**
+ * Whether a level carries corner couplings (all four corner arrays are present together).
+ *
+ * @example
+ * ```ts
+ * import { isNinePoint, levelLayout } from "./level.ts";
+ * const l = levelLayout(2, 2);
+ * const five = { ...l } as never, nine = { ...l, NE: l.vector() } as never;
+ * if (isNinePoint(five) || !isNinePoint(nine)) throw new Error("corners");
+ * ```
+ */
+export function isNinePoint(op: LevelOperator): op is NinePointOperator {
+  return op.NE !== undefined;
 }
 
 /**

@@ -1,6 +1,8 @@
 /**
- * The bundled reference geometric multigrid solver for
- * a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f on a rectangle, vertex-centred.
+ * The bundled reference geometric multigrid solver, vertex-centred, for
+ * a·u_xx + m·u_xy + c·u_yy + b·u_x + d·u_y + e·u = f (non-conservative form; m optional) or
+ * ∇·(K∇u) + b·u_x + d·u_y + e·u = f (conservative form, when the problem carries a conductivity
+ * K = [[k11, k12], [k12, k22]] sampled at the edge midpoints) on a rectangle.
  *
  * It knows nothing of cases, expressions or the harness: it takes a {@link Problem} of plain
  * typed arrays and returns a {@link SolveResult} as data (non-convergence included).
@@ -11,25 +13,34 @@
  *   `singular: "mean-zero"` are documented at `solve`.
  * - `resolveOptions(options?)`: every default filled in; unknown keys refused by dotted path.
  * - `assembleMatrix(problem, { upwind? })` / `residualNorm(problem, u, { upwind? })`: the exact
- *   discrete system (CSR, one row per node, Dirichlet rows identity) that `solve` works on. The
- *   discretization (central 5-point stencil, optional upwinding, ghost nodes for Neumann/Robin,
- *   corners) is documented in `discretize.ts`.
+ *   discrete system (CSR, one row per node, up to nine entries, Dirichlet rows identity) that
+ *   `solve` works on. The discretizations are documented in `discretize.ts` (central 5-point
+ *   stencil, optional upwinding, the four-corner mixed term, ghost nodes for Neumann/Robin,
+ *   corners) and `discretize_conservative.ts` (flux form with the tensor K, half and quarter
+ *   control volumes on Neumann/Robin sides, conormal flux data).
  * - `describeLevels({ nx, ny, domain? }, options?)`: the levels a solve would use, finest first.
+ *
+ * Coarse operators and transfers: rediscretized from injected coefficients (a conductivity is
+ * combined edge by edge) or Galerkin products R·A·P (`galerkin.ts`), nine-point on coarse levels;
+ * interpolation bilinear or operator-dependent (`prolongation.ts`). By default a problem with a
+ * conductivity gets Galerkin with operator-dependent interpolation (robust for coefficients that
+ * jump by orders of magnitude), every other problem rediscretization with bilinear interpolation.
  *
  * Components, for tests and experiments (all work on the padded layout of `level.ts`; convert
  * with `level.pad` / `level.unpad`):
- * - `buildLevel(problem, { upwind?, singular? })`: one level's operator (`LevelOperator`).
+ * - `buildLevel(problem, { upwind?, singular? })`: one level's operator (`LevelOperator`:
+ *   five-point, or nine-point with corner arrays — `isNinePoint`).
  * - `SMOOTHERS` and `createSmoother(name, level, { omega? })` → `{ smooth(u, f, sweeps) }`
- *   (exactly `sweeps` sweeps, in place).
- * - `RESTRICTIONS` and `createTransfer(restriction, fine, coarse)` →
- *   `{ restrict, interpolateAdd, interpolate }` (bilinear interpolation).
+ *   (exactly `sweeps` sweeps, in place; every smoother handles nine-point levels, red–black
+ *   becoming a four-colour ordering there).
+ * - `RESTRICTIONS` and `createTransfer(restriction, fine, coarse, { scaling? })` →
+ *   `{ restrict, interpolateAdd, interpolate }` (bilinear interpolation); `bilinearProlongation`,
+ *   `operatorProlongation` and `createProlongationTransfer` for interpolations given as weights.
+ * - `galerkinOperator(fine, { coarsening, restriction?, prolongation? })`: one Galerkin product.
  * - `CYCLES`, `cycle(h, level, gamma, params)` (V: γ = 1, W: γ = 2), `fCycle`, `fullMultigrid`
  *   on a `Hierarchy` from `buildHierarchy(problem, resolveOptions(options))`; level 0 is the finest.
  * - `createDirectSolver(level)` (banded LU of a level, factorized once) and `bandedLU`.
  * - A two-grid method with an exact coarse solve: `solve(p, { coarse: { maxLevels: 2 } })`.
- *
- * Coarse operators are rediscretized from injected coefficients and boundary data;
- * `coarse.operator: "galerkin"` is not implemented and is refused with a RangeError.
  *
  * @example
  * ```ts
@@ -45,11 +56,19 @@
  *
  * @module
  */
-export type { BoundaryCondition, BoundaryKind, Domain, Problem, Side } from "./problem.ts";
+export type {
+  BoundaryCondition,
+  BoundaryKind,
+  Conductivity,
+  Domain,
+  Problem,
+  Side,
+} from "./problem.ts";
 export { nodeCount, SIDES } from "./problem.ts";
 export type {
   CoarseOperatorName,
   CycleName,
+  InterpolationName,
   RestrictionName,
   SmootherName,
   SolveOptions,
@@ -60,6 +79,7 @@ export type {
 export { FLOOR_MULTIPLE, solve, STAGNATION_CYCLES, STAGNATION_FACTOR } from "./solve.ts";
 export {
   CYCLE_NAMES,
+  INTERPOLATION_NAMES,
   type ResolvedSolveOptions,
   resolveOptions,
   RESTRICTION_NAMES,
@@ -68,7 +88,16 @@ export {
 export { type AssembledSystem, assembleMatrix, residualNorm } from "./assemble.ts";
 export { isSingular, validateProblem } from "./validate.ts";
 export { type Discretization, discretize } from "./discretize.ts";
-export { levelLayout, type LevelOperator } from "./level.ts";
+export { discretizeConservative } from "./discretize_conservative.ts";
+export { isNinePoint, levelLayout, type LevelOperator, type NinePointOperator } from "./level.ts";
+export { galerkinOperator } from "./galerkin.ts";
+export {
+  bilinearProlongation,
+  operatorProlongation,
+  type Prolongation,
+  transposeRow,
+} from "./prolongation.ts";
+export { createProlongationTransfer } from "./prolongation_transfer.ts";
 export {
   createSmoother,
   type Smoother,
@@ -78,7 +107,9 @@ export {
 } from "./smoothers.ts";
 export {
   createTransfer,
+  restrictionRow,
   RESTRICTIONS,
+  type RestrictionScaling,
   type RestrictionWeights,
   type Transfer,
 } from "./transfer.ts";
@@ -90,8 +121,10 @@ export {
   chooseCoarsening,
   type Coarsening,
   coarsenProblem,
+  coarseOperatorFor,
   describeLevels,
   type Hierarchy,
+  interpolationFor,
   type Level,
 } from "./hierarchy.ts";
 export {

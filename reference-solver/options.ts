@@ -4,6 +4,10 @@
  *
  * @module
  */
+import type { InterpolationName } from "./prolongation.ts";
+
+/** Names of the interpolations (`prolongation.ts`). */
+export type { InterpolationName };
 
 /** Names of the registered smoothers (the same names appear on the command line and in reports). */
 export type SmootherName =
@@ -21,8 +25,9 @@ export type RestrictionName = "injection" | "half-weighting" | "full-weighting";
 export type CycleName = "V" | "W" | "F" | "fmg";
 
 /**
- * How coarse-level operators are built. Only "rediscretize" is implemented; "galerkin" is refused
- * by `resolveOptions` with a RangeError (kept in the type so callers' names stay stable).
+ * How coarse-level operators are built: "rediscretize" (the problem's coefficients and boundary
+ * data injected onto the coarse grid and discretized again) or "galerkin" (R·A·P with bilinear P
+ * and the restriction in its volume scaling, see `galerkin.ts`).
  */
 export type CoarseOperatorName = "rediscretize" | "galerkin";
 
@@ -55,12 +60,25 @@ export interface SolveOptions {
   };
   /** Grid transfers. */
   transfer?: {
-    /** Default: "full-weighting". Interpolation is always bilinear. */
+    /**
+     * Default: "full-weighting". With operator-dependent interpolation the restriction is the
+     * interpolation's volume-scaled transpose, and only "full-weighting" (its bilinear
+     * counterpart) is accepted here.
+     */
     restriction?: RestrictionName;
+    /**
+     * "bilinear" or "operator-dependent" (needs Galerkin coarse operators; see `prolongation.ts`).
+     * Default: "operator-dependent" for a Galerkin hierarchy of a problem with a conductivity,
+     * "bilinear" otherwise.
+     */
+    interpolation?: InterpolationName;
   };
   /** Coarse levels and the coarsest-grid solve. */
   coarse?: {
-    /** Default: "rediscretize". */
+    /**
+     * Default: chosen per problem — "galerkin" for a problem with a conductivity (robust for
+     * jumping coefficients), "rediscretize" otherwise.
+     */
     operator?: CoarseOperatorName;
     /**
      * Stop coarsening when the grid has at most this many unknowns, then solve by banded LU.
@@ -148,7 +166,7 @@ export interface SolverDescription {
   /** Restriction operator. */
   restriction: RestrictionName;
   /** Interpolation operator. */
-  interpolation: "bilinear";
+  interpolation: InterpolationName;
   /** How coarse operators were built. */
   coarseOperator: CoarseOperatorName;
   /** Finest first. */

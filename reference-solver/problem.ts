@@ -6,7 +6,10 @@
  * hy = (y1 − y0)/ny (hx may differ from hy). Node (i, j), 0 ≤ i ≤ nx, 0 ≤ j ≤ ny, sits at
  * (x0 + i·hx, y0 + j·hy) and is stored at index `j·(nx + 1) + i` (x fastest).
  *
- * Operator: a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f, elliptic where a·c > 0.
+ * Operator, non-conservative form: a·u_xx + m·u_xy + c·u_yy + b·u_x + d·u_y + e·u = f, elliptic
+ * where a·c > 0 and, with m, 4ac − m² > 0 (`discretize.ts`). Conservative form, when a
+ * {@link Conductivity} is given: ∇·(K∇u) + b·u_x + d·u_y + e·u = f with K sampled at the edge
+ * midpoints (`discretize_conservative.ts`).
  *
  * @module
  */
@@ -68,6 +71,30 @@ export interface Problem {
   f: Float64Array;
   /** The condition on each side. */
   boundary: Record<Side, BoundaryCondition>;
+  /**
+   * Coefficient of u_xy at the nodes (non-conservative form): a·u_xx + m·u_xy + c·u_yy + b·u_x +
+   * d·u_y + e·u = f, elliptic where a > 0, c > 0 and 4ac − m² > 0. Absent: zero.
+   */
+  m?: Float64Array;
+  /**
+   * The conservative form. When present the operator is ∇·(K∇u) + b·u_x + d·u_y + e·u = f with
+   * the symmetric tensor K = [[k11, k12], [k12, k22]] (positive definite), and a, c and m are not
+   * used. Neumann and Robin data then refer to the conormal flux (K∇u)·n (n the outward normal):
+   * Neumann (K∇u)·n = g, Robin α·u + β·(K∇u)·n = g.
+   */
+  conductivity?: Conductivity;
+}
+
+/**
+ * K sampled where a flux-form scheme needs it: at the midpoints of the grid edges. A value on a
+ * material interface is already the effective one (harmonic mean of the one-sided values for a
+ * flux across the interface, arithmetic mean for a flux along it), so the solver never averages.
+ */
+export interface Conductivity {
+  /** At the midpoints of the edges along x, (x0 + (i + ½)·hx, y0 + j·hy): nx·(ny + 1) values, index j·nx + i. */
+  alongX: { k11: Float64Array; k12?: Float64Array };
+  /** At the midpoints of the edges along y, (x0 + i·hx, y0 + (j + ½)·hy): (nx + 1)·ny values, index j·(nx + 1) + i. */
+  alongY: { k12?: Float64Array; k22: Float64Array };
 }
 
 /** Number of nodes of a problem's grid: (nx + 1)(ny + 1). */

@@ -3,7 +3,14 @@
  *
  * @module
  */
-import type { CycleName, RestrictionName, SmootherName, SolveOptions } from "./options.ts";
+import type {
+  CoarseOperatorName,
+  CycleName,
+  InterpolationName,
+  RestrictionName,
+  SmootherName,
+  SolveOptions,
+} from "./options.ts";
 
 /** Registered smoother names, in the order reports list them. */
 export const SMOOTHER_NAMES: readonly SmootherName[] = [
@@ -20,6 +27,8 @@ export const RESTRICTION_NAMES: readonly RestrictionName[] = [
   "half-weighting",
   "full-weighting",
 ];
+/** Interpolation names. */
+export const INTERPOLATION_NAMES: readonly InterpolationName[] = ["bilinear", "operator-dependent"];
 /** Registered cycle names. */
 export const CYCLE_NAMES: readonly CycleName[] = ["V", "W", "F", "fmg"];
 
@@ -37,11 +46,12 @@ export interface ResolvedSolveOptions {
   };
   /** Smoother name and Jacobi weight. */
   smoother: { name: SmootherName; omega: number };
-  /** Restriction (interpolation is bilinear). */
-  transfer: { restriction: RestrictionName };
+  /** Restriction and interpolation ("auto": see `interpolationFor` in hierarchy.ts). */
+  transfer: { restriction: RestrictionName; interpolation: InterpolationName | "auto" };
   /** Coarsening and the coarsest-grid solve. */
   coarse: {
-    operator: "rediscretize";
+    /** "auto": Galerkin for a problem with a conductivity, rediscretization otherwise. */
+    operator: CoarseOperatorName | "auto";
     maxDirectUnknowns: number;
     semiCoarsening: boolean;
     maxLevels: number;
@@ -58,7 +68,7 @@ const GROUPS: Record<string, readonly string[]> = {
   scheme: ["upwind"],
   cycle: ["type", "pre", "post", "fmgCycle", "fmgCyclesPerLevel"],
   smoother: ["name", "omega"],
-  transfer: ["restriction"],
+  transfer: ["restriction", "interpolation"],
   coarse: ["operator", "maxDirectUnknowns", "semiCoarsening", "maxLevels"],
   stop: ["tolerance", "maxCycles", "divergenceFactor"],
 };
@@ -99,14 +109,16 @@ function bool(path: string, value: unknown): boolean {
  * Returns the fully defaulted options of a solve.
  *
  * Defaults: central scheme; V(2,1) cycles (FMG uses one V per level); red–black Gauss–Seidel
- * (ω = 0.8 for Jacobi); full weighting; rediscretized coarse operators, direct solve at ≤ 81
+ * (ω = 0.8 for Jacobi); full weighting; coarse operators "auto" (Galerkin for a problem with a
+ * conductivity, rediscretized otherwise) and interpolation "auto" (operator-dependent for those
+ * Galerkin hierarchies, bilinear otherwise), direct solve at ≤ 81
  * unknowns, semi-coarsening allowed, at most 50 levels; tolerance 1e-10, 100 cycles, divergence
  * factor 1e3; singular problems refused; no initial guess.
  *
  * @param options Partial options, nested by role.
  * @returns The options with every field present.
  * @throws {RangeError} For an unknown key (naming its dotted path and the valid keys), an unknown
- * component name (listing the valid names), a bad value, or `coarse.operator: "galerkin"`.
+ * component name (listing the valid names), or a bad value.
  *
  * @example
  * ```ts
@@ -142,15 +154,29 @@ export function resolveOptions(options: SolveOptions = {}): ResolvedSolveOptions
   const transfer = options.transfer ?? {};
   const coarse = options.coarse ?? {};
   const stop = options.stop ?? {};
-  const operator = oneOf("coarse.operator", coarse.operator ?? "rediscretize", [
-    "rediscretize",
-    "galerkin",
-  ]);
-  if (operator === "galerkin") {
+  const operator = coarse.operator === undefined
+    ? "auto"
+    : oneOf("coarse.operator", coarse.operator, ["rediscretize", "galerkin"]);
+  const interpolation = transfer.interpolation === undefined
+    ? "auto"
+    : oneOf("transfer.interpolation", transfer.interpolation, INTERPOLATION_NAMES);
+  const restriction = oneOf(
+    "transfer.restriction",
+    transfer.restriction ?? "full-weighting",
+    RESTRICTION_NAMES,
+  );
+  if (interpolation === "operator-dependent" && operator === "rediscretize") {
     refuse(
-      "coarse.operator",
-      operator,
-      'Galerkin coarse operators are not implemented; use "rediscretize"',
+      "transfer.interpolation",
+      interpolation,
+      'operator-dependent interpolation needs Galerkin coarse operators; set coarse.operator to "galerkin" or use "bilinear"',
+    );
+  }
+  if (interpolation === "operator-dependent" && restriction !== "full-weighting") {
+    refuse(
+      "transfer.restriction",
+      restriction,
+      "with operator-dependent interpolation the restriction is its transpose; leave transfer.restriction at full-weighting or use bilinear interpolation",
     );
   }
   const pre = integer("cycle.pre", cycle.pre ?? 2, 0);
@@ -177,15 +203,9 @@ export function resolveOptions(options: SolveOptions = {}): ResolvedSolveOptions
       name: oneOf("smoother.name", smoother.name ?? "red-black", SMOOTHER_NAMES),
       omega: positive("smoother.omega", smoother.omega ?? 0.8, 2),
     },
-    transfer: {
-      restriction: oneOf(
-        "transfer.restriction",
-        transfer.restriction ?? "full-weighting",
-        RESTRICTION_NAMES,
-      ),
-    },
+    transfer: { restriction, interpolation },
     coarse: {
-      operator: "rediscretize",
+      operator,
       maxDirectUnknowns: integer("coarse.maxDirectUnknowns", coarse.maxDirectUnknowns ?? 81, 1),
       semiCoarsening: bool("coarse.semiCoarsening", coarse.semiCoarsening ?? true),
       maxLevels: integer("coarse.maxLevels", coarse.maxLevels ?? 50, 1),

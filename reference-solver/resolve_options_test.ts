@@ -7,9 +7,9 @@ Deno.test("resolveOptions() fills every documented default", () => {
     scheme: { upwind: false },
     cycle: { type: "V", pre: 2, post: 1, fmgCycle: "V", fmgCyclesPerLevel: 1 },
     smoother: { name: "red-black", omega: 0.8 },
-    transfer: { restriction: "full-weighting" },
+    transfer: { restriction: "full-weighting", interpolation: "auto" },
     coarse: {
-      operator: "rediscretize",
+      operator: "auto",
       maxDirectUnknowns: 81,
       semiCoarsening: true,
       maxLevels: 50,
@@ -19,6 +19,7 @@ Deno.test("resolveOptions() fills every documented default", () => {
     initialGuess: undefined,
   });
   assert.equal(resolveOptions({ cycle: { type: "W", pre: 1 } }).cycle.pre, 1);
+  assert.equal(resolveOptions({ coarse: { operator: "galerkin" } }).coarse.operator, "galerkin");
 });
 
 Deno.test("resolveOptions() refuses unknown keys by dotted path and lists the valid keys", async (t) => {
@@ -56,13 +57,21 @@ Deno.test("resolveOptions() refuses unknown component names and lists the valid 
   );
 });
 
-Deno.test("resolveOptions() refuses bad values and the unimplemented Galerkin operator", () => {
+Deno.test("resolveOptions() refuses bad values and an unknown coarse operator", () => {
   const bad: [unknown, RegExp][] = [
     [{ cycle: { pre: -1 } }, /cycle\.pre.*integer ≥ 0/],
     [{ cycle: { pre: 0, post: 0 } }, /at least 1 sweep/],
     [{ smoother: { omega: 2.5 } }, /smoother\.omega.*< 2/],
     [{ stop: { tolerance: 0 } }, /stop\.tolerance/],
-    [{ coarse: { operator: "galerkin" } }, /Galerkin coarse operators are not implemented/],
+    [{ coarse: { operator: "algebraic" } }, /coarse\.operator.*rediscretize, galerkin/],
+    [
+      { coarse: { operator: "rediscretize" }, transfer: { interpolation: "operator-dependent" } },
+      /transfer\.interpolation.*needs Galerkin coarse operators/,
+    ],
+    [
+      { transfer: { interpolation: "operator-dependent", restriction: "injection" } },
+      /transfer\.restriction.*restriction is its transpose/,
+    ],
     [{ singular: "ignore" }, /singular/],
     [{ scheme: { upwind: "yes" } }, /scheme\.upwind.*true or false/],
   ];

@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { LevelOperator } from "./level.ts";
+import { isNinePoint, type LevelOperator } from "./level.ts";
 import type { SmootherName } from "./options.ts";
 import {
   gaussSeidelSweep,
@@ -36,11 +36,17 @@ export type SmootherFactory = (level: LevelOperator, params: SmootherParams) => 
  * Registered smoothers, by the names used in options, on the command line and in reports:
  * - `jacobi`: weighted Jacobi u ← u + ω·D⁻¹(f − A·u);
  * - `gauss-seidel`: lexicographic point Gauss–Seidel (x fastest);
- * - `red-black`: red–black point Gauss–Seidel, red (i + j even) first;
+ * - `red-black`: red–black point Gauss–Seidel, red (i + j even) first; on a nine-point level
+ *   (corner couplings) a four-colour Gauss–Seidel with the colours (i mod 2, j mod 2), since two
+ *   colours no longer decouple;
  * - `line-x` / `line-y`: lexicographic line Gauss–Seidel, each x-line (row) / y-line (column)
  *   solved exactly by the Thomas algorithm;
  * - `alternating-line`: zebra x-lines (even rows, then odd) followed by zebra y-lines (even
  *   columns, then odd) — one sweep does both directions.
+ *
+ * Every smoother works on five- and nine-point levels alike: the point smoothers use the whole
+ * stencil, the line smoothers solve the tridiagonal part along the line and take the other
+ * couplings (including the corners) with the current values.
  */
 export const SMOOTHERS = {
   "jacobi": (level, params) => {
@@ -63,7 +69,10 @@ export const SMOOTHERS = {
     smooth(u, f, sweeps) {
       for (let s = 0; s < sweeps; s++) redBlackSweep(level, u, f);
     },
-    describe: () => ({ name: "red-black", order: "red (i+j even) first" }),
+    describe: () =>
+      isNinePoint(level)
+        ? { name: "red-black", order: "four colours (i mod 2, j mod 2) on this nine-point level" }
+        : { name: "red-black", order: "red (i+j even) first" },
   }),
   "line-x": (level) => {
     const fac = lineFactors(level, "x");

@@ -13,8 +13,9 @@ const zeroSolution = {
 };
 
 Deno.test("jacobi smoother multiplies a discrete sine mode by exactly 1 − ω(sin²(kπh/2) + sin²(lπh/2))", async (t) => {
-  // Derived (CHECK-VALUES.md): sin(kπx)·sin(lπy) is an eigenvector of the 5-point Laplacian with
-  // Dirichlet sides, so one weighted Jacobi sweep on A·e = 0 scales it by that factor.
+  // Derived (docs/check-values.md, "Exact facts of central differences"): sin(kπx)·sin(lπy) is an
+  // eigenvector of the 5-point Laplacian with Dirichlet sides, so one weighted Jacobi sweep on
+  // A·e = 0 scales it by that factor.
   const n = 16, h = 1 / n;
   const level = buildLevel(manufactured(LAPLACE, zeroSolution, { nx: n, ny: n }, ALL_DIRICHLET));
   for (const [k, l, omega] of [[1, 1, 0.8], [3, 5, 0.8], [8, 8, 0.8], [15, 2, 0.5], [7, 12, 1]]) {

@@ -40,8 +40,8 @@ function describe(h: Hierarchy, o: ResolvedSolveOptions): SolverDescription {
     post: o.cycle.post,
     smoother: finest.smoother?.describe() ?? { name: o.smoother.name, unused: "direct solve only" },
     restriction: o.transfer.restriction,
-    interpolation: "bilinear",
-    coarseOperator: "rediscretize",
+    interpolation: h.interpolation,
+    coarseOperator: h.coarseOperator,
     levels: h.levels.map((L) => ({ nx: L.op.nx, ny: L.op.ny, coarsening: L.coarsening })),
     tolerance: o.stop.tolerance,
     maxCycles: o.stop.maxCycles,
@@ -49,8 +49,9 @@ function describe(h: Hierarchy, o: ResolvedSolveOptions): SolverDescription {
 }
 
 /**
- * Solves a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f by geometric multigrid (discretization in
- * `discretize.ts`).
+ * Solves a·u_xx + m·u_xy + c·u_yy + b·u_x + d·u_y + e·u = f, or with a conductivity
+ * ∇·(K∇u) + b·u_x + d·u_y + e·u = f, by geometric multigrid (discretizations in `discretize.ts`
+ * and `discretize_conservative.ts`; coarse operators in `hierarchy.ts`).
  *
  * Stopping: converged when ‖r_k‖₂ ≤ tolerance·‖r₀‖₂; diverged when ‖r_k‖ is not finite or exceeds
  * divergenceFactor·‖r₀‖; stagnated when {@link STAGNATION_CYCLES} consecutive cycles each reduce

@@ -59,7 +59,8 @@ Deno.test("describeLevels() coarsens the finer direction alone until the mesh is
 });
 
 Deno.test("solve() with maxLevels 2 is a two-grid method whose red-black factor matches LFA", () => {
-  // From memory, re-derived by LFA (CHECK-VALUES.md): two-grid factor 0.074 for red-black with
+  // From memory, re-derived by LFA (docs/check-values.md, "Multigrid behaviour"): two-grid factor
+  // 0.074 for red-black with
   // ν = 2, 5-point Poisson, full weighting, bilinear interpolation; "within about 2 %" on the unit
   // square. Asserted here within 15 % (the asymptotic factor of a short run).
   const zero = { u: () => 0, ux: () => 0, uy: () => 0, uxx: () => 0, uyy: () => 0 };

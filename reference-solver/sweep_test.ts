@@ -16,12 +16,13 @@ const COEF = {
   e: (x: number, y: number) => -(1 + x * y),
 };
 
-// Bound per smoother = 1.5 × an LFA estimate for ν = ν1 + ν2 = 3 sweeps (CHECK-VALUES.md,
-// Trottenberg et al. / Briggs et al.): smoothing factor μ cubed (common practice: ρ ≈ μ^ν) for
-// Jacobi ω = 4/5 (μ = 0.6, published), lexicographic Gauss–Seidel (μ = 0.5, published) and x- or
-// y-line Gauss–Seidel (μ = 1/√5, from memory, re-derived by LFA); the two-grid factor 0.053 for
-// red–black with ν = 3 (from memory, re-derived by LFA); 0.048 per alternating zebra sweep
-// (from memory). The margin 1.5 covers variable coefficients, V/F-cycles vs two-grid, and 32×32.
+// Bound per smoother = 1.5 × an LFA estimate for ν = ν1 + ν2 = 3 sweeps (docs/check-values.md,
+// "Multigrid behaviour", Trottenberg et al. / Briggs et al.): smoothing factor μ cubed (common
+// practice: ρ ≈ μ^ν) for Jacobi ω = 4/5 (μ = 0.6, published), lexicographic Gauss–Seidel
+// (μ = 0.5, published) and x- or y-line Gauss–Seidel (μ = 1/√5, from memory, re-derived by LFA);
+// the two-grid factor 0.053 for red–black with ν = 3 (from memory, re-derived by LFA); 0.048 per
+// alternating zebra sweep (from memory). The margin 1.5 covers variable coefficients, V/F-cycles
+// vs two-grid, and 32×32.
 const BOUND: Record<SmootherName, number> = {
   "jacobi": 1.5 * 0.6 ** 3,
   "gauss-seidel": 1.5 * 0.5 ** 3,

@@ -14,6 +14,14 @@
  * Robin boundary rows are unknowns written in the same scaling as interior rows). Coarse Dirichlet
  * rows get zero (their error is zero).
  *
+ * With `scaling: "volume"` (used with Galerkin coarse operators) each weight is first multiplied
+ * by the control-volume fraction of its fine node (1 inside, ½ on a side, ¼ at a corner), then the
+ * row is rescaled to sum one. For full weighting this is R = M_c⁻¹·Pᵀ·M with M, M_c the diagonal
+ * matrices of fine and coarse control volumes: the rows of a level are balances divided by their
+ * volume (A = M⁻¹·S), so R·A·P = M_c⁻¹·(Pᵀ·S·P) is the variational coarse operator in the same
+ * per-volume scaling. Coarse nodes away from the boundary are unaffected (all their fine nodes
+ * have full volumes).
+ *
  * @module
  */
 import type { LevelOperator } from "./level.ts";
@@ -51,12 +59,58 @@ export const RESTRICTIONS = {
   },
 } satisfies Record<RestrictionName, RestrictionWeights>;
 
+/** How restriction rows are rescaled near the boundary (see the module doc). Default "grid". */
+export type RestrictionScaling = "grid" | "volume";
+
+/**
+ * The nine weights w[(dj+1)·3 + (di+1)] with which coarse node (I, J) takes the fine residual at
+ * (cx·I + di, cy·J + dj), after the boundary rescaling of the module doc (Dirichlet rows aside).
+ *
+ * @param w The 3×3 weights of the restriction away from the boundary.
+ * @param fine Fine grid counts.
+ * @param c Coarsening factors and the coarse node.
+ * @param scaling "grid" or "volume".
+ * @returns Nine weights summing to one; zero where the fine node is off the grid.
+ *
+ * @example
+ * ```ts
+ * import { RESTRICTIONS, restrictionRow } from "./transfer.ts";
+ * const w = RESTRICTIONS["full-weighting"](2, 2);
+ * const r = restrictionRow(w, { nx: 8, ny: 8 }, { cx: 2, cy: 2, I: 0, J: 2 }, "volume");
+ * if (r[4] !== 0.25 || r[5] !== 0.25 || r[1] !== 0.125) throw new Error("M_c⁻¹·Pᵀ·M on a side");
+ * ```
+ */
+export function restrictionRow(
+  w: Float64Array,
+  fine: { nx: number; ny: number },
+  c: { cx: 1 | 2; cy: 1 | 2; I: number; J: number },
+  scaling: RestrictionScaling,
+): Float64Array {
+  const out = new Float64Array(9);
+  let sum = 0;
+  for (let dj = -1; dj <= 1; dj++) {
+    for (let di = -1; di <= 1; di++) {
+      const i = c.cx * c.I + di, j = c.cy * c.J + dj;
+      if (i < 0 || i > fine.nx || j < 0 || j > fine.ny) continue;
+      let v = w[(dj + 1) * 3 + di + 1];
+      if (scaling === "volume") {
+        v *= (i === 0 || i === fine.nx ? 0.5 : 1) * (j === 0 || j === fine.ny ? 0.5 : 1);
+      }
+      out[(dj + 1) * 3 + di + 1] = v;
+      sum += v;
+    }
+  }
+  for (let m = 0; m < 9; m++) out[m] /= sum;
+  return out;
+}
+
 /**
  * Builds the transfer between a fine level and its coarse level.
  *
  * @param restriction A key of {@link RESTRICTIONS}.
  * @param fine The fine level operator.
  * @param coarse The coarse level operator (nx/cx × ny/cy).
+ * @param options `scaling`: "grid" (default) or "volume", see the module doc.
  * @returns The transfer pair, set up once (boundary rescaling precomputed).
  * @throws {RangeError} For an unknown restriction or grids that do not nest.
  *
@@ -76,7 +130,9 @@ export function createTransfer(
   restriction: RestrictionName,
   fine: LevelOperator,
   coarse: LevelOperator,
+  options: { scaling?: RestrictionScaling } = {},
 ): Transfer {
+  const scaling = options.scaling ?? "grid";
   const make = (RESTRICTIONS as Record<string, RestrictionWeights>)[restriction];
   if (make === undefined) {
     throw new RangeError(
@@ -108,6 +164,21 @@ export function createTransfer(
     }
   }
   const boundaryIndex = Int32Array.from(bIdx), boundaryScale = Float64Array.from(bScale);
+  // With volume scaling, every coarse boundary node gets its own nine weights (fine index
+  // offsets alongside), recomputed after the interior formula.
+  const vIdx: number[] = [], vFine: number[] = [], vW: number[] = [];
+  if (scaling === "volume") {
+    for (let J = 0; J <= coarse.ny; J++) {
+      for (let I = 0; I <= coarse.nx; I++) {
+        if (I !== 0 && I !== coarse.nx && J !== 0 && J !== coarse.ny) continue;
+        vIdx.push(coarse.index(I, J));
+        vFine.push(fine.index(cx * I, cy * J));
+        vW.push(...restrictionRow(w, fine, { cx, cy, I, J }, "volume"));
+      }
+    }
+  }
+  const volIndex = Int32Array.from(vIdx), volFine = Int32Array.from(vFine);
+  const volW = Float64Array.from(vW);
   const cDirichlet = coarse.dirichlet;
   const fs = fine.stride, cs = coarse.stride, cnx = coarse.nx, cny = coarse.ny;
   const [w0, w1, w2, w3, w4, w5, w6, w7, w8] = w;
@@ -177,7 +248,18 @@ export function createTransfer(
             w6 * r[k + fs - 1] + w7 * r[k + fs] + w8 * r[k + fs + 1];
         }
       }
-      for (let m = 0; m < boundaryIndex.length; m++) out[boundaryIndex[m]] *= boundaryScale[m];
+      if (scaling === "grid") {
+        for (let m = 0; m < boundaryIndex.length; m++) out[boundaryIndex[m]] *= boundaryScale[m];
+      } else {
+        for (let m = 0; m < volIndex.length; m++) {
+          const k = volFine[m], o = 9 * m;
+          let v = 0;
+          for (let dj = -1, t = o; dj <= 1; dj++) {
+            for (let di = -1; di <= 1; di++, t++) v += volW[t] * r[k + dj * fs + di];
+          }
+          out[volIndex[m]] = v;
+        }
+      }
       for (let m = 0; m < cDirichlet.length; m++) out[cDirichlet[m]] = 0;
     },
     interpolateAdd: cx === 2 && cy === 2
@@ -186,6 +268,7 @@ export function createTransfer(
     interpolate: (c, f) => interp(c, f, false),
     describe: () => ({
       restriction,
+      ...(scaling === "volume" ? { scaling } : {}),
       interpolation: "bilinear",
       coarsening: cx === 2 && cy === 2 ? "both" : cx === 2 ? "x" : "y",
     }),

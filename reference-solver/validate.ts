@@ -4,6 +4,7 @@
  * @module
  */
 import { type BoundaryCondition, type Problem, SIDES } from "./problem.ts";
+import { validateForms } from "./validate_forms.ts";
 
 const COEFFICIENTS = ["a", "b", "c", "d", "e", "f"] as const;
 
@@ -36,7 +37,9 @@ function where(problem: Problem, i: number, j: number): string {
 
 /**
  * Validates a problem: grid counts, domain, array types and lengths, finite values, ellipticity
- * (a·c > 0 at every node), boundary conditions, and singularity.
+ * (a·c > 0 at every node, unless a conductivity replaces a and c), boundary conditions, the mixed
+ * coefficient m and the conductivity (see `validate_forms.ts`: 4ac − m² > 0, K positive
+ * definite, m = 0 at corners between two Neumann/Robin sides), and singularity.
  *
  * @param problem The problem to check.
  * @param options `singular`: "refuse" (default) throws for a singular problem; "mean-zero" accepts it.
@@ -95,7 +98,8 @@ export function validateProblem(
     }
   }
   const { a, c } = problem;
-  for (let k = 0; k < count; k++) {
+  // With a conductivity, a and c are not used (the conservative form replaces them).
+  for (let k = 0; k < count && problem.conductivity === undefined; k++) {
     if (!(a[k] * c[k] > 0)) {
       const i = k % (nx + 1), j = (k - i) / (nx + 1);
       throw new RangeError(
@@ -154,6 +158,7 @@ export function validateProblem(
       }
     }
   }
+  validateForms(problem);
   const singular = isSingular(problem);
   if (singular && (options.singular ?? "refuse") === "refuse") {
     throw new RangeError(

@@ -1,7 +1,7 @@
 /**
  * Checks the hand-derived derivatives of the manufactured solutions and the outward-normal boundary
  * data against central finite differences of the value at random points (common practice: an
- * independent check of derived source terms, ../shared/CHECK-VALUES.md).
+ * independent check of derived source terms, docs/check-values.md, "Independent libraries").
  */
 import assert from "node:assert/strict";
 import { assertClose } from "../../testing/mod.ts";

@@ -1,7 +1,8 @@
 /**
  * Smoothers on the anisotropic operator ε·u_xx + u_yy (ε = 1e-3) with full coarsening, against
  * local Fourier analysis (Trottenberg, Oosterlee, Schüller, Multigrid, 2001, §5.1; from memory,
- * re-derived for the single-symbol smoothers in `_lfa.ts`, see ../shared/CHECK-VALUES.md):
+ * re-derived for the single-symbol smoothers in `_lfa.ts`, see docs/check-values.md, "Multigrid
+ * behaviour"):
  * - point smoothers (Jacobi, lexicographic and red–black Gauss–Seidel) have μ → 1 as ε → 0, so the
  *   V-cycle factor goes close to 1; so does line relaxation across the strong coupling (line-x
  *   here);

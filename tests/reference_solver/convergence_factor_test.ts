@@ -2,8 +2,9 @@
  * Convergence factors of red–black Gauss–Seidel multigrid for the 5-point Poisson operator against
  * local Fourier analysis (Trottenberg, Oosterlee, Schüller, Multigrid, Academic Press, 2001; the
  * two-grid values 0.250, 0.074, 0.053, 0.041 for ν = 1…4 are recalled from memory, see
- * ../shared/CHECK-VALUES.md, and re-derived here by the LFA in `_lfa.ts`), and grid independence of
- * V-cycle factors (Briggs, Henson, McCormick, A Multigrid Tutorial, 2nd ed., SIAM, 2000; published).
+ * docs/check-values.md, "Multigrid behaviour", and re-derived here by the LFA in `_lfa.ts`), and
+ * grid independence of V-cycle factors (Briggs, Henson, McCormick, A Multigrid Tutorial, 2nd ed.,
+ * SIAM, 2000; published).
  */
 import assert from "node:assert/strict";
 import { assertClose } from "../../testing/mod.ts";
@@ -31,8 +32,9 @@ Deno.test("a real red–black two-grid iteration on the unit square converges at
   // Two grids: 64 × 64 fine grid, exact (banded LU) solve on 32 × 32; full weighting, bilinear
   // interpolation (the solver's defaults). The measured factor is the spectral radius of the real
   // iteration (Dirichlet boundary, discrete frequencies); LFA ignores the boundary, and the claim
-  // in ../shared/CHECK-VALUES.md is agreement within about 2 %. Measured when this test was
-  // written: 0.2488, 0.0736, 0.0525, 0.0407 (0.4–0.6 % below the recomputed LFA values).
+  // in docs/check-values.md ("Multigrid behaviour") is agreement within about 2 %. Measured when
+  // this test was written: 0.2488, 0.0736, 0.0525, 0.0407 (0.4–0.6 % below the recomputed LFA
+  // values).
   for (const [nu, pre, post, recalled] of TWO_GRID) {
     await t.step(`ν = ${nu} (ν1 = ${pre}, ν2 = ${post})`, () => {
       const lfa = redBlackTwoGridFactor(nu, 128);

@@ -1,9 +1,10 @@
 /**
  * Exactness of the discretization on polynomials (derived facts of central differences,
- * ../shared/CHECK-VALUES.md): central first and second differences and the central ghost-node
- * boundary formulas are exact for quadratics, so a quadratic solution is reproduced to round-off
- * with every coefficient variable and every boundary kind; the second difference alone is exact
- * for cubics, so a cubic is reproduced for a·u_xx + c·u_yy + e·u with Dirichlet sides.
+ * docs/check-values.md, "Exact facts of central differences"): central first and second
+ * differences and the central ghost-node boundary formulas are exact for quadratics, so a quadratic
+ * solution is reproduced to round-off with every coefficient variable and every boundary kind; the
+ * second difference alone is exact for cubics, so a cubic is reproduced for a·u_xx + c·u_yy + e·u
+ * with Dirichlet sides.
  *
  * The solve goes through the multigrid solver with a deep hierarchy (a small direct-solve
  * threshold), hx ≠ hy and counts that force semi-coarsening, on a non-unit rectangle.

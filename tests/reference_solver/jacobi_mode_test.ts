@@ -1,6 +1,7 @@
 /**
- * One weighted-Jacobi sweep on a discrete sine mode (derived, ../shared/CHECK-VALUES.md): the modes
- * sin(kπx)·sin(lπy) are eigenvectors of the 5-point Dirichlet Laplacian, with eigenvalue
+ * One weighted-Jacobi sweep on a discrete sine mode (derived, docs/check-values.md, "Exact facts of
+ * central differences"): the modes sin(kπx)·sin(lπy) are eigenvectors of the 5-point Dirichlet
+ * Laplacian, with eigenvalue
  * −(4/hx²)·sin²(kπhx/2) − (4/hy²)·sin²(lπhy/2), and weighted Jacobi for A·u = 0 maps u to
  * (I − ω·D⁻¹A)·u with D = −2/hx² − 2/hy², so one sweep multiplies the mode by exactly
  *   g = 1 − 2ω·(sin²(kπhx/2)/hx² + sin²(lπhy/2)/hy²)/(1/hx² + 1/hy²),
@@ -40,7 +41,8 @@ function checkMode(nx: number, ny: number, k: number, l: number, omega: number):
   const sy = Math.sin(l * Math.PI * hy / 2) ** 2 / (hy * hy);
   const g = 1 - 2 * omega * (sx + sy) / (1 / (hx * hx) + 1 / (hy * hy));
   if (nx === ny) {
-    // the form quoted in ../shared/CHECK-VALUES.md for hx = hy = h
+    // the form quoted in docs/check-values.md ("Exact facts of central differences") for
+    // hx = hy = h
     const h = hx;
     const quoted = 1 -
       omega * (Math.sin(k * Math.PI * h / 2) ** 2 + Math.sin(l * Math.PI * h / 2) ** 2);

@@ -1,10 +1,10 @@
 /**
  * Observed order of accuracy of the reference solver (method of manufactured solutions: Salari &
  * Knupp, SAND2000-1444, 2000; Roache, J. Fluids Eng. 124:4–10, 2002 — published, see
- * ../shared/CHECK-VALUES.md): for a second-order scheme the error falls by a factor of 4 per
- * halving of h in the asymptotic range, for first-order upwinding by 2. The manufactured solution
- * and its source terms are derived by hand in `_manufactured.ts` (checked by finite differences in
- * `_manufactured_test.ts`).
+ * docs/check-values.md, "Manufactured solutions and order of accuracy"): for a second-order
+ * scheme the error falls by a factor of 4 per halving of h in the asymptotic range, for first-order
+ * upwinding by 2. The manufactured solution and its source terms are derived by hand in
+ * `_manufactured.ts` (checked by finite differences in `_manufactured_test.ts`).
  */
 import assert from "node:assert/strict";
 import { solve } from "../../reference-solver/mod.ts";
@@ -97,8 +97,9 @@ Deno.test("solve() with upwinding shows observed order 1 when b and d dominate t
 });
 
 Deno.test("solve() gives the derived max errors for u = x⁴ under the Laplacian on the unit square", () => {
-  // derived (../shared/CHECK-VALUES.md, recomputed independently with SciPy while writing this
-  // test): u = x⁴, a = c = 1, b = d = e = 0, Dirichlet sides, h = 1/4 … 1/32
+  // derived (docs/check-values.md, "Exact facts of central differences"; recomputed independently
+  // with SciPy while writing this test): u = x⁴, a = c = 1, b = d = e = 0, Dirichlet sides,
+  // h = 1/4 … 1/32
   const expected: [number, number][] = [
     [4, 8.789062e-03],
     [8, 2.274457e-03],

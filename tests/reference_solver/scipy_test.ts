@@ -1,5 +1,5 @@
 /**
- * The multigrid solution against an independent library (../shared/CHECK-VALUES.md, "Independent
+ * The multigrid solution against an independent library (docs/check-values.md, "Independent
  * libraries"): `scipy_reference.py` assembles the same discrete system from the raw problem arrays,
  * following only the written discretization contract (no code shared with the solver), and solves
  * it with SciPy's sparse direct solver (`scipy.sparse.linalg.spsolve`, SuperLU, from Debian's
