@@ -16,6 +16,21 @@ export interface SideSpec {
   beta?: number;
 }
 
+/** The conservative form's conductivity: one expression (K = k·I) or a symmetric tensor. */
+export type ConductivityText = ExpressionText | {
+  k11: ExpressionText;
+  k12?: ExpressionText;
+  k22: ExpressionText;
+};
+
+/** What one region of a case with interfaces gives for itself (the rest comes from the top level). */
+export interface RegionSpec {
+  conductivity?: ConductivityText;
+  advection?: { x?: ExpressionText; y?: ExpressionText };
+  reaction?: ExpressionText;
+  exact?: ExpressionText;
+}
+
 /** A case file's content, field for field (see `cases/case.schema.json` for the meaning of each). */
 export interface CaseFile {
   $schema?: string;
@@ -25,14 +40,29 @@ export interface CaseFile {
   manufactured: string;
   domain: { x0: number; x1: number; y0: number; y1: number };
   aspect?: number;
-  coefficients: {
+  /** The operator's form. Default: "non-conservative". */
+  form?: "non-conservative" | "conservative";
+  /** The non-conservative form's coefficients (m, of u_xy, defaults to 0). */
+  coefficients?: {
     a: ExpressionText;
     b: ExpressionText;
     c: ExpressionText;
     d: ExpressionText;
     e: ExpressionText;
+    m?: ExpressionText;
   };
-  exact: ExpressionText;
+  /** The conservative form: K in ∇·(K∇u). */
+  conductivity?: ConductivityText;
+  /** The conservative form: β in β·∇u (each component defaults to 0). */
+  advection?: { x?: ExpressionText; y?: ExpressionText };
+  /** The conservative form: σ in σ·u. Default: 0. */
+  reaction?: ExpressionText;
+  /** The exact solution; may be left out when every region gives its own. */
+  exact?: ExpressionText;
+  /** Material interfaces (conservative form only): lines x = const and y = const. */
+  interfaces?: { x?: number[]; y?: number[] };
+  /** Per region (west to east, then south to north), what differs from the top level. */
+  regions?: RegionSpec[];
   boundary: Record<Side, SideSpec>;
   parameters?: Record<string, number>;
   expected: { central: ExpectedOrder; upwind?: ExpectedOrder };

@@ -11,13 +11,17 @@ Deno.test("compiled functions agree with mathjs evaluate to round-off on every b
   // Independent library: mathjs's own evaluator (docs/check-values.md, "Independent libraries").
   const math = await loadMath();
   const random = mulberry32(20240601);
-  for (const file of await libraryFiles()) {
+  // the non-conservative cases: their coefficients are the case file's own expressions
+  const files = (await libraryFiles()).filter((f) =>
+    (f.form ?? "non-conservative") === "non-conservative"
+  );
+  for (const file of files) {
     await t.step(file.id, () => {
       const params = file.parameters ?? {};
       const names = Object.keys(params);
       const trees: Record<string, ReturnType<typeof math.parse>> = {};
       for (const k of ["a", "b", "c", "d", "e"] as const) {
-        trees[k] = parseExpression(math, String(file.coefficients[k]), names).node!;
+        trees[k] = parseExpression(math, String(file.coefficients![k]), names).node!;
       }
       trees.exact = parseExpression(math, String(file.exact), names).node!;
       const derived = deriveTrees(math, trees as Parameters<typeof deriveTrees>[1], file.boundary);

@@ -14,12 +14,24 @@ import type { LocatedJson } from "./_json.ts";
 import type { CaseFile, CaseProblem } from "./case_file.ts";
 import { formatProblem } from "./case_file.ts";
 import { compileExpr, compileRowSampler } from "./compile.ts";
-import { deriveTrees, isZeroTree } from "./derive.ts";
+import { isZeroTree } from "./derive.ts";
+import { type CaseTrees, caseTrees } from "./case_trees.ts";
+import { checkInterfaceConditions } from "./continuity.ts";
+import { CONSERVATIVE_TERMS, type DerivedRegion, deriveRegion, GENERAL_TERMS } from "./operator.ts";
+import { faceConductivity, gridMisses, piecewiseMean } from "./regions.ts";
 import type { DomainCheckOptions, LatticeFill } from "./domain_check.ts";
-import { type Expr, involvesNoPoint, parseExpression, pointAt, toExpr } from "./expression.ts";
-import { checkOperator } from "./operator_check.ts";
+import { type Expr, involvesNoPoint, toExpr } from "./expression.ts";
+import { checkOperator, type OperatorFault } from "./operator_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
-import type { CaseBoundary, CaseFormulas, CompiledCase, ExpectedOrder } from "./types.ts";
+import type {
+  CaseBoundary,
+  CaseFormulas,
+  CompiledCase,
+  ConservativeTerms,
+  ExpectedOrder,
+  PointFn,
+  RegionExpressions,
+} from "./types.ts";
 
 /** Options of {@link buildCase}. */
 export interface BuildOptions {
@@ -39,7 +51,6 @@ export interface BuildOptions {
 }
 
 const SIDES: readonly Side[] = ["west", "east", "south", "north"];
-const COEFFICIENTS = ["a", "b", "c", "d", "e"] as const;
 
 function problemAt(
   file: string,
@@ -82,10 +93,12 @@ export function mergeParameters(
 
 /**
  * Parses, checks, derives and compiles a validated case file, then checks the operator on the whole
- * closed domain (`operator_check.ts`: a·c > 0 and finite values, between grid nodes too).
+ * closed domain (`operator_check.ts`: ellipticity and finite values, between grid nodes too) and,
+ * for a case with interfaces, the interface conditions (`continuity.ts`).
  *
  * @throws {InputError} with every expression problem (file, field, line, column, what and fix),
- *   or every field that is not elliptic or not finite somewhere on the domain (with the point)
+ *   or every field that is not elliptic or not finite somewhere on the domain (with the point),
+ *   or every broken interface condition
  * @throws {RangeError} for unknown parameter overrides
  */
 export async function buildCase(caseFile: CaseFile, options: BuildOptions): Promise<CompiledCase> {
@@ -97,47 +110,21 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
   const parameters = mergeParameters(defaults, options.parameters, label);
   const names = Object.keys(defaults);
   const math = await loadMath();
-  const problems: CaseProblem[] = [];
-  const trees: Record<string, MathNode> = {};
-  const fields: [string, string, string | number][] = [
-    ...COEFFICIENTS.map((k) =>
-      [k, `/coefficients/${k}`, caseFile.coefficients[k]] as [string, string, string | number]
-    ),
-    ["exact", "/exact", caseFile.exact],
-  ];
-  for (const [key, pointer, raw] of fields) {
-    const text = String(raw);
-    const field = key === "exact" ? "exact" : `coefficients.${key}`;
-    const result = parseExpression(math, text, names);
-    for (const p of result.problems) {
-      const shown = p.column === undefined ? `\n    ${text}` : `\n${pointAt(text, p.column)}`;
-      const place = p.column === undefined ? "" : `column ${p.column} of the expression: `;
-      problems.push(
-        problemAt(
-          file,
-          options.located,
-          pointer,
-          field,
-          `${place}${p.message}${shown}`,
-          typeof raw === "string" ? p.column : undefined,
-        ),
-      );
-    }
-    if (result.node) trees[key] = result.node;
-  }
-  if (problems.length) throw collected(file, problems);
-  let derived;
-  try {
-    derived = deriveTrees(
-      math,
-      trees as Parameters<typeof deriveTrees>[1],
-      caseFile.boundary,
+  const at = (pointer: string, field: string, message: string, column?: number) =>
+    problemAt(file, options.located, pointer, field, message, column);
+  const trees = caseTrees(math, caseFile, names);
+  if (trees.problems.length) {
+    throw collected(
+      file,
+      trees.problems.map((p) => at(p.pointer, p.field, p.message, p.column)),
     );
+  }
+  let derived: DerivedRegion[];
+  try {
+    derived = trees.regions.map((r) => deriveRegion(math, r.op, r.exact, caseFile.boundary));
   } catch (error) {
     throw collected(file, [
-      problemAt(
-        file,
-        options.located,
+      at(
         "/exact",
         "exact",
         `cannot derive the source term: ${error instanceof Error ? error.message : String(error)}`,
@@ -148,37 +135,85 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
     const spec = caseFile.boundary[s];
     return spec.kind === "neumann" || (spec.kind === "robin" && spec.alpha === 0);
   });
-  if (pureNeumann && isZeroTree(math, trees.e)) {
+  if (pureNeumann && derived.every((d) => isZeroTree(math, d.expanded.e))) {
+    const term = trees.form === "conservative" ? "reaction σ" : "coefficients.e";
     throw collected(file, [
-      problemAt(
-        file,
-        options.located,
+      at(
         "/boundary",
         "boundary",
-        "every side is neumann and the reaction coefficient e is 0, so the problem is singular " +
-          "(its solution is fixed only up to a constant); make one side dirichlet or robin, or " +
-          "give coefficients.e a non-zero value",
+        `every side is neumann and the ${
+          trees.form === "conservative" ? "reaction σ" : "reaction coefficient e"
+        } is 0, so the problem is singular (its solution is fixed only up to a constant); make ` +
+          `one side dirichlet or robin, or give ${term} a non-zero value`,
       ),
     ]);
   }
-  const { compiled, fill } = assemble(math, caseFile, options.origin, parameters, trees, derived);
-  // named fields, not a spread: a spread would run the lazy `formulas` getter (mathjs simplify)
-  const faults = checkOperator({
-    domain: compiled.domain,
-    coefficients: compiled.coefficients,
-    source: compiled.source,
-    exact: compiled.exact,
-    boundary: compiled.boundary,
-    parameters: compiled.parameters,
-    fill,
-  }, options.operatorCheck);
+  const built = assemble(math, caseFile, options.origin, parameters, trees, derived);
+  const faults = checkRegions(built, trees, caseFile, options);
   if (faults.length) {
-    throw collected(
-      file,
-      faults.map((f) => problemAt(file, options.located, f.pointer, f.field, f.message)),
-    );
+    throw collected(file, faults.map((f) => at(f.pointer, f.field, f.message)));
   }
-  return compiled;
+  return built.compiled;
+}
+
+/** The operator check of every region, and the interface conditions between them. */
+function checkRegions(
+  built: Assembled,
+  trees: CaseTrees,
+  caseFile: CaseFile,
+  options: BuildOptions,
+): OperatorFault[] {
+  const { compiled, regions, fill } = built;
+  const faults: OperatorFault[] = [];
+  const { x0, x1, y0, y1 } = compiled.domain;
+  const xs = [x0, ...trees.interfaces.x, x1], ys = [y0, ...trees.interfaces.y, y1];
+  const columns = xs.length - 1;
+  regions.forEach((r, k) => {
+    const sx = k % columns, sy = (k - sx) / columns;
+    const rect = { x0: xs[sx], x1: xs[sx + 1], y0: ys[sy], y1: ys[sy + 1] };
+    // a side of the region is checked as boundary data only where it lies on the domain's side
+    const sides = SIDES.filter((s) =>
+      s === "west"
+        ? sx === 0
+        : s === "east"
+        ? sx === columns - 1
+        : s === "south"
+        ? sy === 0
+        : sy === ys.length - 2
+    );
+    // named fields, not a spread: a spread would run the lazy `formulas` getter (mathjs simplify)
+    const found = checkOperator({
+      domain: rect,
+      // the mixed term only where there is one: 4ac − m² > 0 is then a·c > 0
+      coefficients: r.mixedZero ? { ...r.coefficients, m: undefined } : r.coefficients,
+      source: r.source,
+      exact: r.exact,
+      boundary: r.boundary,
+      sides,
+      parameters: compiled.parameters,
+      form: trees.form,
+      ...(regions.length > 1 ? { region: k } : {}),
+      ...(fill && regions.length === 1 ? { fill } : {}),
+    }, options.operatorCheck);
+    faults.push(...found);
+  });
+  if (regions.length > 1) {
+    const broken = checkInterfaceConditions(
+      regions.map((r) => ({ u: r.exact, fluxX: r.fluxX, fluxY: r.fluxY })),
+      trees.interfaces,
+      compiled.domain,
+    );
+    for (const p of broken) {
+      const r = p.regions[1];
+      const own = caseFile.regions?.[r]?.exact !== undefined;
+      faults.push({
+        pointer: own ? `/regions/${r}/exact` : "/exact",
+        field: own ? `regions[${r}].exact` : "exact",
+        message: p.message,
+      });
+    }
+  }
+  return faults;
 }
 
 function collected(file: string, problems: CaseProblem[]): InputError {
@@ -188,62 +223,247 @@ function collected(file: string, problems: CaseProblem[]): InputError {
   );
 }
 
+/** One region's compiled functions. */
+interface RegionFunctions {
+  coefficients: CompiledCase["coefficients"];
+  /** Whether the coefficient of u_xy is the constant 0. */
+  mixedZero: boolean;
+  source: PointFn;
+  exact: PointFn;
+  ux: PointFn;
+  uy: PointFn;
+  fluxX: PointFn;
+  fluxY: PointFn;
+  boundary: Record<Side, CaseBoundary>;
+  conservative?: Record<(typeof CONSERVATIVE_TERMS)[number], PointFn>;
+}
+
+/** A compiled case with what the checks need. */
+interface Assembled {
+  compiled: CompiledCase;
+  regions: RegionFunctions[];
+  /** The fused lattice sampler (one region, non-conservative form only). */
+  fill?: LatticeFill;
+}
+
 function assemble(
   math: MathTools,
   caseFile: CaseFile,
   origin: string,
   parameters: Record<string, number>,
-  trees: Record<string, MathNode>,
-  derived: ReturnType<typeof deriveTrees>,
-): { compiled: CompiledCase; fill: LatticeFill } {
+  trees: CaseTrees,
+  derived: DerivedRegion[],
+): Assembled {
   const expr = (node: MathNode): Expr => toExpr(node, parameters);
-  const coefficientExprs = COEFFICIENTS.map((k) => expr(trees[k]));
-  const sourceExpr = expr(derived.source);
-  const exactExpr = expr(trees.exact);
-  const problemSampler = compileRowSampler([...coefficientExprs, sourceExpr]);
-  const exactSampler = compileRowSampler([exactExpr]);
-  const [a, b, c, d, e] = coefficientExprs.map(compileExpr);
-  const constantCoefficients: CompiledCase["constantCoefficients"] = {};
-  COEFFICIENTS.forEach((name, k) => {
-    if (involvesNoPoint(coefficientExprs[k])) {
-      constantCoefficients[name] = [a, b, c, d, e][k](0, 0);
+  const domain = { ...caseFile.domain };
+  const { interfaces, form } = trees;
+  const conservative = form === "conservative";
+  const regionExprs = derived.map((d, r) => ({
+    coefficients: GENERAL_TERMS.map((k) => expr(d.expanded[k])),
+    conservative: conservative
+      ? CONSERVATIVE_TERMS.map((k) => expr((trees.regions[r].op as Record<string, MathNode>)[k]))
+      : [],
+    source: expr(d.source),
+    exact: expr(trees.regions[r].exact),
+    ux: expr(d.ux),
+    uy: expr(d.uy),
+    boundary: Object.fromEntries(SIDES.map((s) => [s, expr(d.boundary[s])])) as Record<Side, Expr>,
+  }));
+  const expressions: RegionExpressions[] = regionExprs.map((e) => ({
+    exact: e.exact,
+    ux: e.ux,
+    uy: e.uy,
+    source: e.source,
+    coefficients: Object.fromEntries(
+      GENERAL_TERMS.map((k, n) => [k, e.coefficients[n]]),
+    ) as RegionExpressions["coefficients"],
+    ...(conservative
+      ? {
+        conservative: Object.fromEntries(
+          CONSERVATIVE_TERMS.map((k, n) => [k, e.conservative[n]]),
+        ) as NonNullable<RegionExpressions["conservative"]>,
+      }
+      : {}),
+    boundary: e.boundary,
+  }));
+  const regions: RegionFunctions[] = derived.map((d, r) => {
+    const e = regionExprs[r];
+    const [a, b, c, dd, ee, m] = e.coefficients.map(compileExpr);
+    const boundary = {} as Record<Side, CaseBoundary>;
+    for (const side of SIDES) {
+      const spec = caseFile.boundary[side];
+      const data = compileExpr(expr(d.boundary[side]));
+      boundary[side] = spec.kind === "robin"
+        ? { kind: "robin", alpha: spec.alpha, beta: spec.beta, data }
+        : { kind: spec.kind, data };
     }
+    const mExpr = e.coefficients[5];
+    const own: RegionFunctions = {
+      coefficients: { a, b, c, d: dd, e: ee, m },
+      mixedZero: involvesNoPoint(mExpr) && m(0, 0) === 0,
+      source: compileExpr(e.source),
+      exact: compileExpr(e.exact),
+      ux: compileExpr(expr(d.ux)),
+      uy: compileExpr(expr(d.uy)),
+      fluxX: compileExpr(expr(d.flux.x)),
+      fluxY: compileExpr(expr(d.flux.y)),
+      boundary,
+    };
+    if (conservative) {
+      const fns = e.conservative.map(compileExpr);
+      own.conservative = Object.fromEntries(
+        CONSERVATIVE_TERMS.map((k, n) => [k, fns[n]]),
+      ) as Record<
+        (typeof CONSERVATIVE_TERMS)[number],
+        PointFn
+      >;
+    }
+    return own;
+  });
+  const piece = (pick: (r: RegionFunctions) => PointFn) =>
+    piecewiseMean(regions.map(pick), interfaces, domain);
+  const coefficients = {
+    a: piece((r) => r.coefficients.a),
+    b: piece((r) => r.coefficients.b),
+    c: piece((r) => r.coefficients.c),
+    d: piece((r) => r.coefficients.d),
+    e: piece((r) => r.coefficients.e),
+    m: piece((r) => r.coefficients.m),
+  };
+  const constantIn = (exprs: Expr[], fns: PointFn[]): number | undefined => {
+    if (!exprs.every(involvesNoPoint)) return undefined;
+    const values = fns.map((f) => f(0, 0));
+    return values.every((v) => v === values[0]) ? values[0] : undefined;
+  };
+  const constantCoefficients: CompiledCase["constantCoefficients"] = {};
+  GENERAL_TERMS.forEach((name, k) => {
+    const value = constantIn(
+      regionExprs.map((e) => e.coefficients[k]),
+      regions.map((r) => r.coefficients[name]),
+    );
+    if (value !== undefined) constantCoefficients[name] = value;
   });
   const boundary = {} as Record<Side, CaseBoundary>;
   for (const side of SIDES) {
-    const spec = caseFile.boundary[side];
-    const data = compileExpr(expr(derived.boundary[side]));
-    boundary[side] = spec.kind === "robin"
-      ? { kind: "robin", alpha: spec.alpha, beta: spec.beta, data }
-      : { kind: spec.kind, data };
+    const first = regions[0].boundary[side];
+    boundary[side] = { ...first, data: piece((r) => r.boundary[side].data) };
   }
-  const formulasOf = (
-    simple: ReturnType<typeof deriveTrees>,
-    render: (n: MathNode) => string,
-  ): CaseFormulas => ({
-    a: render(trees.a),
-    b: render(trees.b),
-    c: render(trees.c),
-    d: render(trees.d),
-    e: render(trees.e),
-    exact: render(trees.exact),
-    source: render(simple.source),
-    boundary: {
-      west: render(simple.boundary.west),
-      east: render(simple.boundary.east),
-      south: render(simple.boundary.south),
-      north: render(simple.boundary.north),
-    },
-  });
+  let conservativeTerms: ConservativeTerms | undefined;
+  if (conservative) {
+    const term = (k: (typeof CONSERVATIVE_TERMS)[number]) => regions.map((r) => r.conservative![k]);
+    const constant: ConservativeTerms["constant"] = {};
+    CONSERVATIVE_TERMS.forEach((name, k) => {
+      const value = constantIn(regionExprs.map((e) => e.conservative[k]), term(name));
+      if (value !== undefined) constant[name] = value;
+    });
+    conservativeTerms = {
+      k11: piece((r) => r.conservative!.k11),
+      k12: piece((r) => r.conservative!.k12),
+      k22: piece((r) => r.conservative!.k22),
+      bx: piece((r) => r.conservative!.bx),
+      by: piece((r) => r.conservative!.by),
+      sigma: piece((r) => r.conservative!.sigma),
+      faceX: {
+        k11: faceConductivity(term("k11"), interfaces, domain, "x"),
+        k12: piece((r) => r.conservative!.k12),
+      },
+      faceY: {
+        k12: piece((r) => r.conservative!.k12),
+        k22: faceConductivity(term("k22"), interfaces, domain, "y"),
+      },
+      constant,
+    };
+  }
+  const source = piece((r) => r.source);
+  const exact = piece((r) => r.exact);
+  const mixedZero = constantCoefficients.m === 0;
+  // The fused row sampler: one region of the non-conservative form without the mixed term (every
+  // case before the forms existed) keeps the fast path, workers included.
+  const fused = regions.length === 1 && !conservative;
+  const problemSampler = fused
+    ? compileRowSampler([...regionExprs[0].coefficients.slice(0, 5), regionExprs[0].source])
+    : undefined;
+  const exactSampler = fused ? compileRowSampler([regionExprs[0].exact]) : undefined;
+  const spec: SamplerSpec = {
+    id: caseFile.id,
+    origin,
+    domain,
+    ...(problemSampler ? { problemSampler } : {}),
+    pointFunctions: conservativeTerms
+      ? {
+        a: conservativeTerms.k11,
+        b: conservativeTerms.bx,
+        c: conservativeTerms.k22,
+        d: conservativeTerms.by,
+        e: conservativeTerms.sigma,
+        f: source,
+      }
+      : { ...coefficients, f: source },
+    ...(mixedZero && !conservative ? {} : conservative ? {} : { mixed: coefficients.m }),
+    ...(conservativeTerms
+      ? {
+        mixed: conservativeTerms.constant.k12 === 0
+          ? undefined
+          : ((x: number, y: number) => 2 * conservativeTerms!.k12(x, y)),
+        conductivity: {
+          faceX: conservativeTerms.faceX,
+          faceY: conservativeTerms.faceY,
+          tensor: conservativeTerms.constant.k12 !== 0,
+        },
+      }
+      : {}),
+    boundary,
+  };
+  if (spec.mixed === undefined) delete spec.mixed;
+  const formulasOf = (simple: DerivedRegion[], render: (n: MathNode) => string): CaseFormulas => {
+    const d0 = simple[0];
+    const out: CaseFormulas = {
+      a: render(d0.expanded.a),
+      b: render(d0.expanded.b),
+      c: render(d0.expanded.c),
+      d: render(d0.expanded.d),
+      e: render(d0.expanded.e),
+      exact: render(trees.regions[0].exact),
+      source: render(d0.source),
+      boundary: {
+        west: render(d0.boundary.west),
+        east: render(d0.boundary.east),
+        south: render(d0.boundary.south),
+        north: render(d0.boundary.north),
+      },
+    };
+    if (!isZeroTree(math, d0.expanded.m)) out.m = render(d0.expanded.m);
+    const op0 = trees.regions[0].op;
+    if (op0.form === "conservative") {
+      out.conservative = {
+        k11: render(op0.k11),
+        k12: render(op0.k12),
+        k22: render(op0.k22),
+        bx: render(op0.bx),
+        by: render(op0.by),
+        sigma: render(op0.sigma),
+      };
+    }
+    if (simple.length > 1) {
+      out.regions = simple.map((d, r) => {
+        const op = trees.regions[r].op;
+        return {
+          exact: render(trees.regions[r].exact),
+          source: render(d.source),
+          ...(op.form === "conservative"
+            ? { k11: render(op.k11), k12: render(op.k12), k22: render(op.k22) }
+            : {}),
+        };
+      });
+    }
+    return out;
+  };
   // readable formulas need mathjs's simplify (slow): computed on first use only
   let shown: { text: CaseFormulas; tex: CaseFormulas } | undefined;
   const readable = () => {
     if (!shown) {
-      const simple = deriveTrees(
-        math,
-        trees as Parameters<typeof deriveTrees>[1],
-        caseFile.boundary,
-        { simplify: true },
+      const simple = trees.regions.map((r) =>
+        deriveRegion(math, r.op, r.exact, caseFile.boundary, { simplify: true })
       );
       shown = {
         text: formulasOf(simple, (n) => n.toString()),
@@ -255,19 +475,16 @@ function assemble(
   const aspect = caseFile.aspect ?? 1;
   // Without convection (b ≡ d ≡ 0) upwinding changes nothing: the upwind scheme is the central
   // scheme, so it is expected to behave exactly like it (exact identity of the stencils).
-  const noConvection = isZeroTree(math, trees.b) && isZeroTree(math, trees.d);
+  const noConvection = conservative
+    ? trees.regions.every((r) =>
+      r.op.form === "conservative" && isZeroTree(math, r.op.bx) && isZeroTree(math, r.op.by)
+    )
+    : isZeroTree(math, derived[0].expanded.b) && isZeroTree(math, derived[0].expanded.d);
   const expected: Record<"central" | "upwind", ExpectedOrder> = {
     central: caseFile.expected.central,
     upwind: noConvection
       ? { ...caseFile.expected.central }
       : caseFile.expected.upwind ?? { formal: 1 },
-  };
-  const spec: SamplerSpec = {
-    id: caseFile.id,
-    origin,
-    domain: { ...caseFile.domain },
-    problemSampler,
-    boundary,
   };
   const compiled: CompiledCase = {
     id: caseFile.id,
@@ -276,18 +493,22 @@ function assemble(
     manufactured: caseFile.manufactured,
     file: structuredClone(caseFile),
     origin,
-    domain: { ...caseFile.domain },
+    form,
+    interfaces: { x: [...interfaces.x], y: [...interfaces.y] },
+    domain: { ...domain },
     parameters,
     expected,
     tags: [...caseFile.tags],
     grids: [...caseFile.grids],
     aspect,
-    exact: compileExpr(exactExpr),
-    exactDx: compileExpr(expr(derived.ux)),
-    exactDy: compileExpr(expr(derived.uy)),
-    coefficients: { a, b, c, d, e },
+    exact,
+    exactDx: piece((r) => r.ux),
+    exactDy: piece((r) => r.uy),
+    coefficients,
     constantCoefficients,
-    source: compileExpr(sourceExpr),
+    ...(conservativeTerms ? { conservative: conservativeTerms } : {}),
+    expressions,
+    source,
     boundary,
     get formulas() {
       return readable().text;
@@ -295,6 +516,7 @@ function assemble(
     get tex() {
       return readable().tex;
     },
+    gridMisses: (nx: number, ny: number) => gridMisses(interfaces, domain, nx, ny),
     gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * aspect)) }),
     sample: (nx: number, ny: number) => sampleProblem(spec, nx, ny),
     sampleAsync: (nx: number, ny: number, opts?: { threads?: number; minNodes?: number }) =>
@@ -302,17 +524,23 @@ function assemble(
     sampleExact: (nx: number, ny: number) => {
       checkGridSize(nx, ny);
       const out = new Float64Array((nx + 1) * (ny + 1));
-      const hx = (spec.domain.x1 - spec.domain.x0) / nx;
-      const hy = (spec.domain.y1 - spec.domain.y0) / ny;
-      exactSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, ny + 1, [out]);
+      const hx = (domain.x1 - domain.x0) / nx;
+      const hy = (domain.y1 - domain.y0) / ny;
+      if (exactSampler) exactSampler.run(domain.x0, hx, nx, domain.y0, hy, 0, ny + 1, [out]);
+      else {
+        for (let j = 0, k = 0; j <= ny; j++) {
+          for (let i = 0; i <= nx; i++, k++) out[k] = exact(domain.x0 + i * hx, domain.y0 + j * hy);
+        }
+      }
       return out;
     },
   };
   if (caseFile.solver) compiled.solver = { ...caseFile.solver };
+  if (!problemSampler || !exactSampler) return { compiled, regions };
   // the check lattices are sampled by the same compiled samplers as the study grids
   const fill: LatticeFill = (x0, hx, nx, y0, hy, ny, outputs) => {
     problemSampler.run(x0, hx, nx, y0, hy, 0, ny + 1, outputs.slice(0, 6));
     exactSampler.run(x0, hx, nx, y0, hy, 0, ny + 1, [outputs[6]]);
   };
-  return { compiled, fill };
+  return { compiled, regions, fill };
 }

@@ -18,15 +18,47 @@ export type {
   CaseBoundary,
   CaseFormulas,
   CompiledCase,
+  ConservativeTerms,
   ExpectedOrder,
   LayoutName,
   LayoutOverridable,
   LayoutOverride,
   NormName,
   PointFn,
+  RegionExpressions,
   SchemeName,
 } from "./types.ts";
-export type { CaseFile, CaseProblem, ExpressionText, SideSpec } from "./case_file.ts";
+export type {
+  CaseFile,
+  CaseProblem,
+  ConductivityText,
+  ExpressionText,
+  RegionSpec,
+  SideSpec,
+} from "./case_file.ts";
+export {
+  CONSERVATIVE_TERMS,
+  type DerivedRegion,
+  deriveRegion,
+  GENERAL_TERMS,
+  type OperatorForm,
+  type OperatorTrees,
+} from "./operator.ts";
+export {
+  faceConductivity,
+  gridMisses,
+  hasInterfaces,
+  type Interfaces,
+  NO_INTERFACES,
+  piecewiseMean,
+  regionCount,
+  regionsAt,
+} from "./regions.ts";
+export {
+  checkInterfaceConditions,
+  type ContinuityProblem,
+  type RegionFunctions,
+} from "./continuity.ts";
 export { formatProblem } from "./case_file.ts";
 export {
   checkCaseFiles,

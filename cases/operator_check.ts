@@ -21,8 +21,10 @@ import type { CaseBoundary, PointFn } from "./types.ts";
 
 /** What the check needs from a compiled case. */
 export interface OperatorParts {
+  /** The rectangle checked: the domain, or one region of a case with interfaces. */
   domain: Domain;
-  coefficients: { a: PointFn; b: PointFn; c: PointFn; d: PointFn; e: PointFn };
+  /** The non-conservative coefficients (for the conservative form its expansion); m of u_xy. */
+  coefficients: { a: PointFn; b: PointFn; c: PointFn; d: PointFn; e: PointFn; m?: PointFn };
   source: PointFn;
   exact: PointFn;
   boundary: Record<Side, CaseBoundary>;
@@ -33,6 +35,12 @@ export interface OperatorParts {
   fill?: LatticeFill;
   /** Parameter values in effect, named in messages. */
   parameters: Record<string, number>;
+  /** The sides whose boundary data are checked (those of the rectangle on the domain's boundary). Default: all four. */
+  sides?: readonly Side[];
+  /** The operator's form, for the field names in messages. Default: non-conservative. */
+  form?: "non-conservative" | "conservative";
+  /** The region checked (0-based), named in messages; absent for a case without interfaces. */
+  region?: number;
 }
 
 /** One fault of a case, for the file's problem list. */
@@ -90,20 +98,40 @@ export function checkOperator(
     { name: "f", at: parts.source, sign: 0 },
     { name: "u", at: parts.exact, sign: 0 },
   ];
+  const m = coefficients.m;
+  if (m) {
+    // with the mixed term, ellipticity asks 4ac − m² > 0 as well (a and c of one sign)
+    functions.push({ name: "m", at: m, sign: 0 });
+    functions.push({
+      name: "discriminant",
+      at: (x, y) => 4 * coefficients.a(x, y) * coefficients.c(x, y) - m(x, y) ** 2,
+      sign: 1,
+    });
+  }
   const n = options.intervals ?? CHECK_INTERVALS;
-  const faults = checkDomain(domain, functions, { ...options, fill: parts.fill });
+  // the fused lattice sampler fills a, b, c, d, e, f, u only
+  const faults = checkDomain(domain, functions, m ? options : { ...options, fill: parts.fill });
   const infinite = (f: DomainFault) => f.kind === "non-finite" || f.kind === "unbounded";
   // f and the boundary data are derived: a non-finite input makes them non-finite too, so only
   // the input is named
   const inputInfinite = faults.some((f) => f.name !== "f" && infinite(f));
-  const words = new Words(n, sign, parts.parameters);
+  const words = new Words(
+    n,
+    sign,
+    parts.parameters,
+    parts.form ?? "non-conservative",
+    parts.region,
+  );
   const out: OperatorFault[] = [];
+  // a or c of the wrong sign breaks 4ac − m² > 0 as well: only the root cause is named
+  const signFault = faults.some((f) => (f.name === "a" || f.name === "c") && !infinite(f));
   for (const f of faults) {
     if (f.name === "f" && inputInfinite) continue;
+    if (f.name === "discriminant" && (signFault || inputInfinite)) continue;
     out.push(words.fault(f));
   }
   if (faults.some((f) => f.name === "u" && infinite(f))) return out;
-  for (const side of SIDES) {
+  for (const side of parts.sides ?? SIDES) {
     const region = {
       x0: side === "east" ? domain.x1 : domain.x0,
       x1: side === "west" ? domain.x0 : domain.x1,
@@ -130,11 +158,38 @@ class Words {
   readonly #sign: 1 | -1;
   readonly #parameters: string;
 
-  constructor(n: number, sign: 1 | -1, parameters: Record<string, number>) {
+  readonly #conservative: boolean;
+
+  constructor(
+    n: number,
+    sign: 1 | -1,
+    parameters: Record<string, number>,
+    form: "non-conservative" | "conservative",
+    region?: number,
+  ) {
     this.#grid = `${n + 1}×${n + 1} check grid`;
     this.#sign = sign;
+    this.#conservative = form === "conservative";
     const named = Object.entries(parameters).map(([k, v]) => `${k} = ${v}`);
-    this.#parameters = named.length ? ` (with the parameters ${named.join(", ")})` : "";
+    this.#parameters = (region === undefined ? "" : ` in region ${region + 1}`) +
+      (named.length ? ` (with the parameters ${named.join(", ")})` : "");
+  }
+
+  /** The case-file field of a coefficient name (the conservative form's own names for it). */
+  #field(k: string): { pointer: string; field: string; shown: string } {
+    if (!this.#conservative) {
+      return { pointer: `/coefficients/${k}`, field: `coefficients.${k}`, shown: k };
+    }
+    const named: Record<string, [string, string]> = {
+      a: ["/conductivity", "k11"],
+      c: ["/conductivity", "k22"],
+      m: ["/conductivity", "2·k12"],
+      b: ["/advection/x", "βx + ∂x k11 + ∂y k12"],
+      d: ["/advection/y", "βy + ∂x k12 + ∂y k22"],
+      e: ["/reaction", "σ"],
+    };
+    const [pointer, shown] = named[k];
+    return { pointer, field: pointer.slice(1).replace("/", "."), shown };
   }
 
   /** The point of a fault: its coordinates and how it was found. */
@@ -185,10 +240,26 @@ class Words {
           "including between grid nodes: change it (or the coefficient that makes f infinite)",
       };
     }
-    const k = f.name;
-    const base = { pointer: `/coefficients/${k}`, field: `coefficients.${k}` };
+    if (f.name === "discriminant") {
+      const { pointer, field } = this.#field("m");
+      const what = this.#conservative ? "k11·k22 − k12²" : "4ac − m²";
+      const value = this.#conservative ? f.value / 4 : f.value;
+      return {
+        pointer,
+        field,
+        message: `${this.#what({ ...f, value }, what)}${p}; the operator must be elliptic ` +
+          `(${what} > 0) on the whole closed domain: ${
+            this.#conservative
+              ? "make K positive definite (|k12| below √(k11·k22))"
+              : "make |m| smaller than 2·√(a·c)"
+          } everywhere, including between grid nodes`,
+      };
+    }
+    const named = this.#field(f.name);
+    const k = named.shown;
+    const base = { pointer: named.pointer, field: named.field };
     if (f.kind === "sign" || f.kind === "vanishes") {
-      const other = k === "a" ? "c" : "a";
+      const other = f.name === "a" ? this.#field("c").shown : this.#field("a").shown;
       const rule = this.#sign === 1
         ? `make ${k} positive on the whole domain, including between grid nodes`
         : `${k} and ${other} are negative at the centre of the domain, so make ${k} negative on ` +

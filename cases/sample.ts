@@ -18,8 +18,22 @@ export interface SamplerSpec {
   id: string;
   origin: string;
   domain: Domain;
-  /** Row sampler writing a, b, c, d, e, f (in that order), and its source text. */
-  problemSampler: { source: string; run: RowSampler };
+  /**
+   * The fast path: a fused row sampler writing a, b, c, d, e, f (in that order), and its source
+   * text (workers compile it). Absent: the point functions are called node by node.
+   */
+  problemSampler?: { source: string; run: RowSampler };
+  /** a, b, c, d, e, f as point functions (the problem's fields; see `CompiledCase.sample`). */
+  pointFunctions: Record<(typeof FIELDS)[number], PointFn>;
+  /** The coefficient of u_xy; absent when it is 0 everywhere. */
+  mixed?: PointFn;
+  /** The conservative form: K at the edge midpoints (see `ConservativeTerms`). */
+  conductivity?: {
+    faceX: { k11: PointFn; k12: PointFn };
+    faceY: { k12: PointFn; k22: PointFn };
+    /** Whether k12 is not 0 somewhere (a full tensor). */
+    tensor: boolean;
+  };
   boundary: Record<Side, CaseBoundary>;
 }
 
@@ -156,8 +170,66 @@ export function sampleProblem(spec: SamplerSpec, nx: number, ny: number): Proble
   const size = (nx + 1) * (ny + 1);
   const arrays = FIELDS.map(() => new Float64Array(size));
   const { hx, hy } = spacing(spec.domain, nx, ny);
-  spec.problemSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, ny + 1, arrays);
+  if (spec.problemSampler) {
+    spec.problemSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, ny + 1, arrays);
+  } else {
+    FIELDS.forEach((field, k) => {
+      fillNodes(
+        arrays[k],
+        spec.pointFunctions[field],
+        spec.domain.x0,
+        hx,
+        nx,
+        spec.domain.y0,
+        hy,
+        ny,
+      );
+    });
+  }
   return finish(spec, nx, ny, arrays);
+}
+
+/** Values of `fn` at x0 + i·hx, y0 + j·hy for 0 ≤ i ≤ nx, 0 ≤ j ≤ ny, x fastest. */
+function fillNodes(
+  out: Float64Array,
+  fn: PointFn,
+  x0: number,
+  hx: number,
+  nx: number,
+  y0: number,
+  hy: number,
+  ny: number,
+): Float64Array {
+  for (let j = 0, k = 0; j <= ny; j++) {
+    const y = y0 + j * hy;
+    for (let i = 0; i <= nx; i++, k++) out[k] = fn(x0 + i * hx, y);
+  }
+  return out;
+}
+
+/** K at the edge midpoints of an nx × ny grid (the reference solver's `Conductivity`). */
+function sampleConductivity(
+  spec: NonNullable<SamplerSpec["conductivity"]>,
+  domain: Domain,
+  nx: number,
+  ny: number,
+): NonNullable<Problem["conductivity"]> {
+  const { hx, hy } = spacing(domain, nx, ny);
+  const along = (fn: PointFn, x0: number, mx: number, y0: number, my: number) =>
+    fillNodes(new Float64Array((mx + 1) * (my + 1)), fn, x0, hx, mx, y0, hy, my);
+  // edges along x: nx per row, ny + 1 rows, midpoints at x0 + (i + ½)hx
+  const xEdges = (fn: PointFn) => along(fn, domain.x0 + hx / 2, nx - 1, domain.y0, ny);
+  const yEdges = (fn: PointFn) => along(fn, domain.x0, nx, domain.y0 + hy / 2, ny - 1);
+  return {
+    alongX: {
+      k11: xEdges(spec.faceX.k11),
+      ...(spec.tensor ? { k12: xEdges(spec.faceX.k12) } : {}),
+    },
+    alongY: {
+      k22: yEdges(spec.faceY.k22),
+      ...(spec.tensor ? { k12: yEdges(spec.faceY.k12) } : {}),
+    },
+  };
 }
 
 function finish(spec: SamplerSpec, nx: number, ny: number, arrays: Float64Array[]): Problem {
@@ -174,6 +246,22 @@ function finish(spec: SamplerSpec, nx: number, ny: number, arrays: Float64Array[
     f,
     boundary: boundaryConditions(spec, nx, ny),
   };
+  const { hx, hy } = spacing(spec.domain, nx, ny);
+  if (spec.mixed) {
+    problem.m = fillNodes(
+      new Float64Array(a.length),
+      spec.mixed,
+      spec.domain.x0,
+      hx,
+      nx,
+      spec.domain.y0,
+      hy,
+      ny,
+    );
+  }
+  if (spec.conductivity) {
+    problem.conductivity = sampleConductivity(spec.conductivity, spec.domain, nx, ny);
+  }
   checkSampled(spec, problem);
   return problem;
 }
@@ -206,7 +294,8 @@ export async function sampleProblemParallel(
     throw new RangeError(`threads must be an integer from 1 to 64, found ${threads}`);
   }
   const size = (nx + 1) * (ny + 1);
-  if (size < minNodes || threads === 1) return sampleProblem(spec, nx, ny);
+  if (size < minNodes || threads === 1 || !spec.problemSampler) return sampleProblem(spec, nx, ny);
+  const problemSampler = spec.problemSampler;
   const buffers = FIELDS.map(() => new SharedArrayBuffer(size * 8));
   const arrays = buffers.map((b) => new Float64Array(b));
   const { hx, hy } = spacing(spec.domain, nx, ny);
@@ -219,7 +308,7 @@ export async function sampleProblemParallel(
     const j1 = share(w + 1);
     if (j1 <= j0) continue;
     jobs.push(runWorker({
-      source: spec.problemSampler.source,
+      source: problemSampler.source,
       x0: spec.domain.x0,
       hx,
       nx,
@@ -230,7 +319,7 @@ export async function sampleProblemParallel(
       buffers,
     }));
   }
-  spec.problemSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, share(1), arrays);
+  problemSampler.run(spec.domain.x0, hx, nx, spec.domain.y0, hy, 0, share(1), arrays);
   await Promise.all(jobs);
   return finish(spec, nx, ny, arrays);
 }

@@ -7,6 +7,9 @@
  */
 import type { BoundaryKind, Domain, Problem, Side } from "../reference-solver/mod.ts";
 import type { CaseFile } from "./case_file.ts";
+import type { OperatorForm } from "./operator.ts";
+import type { Expr } from "./expression.ts";
+import type { Interfaces } from "./regions.ts";
 
 /** A compiled point function: plain JavaScript built from a whitelisted expression tree. */
 export type PointFn = (x: number, y: number) => number;
@@ -73,16 +76,63 @@ export interface CaseBoundary {
   data: PointFn;
 }
 
-/** Readable formulas of a case (mathjs text after simplification). */
+/**
+ * Readable formulas of a case (mathjs text after simplification). `a`…`e` and `m` are the
+ * non-conservative coefficients (for the conservative form, its expansion, see `operator.ts`);
+ * a case with interfaces shows its first region here and every region in `regions`.
+ */
 export interface CaseFormulas {
   a: string;
   b: string;
   c: string;
   d: string;
   e: string;
+  /** Coefficient of u_xy (absent when it is 0). */
+  m?: string;
   exact: string;
   source: string;
   boundary: Record<Side, string>;
+  /** The conservative form's own terms. */
+  conservative?: { k11: string; k12: string; k22: string; bx: string; by: string; sigma: string };
+  /** Per region of a case with interfaces: its exact solution, source and (conservative) K. */
+  regions?: { exact: string; source: string; k11?: string; k12?: string; k22?: string }[];
+}
+
+/**
+ * The conservative form's terms as point functions (on an interface: the mean of the one-sided
+ * values), and K where flux-form schemes need it: at faces (or edge midpoints) whose flux runs
+ * along x (`faceX`) or along y (`faceY`), with the interface rule of `regions.ts` (harmonic mean
+ * across an interface, arithmetic mean along it).
+ */
+export interface ConservativeTerms {
+  k11: PointFn;
+  k12: PointFn;
+  k22: PointFn;
+  bx: PointFn;
+  by: PointFn;
+  sigma: PointFn;
+  faceX: { k11: PointFn; k12: PointFn };
+  faceY: { k12: PointFn; k22: PointFn };
+  /** The terms whose expressions involve neither x nor y (in every region), with their value. */
+  constant: Partial<Record<"k11" | "k12" | "k22" | "bx" | "by" | "sigma", number>>;
+}
+
+/**
+ * One region's expression trees with the parameters substituted (the engine's own small trees, see
+ * `expression.ts`): what a code generator needs to write the case in another language.
+ */
+export interface RegionExpressions {
+  exact: Expr;
+  /** u_x and u_y. */
+  ux: Expr;
+  uy: Expr;
+  source: Expr;
+  /** The non-conservative coefficients (the conservative form's expansion). */
+  coefficients: Record<"a" | "b" | "c" | "d" | "e" | "m", Expr>;
+  /** The conservative form's terms. */
+  conservative?: Record<"k11" | "k12" | "k22" | "bx" | "by" | "sigma", Expr>;
+  /** The boundary data of each side (u, the normal flux, or α·u + β·normal flux). */
+  boundary: Record<Side, Expr>;
 }
 
 /** A case ready to sample onto any grid. */
@@ -101,19 +151,44 @@ export interface CompiledCase {
   grids: number[];
   /** Interior-grid aspect: ny = round(nx · aspect). 1 for square cells on a square. */
   aspect: number;
+  /** The operator's form (the case file's `form`; default non-conservative). */
+  form: OperatorForm;
+  /** Material interfaces (conservative form only); none: `{ x: [], y: [] }`. */
+  interfaces: Interfaces;
   exact: PointFn;
   exactDx: PointFn;
   exactDy: PointFn;
-  coefficients: { a: PointFn; b: PointFn; c: PointFn; d: PointFn; e: PointFn };
+  /**
+   * The non-conservative coefficients; for the conservative form its expansion (a = k11,
+   * m = 2k12, c = k22, b = βx + ∂x k11 + ∂y k12, d = βy + ∂x k12 + ∂y k22, e = σ), exact inside
+   * each region. `m` multiplies u_xy.
+   */
+  coefficients: { a: PointFn; b: PointFn; c: PointFn; d: PointFn; e: PointFn; m: PointFn };
   /**
    * The coefficients whose expressions do not involve x or y, with their value (as the samplers
    * write it at every point); a request may send such an array as one number.
    */
-  constantCoefficients: Partial<Record<"a" | "b" | "c" | "d" | "e", number>>;
+  constantCoefficients: Partial<Record<"a" | "b" | "c" | "d" | "e" | "m", number>>;
+  /** The conservative form's terms (absent for the non-conservative form). */
+  conservative?: ConservativeTerms;
+  /**
+   * Per region (west to east, then south to north; one without interfaces), its expression trees
+   * with the parameters substituted. Absent for cases made in code.
+   */
+  expressions?: RegionExpressions[];
+  /**
+   * Why an nx × ny grid does not suit the case (an interface between grid lines), or null when it
+   * does. Campaigns refuse such grids before any solve.
+   */
+  gridMisses(nx: number, ny: number): string | null;
   source: PointFn;
   boundary: Record<Side, CaseBoundary>;
   formulas: CaseFormulas;
-  /** Samples the case onto a vertex-centred grid with nx × ny intervals. Checks ellipticity and finiteness. */
+  /**
+   * Samples the case onto a vertex-centred grid with nx × ny intervals. Checks ellipticity and
+   * finiteness. For the conservative form the problem carries `conductivity` (K at the edge
+   * midpoints), b, d, e are β and σ, and a, c, m are k11, k22, 2k12 at the nodes.
+   */
   sample(nx: number, ny: number): Problem;
   /** How the case follows the manufactured-solution guidance (the case file's `manufactured`). */
   manufactured: string;

@@ -9,6 +9,7 @@
 import { CYCLE_NAMES, SMOOTHERS } from "../reference-solver/mod.ts";
 import { Ajv2020, type ErrorObject, type ValidateFunction } from "ajv/dist/2020";
 import schema from "./case.schema.json" with { type: "json" };
+import { formProblems } from "./form_rules.ts";
 import { JsonSyntaxError, type LocatedJson, readJsonWithPositions } from "./_json.ts";
 import { closestName } from "./_suggest.ts";
 import { ALLOWED_FUNCTIONS } from "./expression.ts";
@@ -226,6 +227,7 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
     });
   };
   for (const [pointer, message] of domainProblems(c.domain)) push(pointer, message);
+  for (const [pointer, message] of formProblems(c)) push(pointer, message);
   // The reference solver's advice names components of its registries: refuse an unknown name at
   // the door, before any solve, with the valid ones.
   const advice = c.solver;

@@ -30,6 +30,7 @@ const TERMS = [
   { k: "b", words: "the first-derivative term in x (b·u_x)" },
   { k: "d", words: "the first-derivative term in y (d·u_y)" },
   { k: "e", words: "the reaction term (e·u)" },
+  { k: "m", words: "the mixed-derivative term (m·u_xy)" },
 ] as const;
 const COEFFICIENT_WORDS = {
   a: "the variable coefficient of u_xx (a)",
@@ -38,6 +39,116 @@ const COEFFICIENT_WORDS = {
   d: "the variable coefficient of u_y (d)",
   e: "the variable coefficient of u (e)",
 } as const;
+
+type Edit = { key: string; change: string; place: string; edit: (f: CaseFile) => void };
+
+/** The operator-term variants of the non-conservative form. */
+function termEdits(kase: CompiledCase): Edit[] {
+  const out: Edit[] = [];
+  const constant = kase.constantCoefficients;
+  // Without a Dirichlet or Robin side the reaction term is what makes the problem well posed.
+  const anchored = SIDES.some((s) => kase.boundary[s].kind !== "neumann");
+  for (const t of TERMS) {
+    if (constant[t.k] === 0) continue;
+    if (t.k === "e" && !anchored) continue;
+    out.push({
+      key: `${t.k}=0`,
+      change: `${t.words} is switched off (${t.k} = 0)`,
+      place: t.words,
+      edit: (f) => {
+        f.coefficients![t.k] = 0;
+      },
+    });
+  }
+  if (constant.b !== 0 && constant.d !== 0) {
+    out.push({
+      key: "b=d=0",
+      change: "both first-derivative terms are switched off (b = d = 0)",
+      place: "the first-derivative terms (both directions)",
+      edit: (f) => {
+        f.coefficients!.b = 0;
+        f.coefficients!.d = 0;
+      },
+    });
+  }
+  const { x0, x1, y0, y1 } = kase.domain;
+  const xm = (x0 + x1) / 2, ym = (y0 + y1) / 2;
+  for (const k of ["a", "c", "b", "d", "e"] as const) {
+    if (constant[k] !== undefined) continue;
+    const value = Number(kase.coefficients[k](xm, ym).toPrecision(4));
+    // a first-order or reaction coefficient that vanishes at the centre: freezing it is the same
+    // change as switching the term off, which is tried already
+    if (k !== "a" && k !== "c" && Math.abs(value) < 1e-9) continue;
+    out.push({
+      key: `${k}=const`,
+      change: `${COEFFICIENT_WORDS[k]} is frozen to its value at the centre, ${value}`,
+      place: `${COEFFICIENT_WORDS[k]}: its sampling or its variation in the stencil`,
+      edit: (f) => {
+        f.coefficients![k] = value;
+      },
+    });
+  }
+  return out;
+}
+
+/**
+ * The operator-term variants of the conservative form: advection or reaction switched off, and
+ * (without interfaces, whose flux condition involves it) the off-diagonal k12 of K. Only terms
+ * given at the top level and not overridden by a region are changed.
+ */
+function conservativeEdits(kase: CompiledCase): Edit[] {
+  const out: Edit[] = [];
+  const file = kase.file;
+  const terms = kase.conservative;
+  if (!file || !terms) return out;
+  const regions = file.regions ?? [];
+  const anchored = SIDES.some((s) => kase.boundary[s].kind !== "neumann");
+  if (
+    file.advection && terms.constant.bx !== 0 && terms.constant.by !== 0 &&
+    regions.every((r) => r.advection === undefined)
+  ) {
+    out.push({
+      key: "advection=0",
+      change: "the advection term is switched off (β = 0)",
+      place: "the advection term (β·∇u)",
+      edit: (f) => {
+        delete f.advection;
+      },
+    });
+  }
+  if (
+    anchored && file.reaction !== undefined && terms.constant.sigma !== 0 &&
+    regions.every((r) => r.reaction === undefined)
+  ) {
+    out.push({
+      key: "reaction=0",
+      change: "the reaction term is switched off (σ = 0)",
+      place: "the reaction term (σ·u)",
+      edit: (f) => {
+        delete f.reaction;
+      },
+    });
+  }
+  const k = file.conductivity;
+  if (
+    regions.length === 0 && typeof k === "object" && k.k12 !== undefined && terms.constant.k12 !== 0
+  ) {
+    out.push({
+      key: "k12=0",
+      change: "the off-diagonal conductivity is switched off (k12 = 0)",
+      place: "the cross-diffusion terms (k12: ∂x(k12·u_y) + ∂y(k12·u_x))",
+      edit: (f) => {
+        const tensor = f.conductivity as {
+          k11: string | number;
+          k12?: string | number;
+          k22: string | number;
+        };
+        delete tensor.k12;
+      },
+    });
+  }
+  return out;
+}
 
 /** The changes that make sense for a case, as edits of its file (without building them). */
 export function variantEdits(
@@ -97,49 +208,9 @@ export function variantEdits(
       },
     });
   }
-  const constant = kase.constantCoefficients;
-  // Without a Dirichlet or Robin side the reaction term is what makes the problem well posed.
-  const anchored = SIDES.some((s) => kind(s) !== "neumann");
-  for (const t of TERMS) {
-    if (constant[t.k] === 0) continue;
-    if (t.k === "e" && !anchored) continue;
-    out.push({
-      key: `${t.k}=0`,
-      change: `${t.words} is switched off (${t.k} = 0)`,
-      place: t.words,
-      edit: (f) => {
-        f.coefficients[t.k] = 0;
-      },
-    });
-  }
-  if (constant.b !== 0 && constant.d !== 0) {
-    out.push({
-      key: "b=d=0",
-      change: "both first-derivative terms are switched off (b = d = 0)",
-      place: "the first-derivative terms (both directions)",
-      edit: (f) => {
-        f.coefficients.b = 0;
-        f.coefficients.d = 0;
-      },
-    });
-  }
+  if (kase.form === "conservative") out.push(...conservativeEdits(kase));
+  else out.push(...termEdits(kase));
   const { x0, x1, y0, y1 } = kase.domain;
-  const xm = (x0 + x1) / 2, ym = (y0 + y1) / 2;
-  for (const k of ["a", "c", "b", "d", "e"] as const) {
-    if (constant[k] !== undefined) continue;
-    const value = Number(kase.coefficients[k](xm, ym).toPrecision(4));
-    // a first-order or reaction coefficient that vanishes at the centre: freezing it is the same
-    // change as switching the term off, which is tried already
-    if (k !== "a" && k !== "c" && Math.abs(value) < 1e-9) continue;
-    out.push({
-      key: `${k}=const`,
-      change: `${COEFFICIENT_WORDS[k]} is frozen to its value at the centre, ${value}`,
-      place: `${COEFFICIENT_WORDS[k]}: its sampling or its variation in the stencil`,
-      edit: (f) => {
-        f.coefficients[k] = value;
-      },
-    });
-  }
   const g = kase.gridFor(64);
   const ratio = ((x1 - x0) / g.nx) / ((y1 - y0) / g.ny);
   if (Math.abs(ratio - 1) > 1e-9) {

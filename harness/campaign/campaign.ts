@@ -123,7 +123,12 @@ export async function runCampaign(
   for (const kase of cases) {
     for (const solver of solvers) {
       for (const n of gridsOf(kase, options, solver.info.scheme)) {
-        plan.push({ kase, solver, ...gridFor(kase, n) });
+        const grid = gridFor(kase, n);
+        const misses = kase.gridMisses(grid.nx, grid.ny);
+        if (misses) {
+          throw new RangeError(`case ${kase.id}, grid ${grid.nx}×${grid.ny}: ${misses}`);
+        }
+        plan.push({ kase, solver, ...grid });
       }
     }
   }
@@ -392,6 +397,7 @@ function planRefinement(
     const [prev, last] = mine.slice(-2);
     const nx = Math.round(last.nx * last.nx / prev.nx);
     const grid = gridFor(kase, nx);
+    if (kase.gridMisses(grid.nx, grid.ny)) continue;
     const unknowns = last.unknowns * (grid.nx * grid.ny) / (last.nx * last.ny);
     const growth = Math.max(1, study.scaling.timeExponent ?? 1);
     const predicted = last.seconds * (unknowns / last.unknowns) ** growth;

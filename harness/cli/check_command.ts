@@ -323,6 +323,9 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
       const g = kase.gridFor(n);
       try {
         checkGridSize(g.nx, g.ny);
+        // a case with material interfaces needs each interface on a grid line
+        const misses = kase.gridMisses(g.nx, g.ny);
+        if (misses) throw new RangeError(`grid ${g.nx}×${g.ny}: ${misses}`);
       } catch (error) {
         if (error instanceof RangeError) {
           throw new InputError(`${error.message} (case ${kase.id})`, {

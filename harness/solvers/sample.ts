@@ -27,6 +27,12 @@ import type { ExpressionTexts, SampledProblem, SampledSide, SideName } from "../
  * p.source.length; // 64
  * ```
  */
+/** The constant coefficients among the five a request carries (the mixed term m is not one). */
+function protocolConstants(compiled: CompiledCase): SampledProblem["constantCoefficients"] {
+  const { m: _m, ...five } = compiled.constantCoefficients;
+  return five;
+}
+
 export function sampleCase(
   compiled: CompiledCase,
   nx: number,
@@ -45,7 +51,7 @@ export function sampleCase(
       coefficients: { a: p.a, b: p.b, c: p.c, d: p.d, e: p.e },
       source: p.f,
       boundary,
-      constantCoefficients: { ...compiled.constantCoefficients },
+      constantCoefficients: protocolConstants(compiled),
     };
   }
   return sampleCells(compiled, nx, ny);
@@ -118,7 +124,7 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
     coefficients: { a, b, c, d, e },
     source: f,
     boundary,
-    constantCoefficients: { ...compiled.constantCoefficients },
+    constantCoefficients: protocolConstants(compiled),
   };
 }
 

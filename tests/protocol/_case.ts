@@ -54,8 +54,11 @@ export function testCase(options: { allDirichlet?: boolean; id?: string } = {}):
     exact: u,
     exactDx: u,
     exactDy: (x, y) => 0.5 * u(x, y),
-    coefficients,
-    constantCoefficients: { c: 1, d: 0.5, e: -1 },
+    form: "non-conservative",
+    interfaces: { x: [], y: [] },
+    gridMisses: () => null,
+    coefficients: { ...coefficients, m: () => 0 },
+    constantCoefficients: { m: 0, c: 1, d: 0.5, e: -1 },
     source,
     boundary,
     formulas: {
