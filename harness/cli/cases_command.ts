@@ -98,29 +98,64 @@ const SIDE_PLACE = {
 /** The readable description of a compiled case (`cases show`). */
 export function showCase(c: CompiledCase, tex: boolean): string {
   const f = tex ? c.tex : c.formulas;
-  const lines = [
-    `${c.id}: ${c.title}`,
-    `  ${c.motivation}`,
-    "",
-    `Operator: a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f on [${c.domain.x0}, ${c.domain.x1}] × [${c.domain.y0}, ${c.domain.y1}]`,
+  const domain = `[${c.domain.x0}, ${c.domain.x1}] × [${c.domain.y0}, ${c.domain.y1}]`;
+  const lines = [`${c.id}: ${c.title}`, `  ${c.motivation}`, ""];
+  const k = f.conservative;
+  const expanded = [
     `  a = ${f.a}`,
-    `  b = ${f.b}`,
+    ...(f.m === undefined ? [] : [`  m = ${f.m}`]),
     `  c = ${f.c}`,
+    `  b = ${f.b}`,
     `  d = ${f.d}`,
     `  e = ${f.e}`,
-    `Exact solution:`,
-    `  u = ${f.exact}`,
-    `Derived source term:`,
-    `  f = ${f.source}`,
-    "Boundary data (n the outward normal):",
   ];
+  if (k) {
+    lines.push(
+      `Operator: ∇·(K∇u) + β·∇u + σ·u = f on ${domain}, K = [[k11, k12], [k12, k22]]`,
+      `  k11 = ${k.k11}`,
+      `  k12 = ${k.k12}`,
+      `  k22 = ${k.k22}`,
+      `  β = (${k.bx}, ${k.by})`,
+      `  σ = ${k.sigma}`,
+      `Expanded (a·u_xx + m·u_xy + c·u_yy + b·u_x + d·u_y + e·u${
+        f.regions ? ", in the first region" : ""
+      }):`,
+      ...expanded,
+    );
+  } else {
+    lines.push(
+      `Operator: a·u_xx + ${
+        f.m === undefined ? "" : "m·u_xy + "
+      }c·u_yy + b·u_x + d·u_y + e·u = f on ${domain}`,
+      ...expanded,
+    );
+  }
+  lines.push(`Exact solution:`, `  u = ${f.exact}`, `Derived source term:`, `  f = ${f.source}`);
+  if (f.regions) {
+    const { x, y } = c.interfaces;
+    lines.push(
+      `Interfaces: ${[...x.map((v) => `x = ${v}`), ...y.map((v) => `y = ${v}`)].join(", ")}; ` +
+        `${f.regions.length} regions, west to east, then south to north (the lines above show ` +
+        "region 1):",
+    );
+    f.regions.forEach((r, n) => {
+      lines.push(
+        `  region ${n + 1}: K = ${
+          r.k12 === "0" ? r.k11 : `[[${r.k11}, ${r.k12}], [${r.k12}, ${r.k22}]]`
+        }`,
+      );
+      lines.push(`    u = ${r.exact}`, `    f = ${r.source}`);
+    });
+  }
+  const flux = k ? "(K∇u)·n" : "∂u/∂n";
+  lines.push(`Boundary data (n the outward normal${k ? ", (K∇u)·n the conormal flux" : ""}):`);
   for (const side of ["west", "east", "south", "north"] as const) {
     const b = c.boundary[side];
     const what = b.kind === "dirichlet"
       ? "u"
       : b.kind === "neumann"
-      ? "∂u/∂n"
-      : `${b.alpha}·u + ${b.beta}·∂u/∂n`;
+      ? flux
+      : `${b.alpha}·u + ${b.beta}·${flux}`;
     lines.push(`  ${side} (${SIDE_PLACE[side](c)}), ${b.kind}: ${what} = ${f.boundary[side]}`);
   }
   const params = Object.entries(c.parameters);
