@@ -7,6 +7,9 @@
  */
 import type { CaseFile } from "./case_file.ts";
 
+const MISSING_EXACT = 'missing field "exact" (The manufactured exact solution u(x, y), from ' +
+  "which the source term and the boundary data are derived): add it";
+
 const CONSERVATIVE_ONLY = [
   "conductivity",
   "advection",
@@ -25,8 +28,8 @@ const CONSERVATIVE_ONLY = [
  * if (pointer !== "/conductivity") throw new Error(pointer);
  * ```
  */
-export function formProblems(c: CaseFile): [string, string][] {
-  const out: [string, string][] = [];
+export function formProblems(c: CaseFile): [string, string, string?][] {
+  const out: [string, string, string?][] = [];
   const conservative = c.form === "conservative";
   if (!conservative) {
     for (const field of CONSERVATIVE_ONLY) {
@@ -40,12 +43,13 @@ export function formProblems(c: CaseFile): [string, string][] {
     if (c.coefficients === undefined) {
       out.push([
         "",
-        'coefficients are missing: the non-conservative form (the default) needs "coefficients" ' +
-        '{a, b, c, d, e}; for ∇·(K∇u) + β·∇u + σ·u = f write "form": "conservative" and give ' +
-        '"conductivity"',
+        'missing field "coefficients": the non-conservative form (the default) needs ' +
+        '"coefficients" {a, b, c, d, e}; for ∇·(K∇u) + β·∇u + σ·u = f write "form": ' +
+        '"conservative" and give "conductivity"',
+        "coefficients",
       ]);
     }
-    if (c.exact === undefined) out.push(["", 'the exact solution is missing: add "exact"']);
+    if (c.exact === undefined) out.push(["", MISSING_EXACT, "exact"]);
     return out;
   }
   if (c.coefficients !== undefined) {
@@ -102,13 +106,14 @@ export function formProblems(c: CaseFile): [string, string][] {
     regions !== undefined && regions.length === count &&
     regions.every((r) => r[field] !== undefined);
   if (c.exact === undefined && !everyRegion("exact")) {
-    out.push(["", 'the exact solution is missing: add "exact", or give one in every region']);
+    out.push(["", `${MISSING_EXACT}, or give one in every region`, "exact"]);
   }
   if (c.conductivity === undefined && !everyRegion("conductivity")) {
     out.push([
       "",
-      'the conductivity is missing: the conservative form needs "conductivity" (K), at the top ' +
+      'missing field "conductivity": the conservative form needs the conductivity K, at the top ' +
       "level or in every region",
+      "conductivity",
     ]);
   }
   return out;

@@ -145,7 +145,7 @@ Deno.test("form rules: each form's fields, interface positions and the region co
   );
   assert.match(
     messages(text({ form: "conservative" }, ["coefficients"]))[0],
-    /the conductivity is missing/,
+    /missing field "conductivity"/,
   );
   assert.deepEqual(
     messages(text({ form: "conservative", conductivity: { k11: "2", k12: "1", k22: "2" } }, [

@@ -73,6 +73,14 @@ export {
 export { type CaseValidation, validateCaseText } from "./validate.ts";
 export { buildCase, type BuildOptions } from "./engine.ts";
 export { expectationFor } from "./expectation_for.ts";
+export {
+  caseIdentifier,
+  caseQuantities,
+  type CaseQuantity,
+  EXPORT_LANGUAGES,
+  exportCase,
+  type ExportLanguage,
+} from "./export/mod.ts";
 export { type CaseVariant, caseVariants, variantEdits } from "./variants.ts";
 export { compileExpression, type CompileExpressionOptions } from "./compile_expression.ts";
 export {

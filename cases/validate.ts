@@ -217,17 +217,17 @@ function domainProblems(domain: CaseFile["domain"]): [string, string][] {
 
 function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[] {
   const problems: CaseProblem[] = [];
-  const push = (pointer: string, message: string) => {
+  const push = (pointer: string, message: string, field?: string) => {
     const pos = doc.positions.get(pointer);
     problems.push({
       file,
-      field: fieldPath(pointer),
+      field: field ?? fieldPath(pointer),
       ...(pos ? { line: pos.line, column: pos.column } : {}),
       message,
     });
   };
   for (const [pointer, message] of domainProblems(c.domain)) push(pointer, message);
-  for (const [pointer, message] of formProblems(c)) push(pointer, message);
+  for (const [pointer, message, field] of formProblems(c)) push(pointer, message, field);
   // The reference solver's advice names components of its registries: refuse an unknown name at
   // the door, before any solve, with the valid ones.
   const advice = c.solver;

@@ -4,8 +4,10 @@
  *
  * Modes are detected from the first message: `hello` starts a session (one request per line, one
  * reply per line until `goodbye` or end of input); anything else is a single request read to the
- * end of stdin (once mode). Vertex layout only: a cell-layout request gets a `not-applicable`
- * reply. Replies use the request's array encoding unless `--encoding numbers|base64` says otherwise.
+ * end of stdin (once mode). It speaks versions 1 and 2 (the conservative form with K at the edge
+ * midpoints, the mixed term) and answers in the version it was spoken to. Vertex layout only: a
+ * cell-layout request gets a `not-applicable` reply. Replies use the request's array encoding
+ * unless `--encoding numbers|base64` says otherwise.
  *
  * Run: `deno run reference-solver/protocol_main.ts [--encoding base64]`; with `--allow-ffi` on
  * Linux it also enlarges its stdin and stdout pipes (see {@link enlargePipes}).
@@ -20,6 +22,8 @@ import {
   messageBytes,
   type ParsedMessage,
   PROTOCOL_VERSION,
+  PROTOCOL_VERSIONS,
+  type ProtocolVersion,
   readSolveRequest,
   type SampledProblem,
   solutionReplyBytes,
@@ -73,9 +77,10 @@ async function send(line: MessageBytes): Promise<void> {
   await previous;
 }
 
+/** The reference Problem of a vertex-layout request: u_xy and K at the edge midpoints included. */
 function toProblem(p: SampledProblem): Problem {
   const c = p.coefficients;
-  return {
+  const problem: Problem = {
     domain: p.domain,
     nx: p.nx,
     ny: p.ny,
@@ -92,6 +97,26 @@ function toProblem(p: SampledProblem): Problem {
       north: { ...p.boundary.north } as Problem["boundary"]["north"],
     },
   };
+  const k = p.conservative;
+  if (p.form === "conservative" && k) {
+    const tensor = k.k12.some((v) => v !== 0) || k.faces.x.k12.some((v) => v !== 0) ||
+      k.faces.y.k12.some((v) => v !== 0);
+    problem.conductivity = {
+      alongX: { k11: k.faces.x.k11, ...(tensor ? { k12: k.faces.x.k12 } : {}) },
+      alongY: { k22: k.faces.y.k22, ...(tensor ? { k12: k.faces.y.k12 } : {}) },
+    };
+    // as the case's own sample: m = 2·k12 at the nodes (the conservative rows do not use it)
+    if (tensor) problem.m = k.k12.map((v) => 2 * v);
+  } else if (p.m && p.m.some((v) => v !== 0)) {
+    problem.m = p.m;
+  }
+  return problem;
+}
+
+/** The version of a line's message when it is one this program speaks, else version 1. */
+function versionOf(line: Line): ProtocolVersion {
+  const v = field(line, "protocol");
+  return PROTOCOL_VERSIONS.includes(v as ProtocolVersion) ? v as ProtocolVersion : PROTOCOL_VERSION;
 }
 
 /**
@@ -131,7 +156,7 @@ export function smootherFor(
 type Line = ParsedMessage | string;
 
 /** A field of a line's message (a text of more than 4 KiB is not parsed again just for this). */
-function field(line: Line, name: "id" | "type"): string | undefined {
+function field(line: Line, name: "id" | "type" | "protocol"): string | undefined {
   let value: unknown = typeof line === "string" ? undefined : line.value;
   if (typeof line === "string" && line.length <= 4096) {
     try {
@@ -158,16 +183,18 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
   } catch (error) {
     const id = field(text, "id");
     return messageBytes({
-      protocol: PROTOCOL_VERSION,
+      protocol: versionOf(text),
       type: "error",
       ...(id !== undefined ? { id } : {}),
       reason: (error as Error).message,
     });
   }
   const { message, problem } = read;
+  // answer in the request's own version, however it was read
+  const protocol = message.protocol;
   if (problem.layout !== "vertex") {
     return messageBytes({
-      protocol: PROTOCOL_VERSION,
+      protocol,
       type: "not-applicable",
       id: message.id,
       reason: "the reference solver is vertex-centred; it does not solve on the cell layout",
@@ -176,14 +203,14 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
   try {
     const discrete = toProblem(problem);
     const c = message.coefficients;
+    const uniform = c !== undefined && isConstantForm(c.a) && isConstantForm(c.c);
     const result = solve(discrete, {
-      smoother: {
-        name: smootherFor(discrete, { uniform: isConstantForm(c.a) && isConstantForm(c.c) }),
-      },
+      smoother: { name: smootherFor(discrete, { uniform }) },
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
     });
     return solutionReplyBytes(message.id, result.solution, {
+      protocol,
       encoding: forced ?? message.encoding,
       residualHistory: result.residualHistory.filter(Number.isFinite),
       iterations: result.cycles,
@@ -194,7 +221,7 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
     });
   } catch (error) {
     return messageBytes({
-      protocol: PROTOCOL_VERSION,
+      protocol,
       type: "error",
       id: message.id,
       reason: (error as Error).message,
@@ -300,7 +327,7 @@ async function serve(input: LineReader, forced: ArrayEncoding | undefined): Prom
     if (typeof first !== "string" && rest.trim() !== "") {
       const id = field(first, "id");
       await send(messageBytes({
-        protocol: PROTOCOL_VERSION,
+        protocol: versionOf(first),
         type: "error",
         ...(id !== undefined ? { id } : {}),
         reason: `a request without hello must be the only message on stdin; more text follows ` +
@@ -311,8 +338,10 @@ async function serve(input: LineReader, forced: ArrayEncoding | undefined): Prom
     await send(answer(typeof first === "string" ? first + "\n" + rest : first, forced));
     return 0;
   }
+  // a session speaks the version of its hello
+  const protocol = versionOf(first);
   await send(messageBytes({
-    protocol: PROTOCOL_VERSION,
+    protocol,
     type: "ready",
     solver: { name: "gridproof-reference", version: "1" },
     supports: {

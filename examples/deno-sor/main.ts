@@ -66,11 +66,20 @@ function parseFlags(args: string[]): Flags {
   return flags;
 }
 
+/** Name, version and build id, sent with `ready` and every reply (the build names the seeded defect). */
+function identity(flags: Flags): Json {
+  return {
+    name: NAME,
+    version: VERSION,
+    build: flags.defect ? "seeded-defect-one-sided" : "plain",
+  };
+}
+
 function ready(flags: Flags): Json {
   return {
     protocol: PROTOCOL,
     type: "ready",
-    solver: { name: NAME, version: VERSION },
+    solver: identity(flags),
     supports: {
       boundaryKinds: ["dirichlet", "neumann", "robin"],
       schemes: ["central", "upwind"],
@@ -167,7 +176,7 @@ function solve(req: Json, flags: Flags): Json {
     iterations: result.sweeps,
     converged: result.converged,
     seconds,
-    solver: { name: NAME, version: VERSION },
+    solver: identity(flags),
     notes: `lexicographic SOR, omega ${result.omega.toFixed(6)}, ${scheme} scheme, ` +
       `stopped: ${result.reason}` +
       (own ? `; replied at the ${own.values.length} cell centres (averages of four nodes)` : "") +

@@ -11,6 +11,9 @@ import sys
 import numpy as np
 
 PROTOCOL = "gridproof-protocol/1"
+PROTOCOL_2 = "gridproof-protocol/2"
+# this example speaks both versions and answers every message in the version it came in
+SPOKEN = (PROTOCOL, PROTOCOL_2)
 SIDES = ("west", "east", "south", "north")
 
 
@@ -73,10 +76,18 @@ def read_problem(req):
     else:
         shape, along_x, along_y = (ny + 1, nx + 1), nx + 1, ny + 1
     points = shape[0] * shape[1]
-    coef = req.get("coefficients") or {}
-    problem = {"domain": domain, "nx": nx, "ny": ny, "layout": layout}
-    for k in ("a", "b", "c", "d", "e"):
-        problem[k] = decode_array(coef.get(k), f"coefficients.{k}", points).reshape(shape)
+    form = req.get("form", "non-conservative")
+    problem = {"domain": domain, "nx": nx, "ny": ny, "layout": layout, "form": form}
+    if form == "conservative":
+        _read_conservative(req, problem, shape)
+    elif form == "non-conservative":
+        coef = req.get("coefficients") or {}
+        for k in ("a", "b", "c", "d", "e"):
+            problem[k] = decode_array(coef.get(k), f"coefficients.{k}", points).reshape(shape)
+        if coef.get("m") is not None:
+            problem["m"] = decode_array(coef["m"], "coefficients.m", points).reshape(shape)
+    else:
+        raise RequestError(f"form: must be non-conservative or conservative, got {form!r}")
     problem["f"] = decode_array(req.get("source"), "source", points).reshape(shape)
     bnd = req.get("boundary") or {}
     problem["boundary"] = {}
@@ -95,30 +106,62 @@ def read_problem(req):
     return problem
 
 
-def message(kind, **fields):
+def _read_conservative(req, problem, shape):
+    """Reads K, beta and sigma at the points and K at the faces (docs/protocol.md, version 2).
+
+    The problem gets a = k11, c = k22, b = bx, d = by, e = sigma and k12 at the points, and the
+    face arrays fx_k11, fx_k12 (flux along x) and fy_k12, fy_k22 (flux along y) as 2-D arrays.
+    """
+    k = req.get("conservative")
+    if not isinstance(k, dict):
+        raise RequestError("conservative: missing; a conservative request carries K at points and faces")
+    ny, nx = problem["ny"], problem["nx"]
+    points = shape[0] * shape[1]
+    for key, name in (("a", "k11"), ("c", "k22"), ("k12", "k12"), ("b", "bx"), ("d", "by"),
+                      ("e", "sigma")):
+        problem[key] = decode_array(k.get(name), f"conservative.{name}", points).reshape(shape)
+    if problem["layout"] == "cell":
+        fx_shape, fy_shape = (ny, nx + 1), (ny + 1, nx)
+    else:
+        fx_shape, fy_shape = (ny + 1, nx), (ny, nx + 1)
+    faces = k.get("faces") or {}
+    for axis, names, fshape in (("x", ("k11", "k12"), fx_shape), ("y", ("k12", "k22"), fy_shape)):
+        group = faces.get(axis) or {}
+        for name in names:
+            field = f"conservative.faces.{axis}.{name}"
+            arr = decode_array(group.get(name), field, fshape[0] * fshape[1])
+            problem[f"f{axis}_{name}"] = arr.reshape(fshape)
+
+
+def message(kind, protocol=PROTOCOL, **fields):
     """A protocol message with the version and type filled in."""
-    return {"protocol": PROTOCOL, "type": kind, **fields}
+    return {"protocol": protocol, "type": kind, **fields}
 
 
 def answer(req, solve, ready):
-    """Answers one message: `solve(req)` returns a reply dict; `ready` is the ready message."""
+    """Answers one message in its own version: `solve(req)` returns a reply dict; `ready` is the
+    ready message (its version is set to the hello's)."""
     if not isinstance(req, dict):
         return message("error", reason="the message is not a JSON object")
-    if req.get("protocol") != PROTOCOL:
+    version = req.get("protocol")
+    if version not in SPOKEN:
         return message(
             "error",
-            reason=f"this solver speaks '{PROTOCOL}' only; the request says '{req.get('protocol')}'",
+            reason=f"this solver speaks {' and '.join(SPOKEN)}; the request says '{version}'",
             **({"id": req["id"]} if isinstance(req.get("id"), str) else {}),
         )
     kind = req.get("type")
     if kind == "hello":
-        return ready
-    if kind != "solve":
-        return message("error", reason=f"unknown message type '{kind}'; expected hello or solve")
-    try:
-        return solve(req)
-    except RequestError as err:
-        return message("error", id=str(req.get("id", "")), reason=str(err))
+        reply = dict(ready)
+    elif kind != "solve":
+        reply = message("error", reason=f"unknown message type '{kind}'; expected hello or solve")
+    else:
+        try:
+            reply = solve(req)
+        except RequestError as err:
+            reply = message("error", id=str(req.get("id", "")), reason=str(err))
+    reply["protocol"] = version
+    return reply
 
 
 def enlarge_pipes():

@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""gridproof example solver: NumPy + SciPy sparse direct solve of a 5-point system.
+"""gridproof example solver: NumPy + SciPy sparse direct solve of a finite-difference/volume system.
 
 Usage (the protocol arrives on stdin, see docs/protocol.md):
 
@@ -10,6 +10,11 @@ Usage (the protocol arrives on stdin, see docs/protocol.md):
 --seeded-defect one-sided
                   DELIBERATE DEFECT for the demo: Neumann/Robin sides by a first-order one-sided
                   difference instead of the second-order ghost node (vertex layout only)
+
+It speaks protocol versions 1 and 2 (docs/protocol.md): version 2 brings the mixed term m*u_xy
+and the conservative form div(K grad u) + bx*u_x + by*u_y + sigma*u = f with K at the faces
+(forms.py: a finite-volume scheme on the cell layout, the flux balance of node volumes on the
+vertex layout).
 
 The mode is chosen by the first line: a hello message starts a session (one message per line),
 anything else is a single request (once mode).
@@ -24,12 +29,27 @@ import scipy
 import scipy.sparse.linalg as spla
 
 import cells
+import forms
 import vertex
 from protocol_io import RequestError, encode_array, log, message, read_problem, run
 
-VERSION = "1.0.0"
+VERSION = "2.0.0"
 # SuperLU fill-in makes larger 2-D grids slow and memory-hungry on a small machine.
 LARGEST = 512
+
+
+def solve_free(A, rhs, mask, dvals):
+    """Solves A u = rhs with the Dirichlet nodes (identity rows u = g) eliminated: u = g exactly
+    there. Left in the system, their rows are solved only to the round-off of the largest rows
+    (10^4/h^2 with a conductivity of 10^4), which shows as wrong imposed data."""
+    fixed = mask.ravel()
+    free = ~fixed
+    u = np.empty(rhs.size)
+    u[fixed] = dvals[mask]
+    A = A.tocsr()
+    rows = A[free]
+    u[free] = spla.spsolve(rows[:, free].tocsc(), rhs[free] - rows[:, fixed] @ u[fixed])
+    return u
 
 
 def make_solver(layout, defect):
@@ -45,6 +65,7 @@ def make_solver(layout, defect):
             "encodings": ["numbers", "base64"],
             "largestGrid": {"nx": LARGEST, "ny": LARGEST},
             "constantArrays": True,
+            "forms": ["non-conservative", "conservative"],
         },
     )
 
@@ -77,14 +98,32 @@ def make_solver(layout, defect):
                 "constant, and this example does not choose one",
             )
         start = time.perf_counter()
+        upwind = scheme == "upwind"
+        conservative = problem["form"] == "conservative"
+        if defect and (conservative or "m" in problem):
+            return message(
+                "not-applicable",
+                id=rid,
+                reason="the seeded defect is of the plain vertex scheme; this request needs "
+                "the mixed term or the conservative form",
+            )
         try:
-            if layout == "cell":
-                A, rhs = cells.assemble(problem, upwind=scheme == "upwind")
+            if conservative and layout == "cell":
+                A, rhs = forms.assemble_conservative_cell(problem, upwind=upwind)
+            elif conservative:
+                A, rhs = forms.assemble_conservative_vertex(problem, upwind=upwind)
+            elif layout == "cell":
+                A, rhs = forms.add_mixed(problem, *cells.assemble(problem, upwind=upwind))
             else:
-                A, rhs = vertex.assemble(problem, upwind=scheme == "upwind", defect=defect)
+                A, rhs = forms.add_mixed(
+                    problem, *vertex.assemble(problem, upwind=upwind, defect=defect)
+                )
         except ValueError as err:
             raise RequestError(str(err)) from None
-        u = spla.spsolve(A.tocsc(), rhs)
+        if layout == "vertex":
+            u = solve_free(A, rhs, *vertex.dirichlet_values(problem))
+        else:
+            u = spla.spsolve(A.tocsc(), rhs)
         seconds = time.perf_counter() - start
         if not np.all(np.isfinite(u)):
             return message("error", id=rid, reason="spsolve returned non-finite values "
@@ -92,7 +131,10 @@ def make_solver(layout, defect):
         r0 = float(np.linalg.norm(rhs))
         r1 = float(np.linalg.norm(rhs - A @ u))
         log(f"{name}: {req.get('id')} n={A.shape[0]} residual {r1:.3e} in {seconds:.3f} s")
-        notes = f"scipy {scipy.__version__} spsolve (SuperLU), {layout} layout, {scheme} scheme"
+        notes = (
+            f"scipy {scipy.__version__} spsolve (SuperLU), {layout} layout, {scheme} scheme, "
+            f"{problem['form']} form" + ("" if "m" not in problem else " with u_xy")
+        )
         if defect:
             notes += "; SEEDED DEFECT: first-order one-sided Neumann/Robin boundary rows"
         return message(

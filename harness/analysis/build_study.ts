@@ -9,6 +9,7 @@ import type {
 import { PLACES } from "../result/types.ts";
 import { pairwiseOrders } from "./pairwise_orders.ts";
 import { type JudgeOptions, judgeStudy } from "./judge_study.ts";
+import type { RankComparison } from "./criteria/types.ts";
 import { orderRecord } from "./order_record.ts";
 import { quantityRecord } from "./quantity_record.ts";
 import { type ScalingOptions, scalingRecord } from "./scaling_record.ts";
@@ -23,6 +24,8 @@ export interface StudySpec extends JudgeOptions {
   points?: number;
   /** Passed to {@link scalingRecord}. */
   scaling?: ScalingOptions;
+  /** Solutions of one grid at 1 and N ranks, compared (the "rank-invariance" criterion). */
+  rankChecks?: RankComparison[];
 }
 
 const REGIONS: Region[] = ["all", "interior", "boundary"];
@@ -126,6 +129,7 @@ export function buildStudy(solves: readonly SolveRecord[], spec: StudySpec): Stu
       scaling,
       h,
       places,
+      ...(spec.rankChecks ? { rankChecks: spec.rankChecks } : {}),
     },
     spec,
   );

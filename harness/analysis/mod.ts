@@ -56,6 +56,9 @@ export {
   ERROR_FLOOR,
   GROWTH_MARGIN,
   ITERATIVE_SHARE,
+  RANK_ROUNDOFF,
+  RANK_SAFETY,
+  type RankComparison,
   REDUCTION_SLACK,
 } from "./criteria/mod.ts";
 export { type ResidualMetrics, residualMetrics, type ResidualOptions } from "./residual_metrics.ts";

@@ -7,7 +7,7 @@
 import type { CompiledCase } from "../../cases/types.ts";
 import type { CampaignResult, CaseInfo, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
 import { RESULT_FORMAT, RESULT_VERSION } from "../result/mod.ts";
-import type { Solver } from "../solvers/mod.ts";
+import type { JobNote, Solver } from "../solvers/mod.ts";
 import { VERSION } from "../version.ts";
 import {
   JOURNAL_FILE,
@@ -19,9 +19,10 @@ import {
   solveKey,
 } from "./journal.ts";
 import { gridFor, plannedInputs, type PlannedSolve, type ProgressEvent, runSolves } from "./run.ts";
-import { buildStudies } from "./study.ts";
+import { buildStudies, type StudiesOptions } from "./study.ts";
 import { isolateFailures } from "./isolation.ts";
 import { lockFolder } from "./folder_lock.ts";
+import { runRankChecks } from "./rank_check.ts";
 
 /** Options of {@link runCampaign}. */
 export interface CampaignOptions {
@@ -164,6 +165,7 @@ async function campaignIn(
 ): Promise<CampaignResult> {
   let journal: JournalWriter | undefined;
   let finished: Map<string, JournaledSolve> | undefined;
+  let submitted: Map<string, JobNote> | undefined;
   if (options.outDir !== undefined) {
     const path = `${options.outDir}/${JOURNAL_FILE}`;
     if (options.resume) {
@@ -181,6 +183,7 @@ async function campaignIn(
         );
       }
       finished = new Map(earlier.solves.map((s) => [solveKey(s.record), s]));
+      submitted = earlier.jobs;
       refuseChangedInputs(finished, plan, options.tolerance ?? 1e-10, path);
       const torn = repairJournal(path, earlier);
       if (torn !== null) {
@@ -205,13 +208,14 @@ async function campaignIn(
     tolerance: options.tolerance,
     journal,
     finished,
+    submitted,
     onProgress: options.onProgress,
     signal: options.signal,
   };
   let records: SolveRecord[];
   let studies: StudyRecord[];
   const orderTolerance = options.orderTolerance ?? 0.1;
-  const studyOptions = {
+  const studyOptions: StudiesOptions = {
     orderTolerance,
     requireFlatIterations: options.requireFlatIterations ?? true,
     tolerance: options.tolerance ?? 1e-10,
@@ -224,6 +228,14 @@ async function campaignIn(
   const isolationSeconds = options.isolation === false ? 0 : options.isolation?.seconds ?? 60;
   try {
     records = await runSolves(plan, runOptions);
+    if (solvers.some((s) => s.rankCheck) && !options.signal?.aborted) {
+      studyOptions.rankChecks = await runRankChecks(
+        cases,
+        solvers,
+        (kase, solver) => gridsOf(kase, options, solver.info.scheme),
+        runOptions,
+      );
+    }
     studies = buildStudies(cases, solvers, records, studyOptions);
     const added = new Map<string, { grids: number[]; reasons: string[]; seconds: number }>();
     for (let round = 0; round < budget.maxAdded && !options.signal?.aborted; round++) {

@@ -1,6 +1,7 @@
 /**
  * A cross-case reading of a solver's failures: which ingredient (a boundary kind on a side, an
- * operator term, a variable coefficient, non-square cells) is present in every case whose order
+ * operator term, a variable coefficient, a full conductivity tensor, material interfaces,
+ * non-square cells) is present in every case whose order
  * failed and absent from every case whose order passed — or from all but a few of them (at most a
  * quarter, at least one), which are named: a defect does not act where its ingredient's data
  * vanish. It adds a diagnosis to the failing
@@ -8,6 +9,7 @@
  *
  * @module
  */
+import { hasInterfaces } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import type { SideName, StudyRecord } from "../result/mod.ts";
 
@@ -47,6 +49,21 @@ export function ingredients(kase: CompiledCase): Ingredient[] {
   }
   if (constant.c === undefined) {
     out.push({ key: "c", words: "the variable coefficient of u_yy (c)" });
+  }
+  // the conservative form's k12 and the non-conservative m live in different code paths of a
+  // solver (cross fluxes at faces against a four-corner difference), so they are told apart
+  if (kase.form === "conservative") {
+    if (kase.conservative && kase.conservative.constant.k12 !== 0) {
+      out.push({
+        key: "k12",
+        words: "the cross-diffusion terms of a full conductivity tensor (k12)",
+      });
+    }
+  } else if (constant.m !== 0) {
+    out.push({ key: "m", words: "the mixed-derivative term (m·u_xy)" });
+  }
+  if (hasInterfaces(kase.interfaces)) {
+    out.push({ key: "interfaces", words: "material interfaces (a conductivity that jumps)" });
   }
   const { x0, x1, y0, y1 } = kase.domain;
   const g = kase.gridFor(64);

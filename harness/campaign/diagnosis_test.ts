@@ -38,6 +38,20 @@ Deno.test("ingredients() names boundary kinds, operator terms and cell shapes of
   assert.ok(keys[2].includes("cells"));
 });
 
+// From the case files: rotated-anisotropy has a constant k12 ≠ 0 (conservative form),
+// mixed-derivative an m = 0.8·cos(πxy) (non-conservative form), layered-jump-100 an interface at
+// y = 0.5, conservative-smooth a scalar K and no interface.
+Deno.test("ingredients() tells a full tensor, a mixed term and material interfaces apart", async () => {
+  const ids = ["rotated-anisotropy", "mixed-derivative", "layered-jump-100", "conservative-smooth"];
+  const [tensor, mixed, layered, smooth] = (await Promise.all(ids.map((id) => loadCase(id)))).map((
+    c,
+  ) => ingredients(c).map((i) => i.key));
+  assert.ok(tensor.includes("k12") && !tensor.includes("m"));
+  assert.ok(mixed.includes("m") && !mixed.includes("k12"));
+  assert.ok(layered.includes("interfaces") && !layered.includes("k12"));
+  assert.ok(!smooth.includes("k12") && !smooth.includes("interfaces") && !smooth.includes("m"));
+});
+
 Deno.test("diagnoseAcrossCases() names what every failing case has and every passing one lacks", async () => {
   const ids = ["robin-all", "mixed-boundaries", "quartic-poisson", "smooth-baseline"];
   const cases = await Promise.all(ids.map((id) => loadCase(id)));

@@ -6,6 +6,7 @@
  * @module
  */
 import type { SolveRecord } from "../result/mod.ts";
+import type { JobNote } from "../solvers/mod.ts";
 
 /** File name of the journal inside the output folder. */
 export const JOURNAL_FILE = "journal.jsonl";
@@ -28,6 +29,16 @@ export interface JournalEntry {
    */
   inputs?: string;
   record: SolveRecord;
+}
+
+/**
+ * A line per new scheduler job or job state of a batch solve (`key` as {@link solveKey}), so a
+ * resumed campaign collects or waits for the job instead of submitting it again.
+ */
+export interface JobEntry {
+  kind: "job";
+  key: string;
+  job: JobNote;
 }
 
 /** A solve read back from a journal, with the line it came from. */
@@ -56,9 +67,12 @@ export function solveInputs(parts: unknown): string {
   return (4294967296 * (2097151 & h2) + (h1 >>> 0)).toString(36);
 }
 
-/** The key of a solve within a campaign. */
-export function solveKey(r: { caseId: string; solver: string; nx: number; ny: number }): string {
-  return `${r.caseId}\u0000${r.solver}\u0000${r.nx}\u0000${r.ny}`;
+/** The key of a solve within a campaign (a solve of the rank-count check adds its rank count). */
+export function solveKey(
+  r: { caseId: string; solver: string; nx: number; ny: number; ranks?: number },
+): string {
+  const ranks = r.ranks === undefined ? "" : `\u0000ranks ${r.ranks}`;
+  return `${r.caseId}\u0000${r.solver}\u0000${r.nx}\u0000${r.ny}${ranks}`;
 }
 
 /** Appends journal lines; each write is a whole line written synchronously (no partial records). */
@@ -76,6 +90,11 @@ export class JournalWriter {
     const writer = new JournalWriter(file);
     if (header) writer.#write(header);
     return writer;
+  }
+
+  /** Appends a batch solve's job or its new state, by the solve's key ({@link solveKey}). */
+  appendJob(key: string, job: JobNote): void {
+    this.#write({ kind: "job", key, job } satisfies JobEntry);
   }
 
   /** Appends one finished solve with the digest of its inputs ({@link solveInputs}). */
@@ -116,11 +135,14 @@ export function readJournal(text: string, path: string): {
   completeBytes: number;
   /** The torn last line that was dropped, if any. */
   torn: string | null;
+  /** The last job note of every batch solve, by solve key. */
+  jobs: Map<string, JobNote>;
 } {
   const lines = text.split("\n");
   let header: JournalHeader | undefined;
   const records: SolveRecord[] = [];
   const solves: JournaledSolve[] = [];
+  const jobs = new Map<string, JobNote>();
   // a last line without its newline was cut in the middle of a write
   const tornText = text.endsWith("\n") || text === "" ? null : lines[lines.length - 1];
   const torn = tornText !== null && tornText.trim() !== "" ? tornText : null;
@@ -145,8 +167,9 @@ export function readJournal(text: string, path: string): {
           `without --resume`,
       );
     }
-    const entry = value as JournalHeader | JournalEntry;
+    const entry = value as JournalHeader | JournalEntry | JobEntry;
     if (entry.kind === "campaign") header ??= entry;
+    else if (entry.kind === "job") jobs.set(entry.key, entry.job);
     else {
       records.push(entry.record);
       solves.push({ record: entry.record, line: k + 1, inputs: entry.inputs });
@@ -155,19 +178,29 @@ export function readJournal(text: string, path: string): {
   const completeBytes = new TextEncoder().encode(
     tornText === null ? text : text.slice(0, text.length - tornText.length),
   ).length;
-  return { header, records, solves, completeBytes, torn };
+  return { header, records, solves, completeBytes, torn, jobs };
 }
 
 /** What is wrong with a parsed journal line, or null when it is a header or a valid solve entry. */
 function entryProblem(value: unknown): string | null {
   if (value === null || typeof value !== "object" || Array.isArray(value)) {
-    return 'is not a journal entry (an object with kind "campaign" or "solve")';
+    return 'is not a journal entry (an object with kind "campaign", "solve" or "job")';
   }
   const v = value as Record<string, unknown>;
   if (v.kind === "campaign") {
     return typeof v.fingerprint === "string" ? null : "is a header without its fingerprint";
   }
-  if (v.kind !== "solve") return `has kind ${JSON.stringify(v.kind)}, not "campaign" or "solve"`;
+  if (v.kind === "job") {
+    const j = v.job as Record<string, unknown> | null;
+    const texts = ["id", "state", "requestId", "folder"];
+    return typeof v.key === "string" && j !== null && typeof j === "object" &&
+        texts.every((k) => typeof j[k] === "string")
+      ? null
+      : "is a job entry without its key, id, state, request id or folder";
+  }
+  if (v.kind !== "solve") {
+    return `has kind ${JSON.stringify(v.kind)}, not "campaign", "solve" or "job"`;
+  }
   const r = v.record as Record<string, unknown> | null;
   if (r === null || typeof r !== "object") return "is a solve entry without its record";
   if (v.inputs !== undefined && typeof v.inputs !== "string") {

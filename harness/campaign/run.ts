@@ -8,7 +8,7 @@
  */
 import type { CompiledCase } from "../../cases/types.ts";
 import type { SolveRecord } from "../result/mod.ts";
-import type { Solver } from "../solvers/mod.ts";
+import type { JobNote, Solver } from "../solvers/mod.ts";
 import { type JournaledSolve, JournalWriter, solveInputs, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";
 import { errorMap } from "../analysis/mod.ts";
@@ -44,6 +44,11 @@ export interface RunOptions {
    * does not (a journal without digests is trusted).
    */
   finished?: Map<string, JournaledSolve>;
+  /**
+   * Scheduler jobs an earlier run submitted and did not see finish, by {@link solveKey}: their
+   * batch solves collect or wait for them instead of submitting again. Default: none.
+   */
+  submitted?: Map<string, JobNote>;
   /** Called after each solve. */
   onProgress?: (event: ProgressEvent) => void;
   /**
@@ -144,12 +149,25 @@ export async function runSolves(
     while (cursor < order.length && !options.signal?.aborted) {
       const index = order[cursor++];
       const p = plan[index];
+      const key = solveKey({ caseId: p.kase.id, solver: p.solver.info.name, nx: p.nx, ny: p.ny });
+      const earlierJob = options.submitted?.get(key);
       const outcome = await p.solver.solve({
         case: p.kase,
         nx: p.nx,
         ny: p.ny,
         scheme: p.solver.info.scheme,
         tolerance,
+        // jobs of batch solvers go to the journal (a function: never sent to a worker)
+        ...(p.solver.info.kind === "external"
+          ? {
+            jobs: {
+              ...(earlierJob ? { earlier: earlierJob } : {}),
+              note: (job: JobNote) => {
+                if (!options.signal?.aborted) options.journal?.appendJob(key, job);
+              },
+            },
+          }
+          : {}),
       });
       // A solve that ended because the campaign was interrupted (its process killed) did not
       // finish: it is not recorded, so a resume runs it again.

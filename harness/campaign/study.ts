@@ -11,7 +11,7 @@
 import { expectationFor } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { buildStudy, pairwiseOrders } from "../analysis/mod.ts";
-import type { SideName, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
+import type { RankComparison, SideName, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { diagnoseAcrossCases } from "./diagnosis.ts";
 import { exactQuantities, QUANTITIES } from "./quantities.ts";
@@ -24,6 +24,8 @@ export interface StudiesOptions {
   requireFlatIterations: boolean;
   /** Residual tolerance the solvers were asked for. */
   tolerance: number;
+  /** Rank-count comparisons by study key (`caseId`, NUL, `solver`); default none. */
+  rankChecks?: Map<string, RankComparison[]>;
 }
 
 /**
@@ -83,6 +85,7 @@ export function buildStudies(
         exactTolerance: { rel: exactnessBound(options.tolerance), abs: 1e-12 },
         boundaryKinds: boundaryKinds(kase),
         quantities,
+        rankChecks: options.rankChecks?.get(`${kase.id}\u0000${solver.info.name}`),
       });
       const base = { caseId: kase.id, solver: solver.info.name, criterion: "applicability" };
       if (declined.length === mine.length) {

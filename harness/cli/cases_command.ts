@@ -1,6 +1,7 @@
 /**
  * `gridproof cases`: list the built-in cases, show one case's formulas (`cases show ID|FILE
- * [--tex]`), and check user case files (`cases check FILE…`, every problem at once).
+ * [--tex]`), check user case files (`cases check FILE…`, every problem at once), and write a case
+ * as C, Fortran or Python functions (`cases export ID|FILE --lang c|fortran|python [--out FILE]`).
  *
  * @module
  */
@@ -14,7 +15,10 @@ import {
   libraryFiles,
   loadCase,
 } from "../../cases/mod.ts";
+import { EXPORT_LANGUAGES, exportCase } from "../../cases/export/mod.ts";
+import { VERSION } from "../version.ts";
 import type { SetExitCode } from "./exit.ts";
+import { InputError } from "./errors.ts";
 import { parseParameterFlags } from "./solve_command.ts";
 
 const SHORT = { dirichlet: "D", neumann: "N", robin: "R" } as const;
@@ -181,7 +185,42 @@ export function showCase(c: CompiledCase, tex: boolean): string {
 }
 
 /**
- * Registers `cases`, `cases show` and `cases check`.
+ * Refuses an `--out` path that exists (without `--force`), is a folder, or lies in a missing folder:
+ * checked before the case is built.
+ */
+async function checkOutPath(out: string, force: boolean): Promise<void> {
+  let info: Deno.FileInfo | undefined;
+  try {
+    info = await Deno.stat(out);
+  } catch (error) {
+    if (!(error instanceof Deno.errors.NotFound)) {
+      throw new InputError(`cannot write "${out}": ${(error as Error).message}`, {
+        where: "--out",
+      });
+    }
+  }
+  if (info?.isDirectory) {
+    throw new InputError(`"${out}" is a folder; give a file name`, { where: "--out" });
+  }
+  if (info && !force) {
+    throw new InputError(`"${out}" exists; add --force to overwrite it or choose another name`, {
+      where: "--out",
+    });
+  }
+  const slash = out.lastIndexOf("/");
+  const folder = slash < 0 ? "." : out.slice(0, slash) || "/";
+  try {
+    if (!(await Deno.stat(folder)).isDirectory) throw new Deno.errors.NotFound();
+  } catch (error) {
+    const why = error instanceof Deno.errors.NotFound ? "no such folder" : (error as Error).message;
+    throw new InputError(`cannot write "${out}": ${why} (${folder}); create it first`, {
+      where: "--out",
+    });
+  }
+}
+
+/**
+ * Registers `cases`, `cases show`, `cases check` and `cases export`.
  *
  * @param program The root command.
  * @param setExitCode Raises the exit code (2 when `cases check` finds problems).
@@ -228,6 +267,55 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
       }
       if (bad) setExitCode(2);
     });
+  cases
+    .command("export")
+    .description(
+      "write a case's exact solution, source term, coefficients and boundary data as C, Fortran " +
+        "or Python functions of (x, y), for solvers that evaluate them at their own points",
+    )
+    .argument("<case>", "a built-in case id or the path of a case file (.json)")
+    .requiredOption(
+      "--lang <language>",
+      `the language: ${Object.keys(EXPORT_LANGUAGES).join(", ")}`,
+    )
+    .option("-o, --out <file>", "write to this file instead of standard output")
+    .option("--force", "overwrite the --out file if it exists")
+    .option(
+      "--param <name=value>",
+      "override a parameter (repeatable), e.g. --param ratio=1000",
+      (v: string, acc: string[] | undefined) => [...(acc ?? []), v],
+    )
+    .action(
+      async (
+        id: string,
+        opts: { lang: string; out?: string; force?: boolean; param?: string[] },
+      ) => {
+        if (!Object.hasOwn(EXPORT_LANGUAGES, opts.lang)) {
+          throw new InputError(
+            `unknown language "${opts.lang}"; choose one of: ${
+              Object.keys(EXPORT_LANGUAGES).join(", ")
+            }`,
+            { where: "--lang" },
+          );
+        }
+        const parameters = parseParameterFlags(opts.param);
+        if (opts.out !== undefined) await checkOutPath(opts.out, opts.force === true);
+        const c = await loadCase(id, { parameters });
+        const text = exportCase(c, opts.lang, { version: VERSION });
+        if (opts.out === undefined) {
+          console.log(text.replace(/\n$/, ""));
+          return;
+        }
+        try {
+          await Deno.writeTextFile(opts.out, text, { createNew: opts.force !== true });
+        } catch (error) {
+          throw new InputError(`cannot write "${opts.out}": ${(error as Error).message}`, {
+            where: "--out",
+          });
+        }
+        console.log(terminalSafe(`wrote ${opts.out} (${opts.lang}, case ${c.id})`));
+      },
+    );
 }
 
 /** Each line without control characters: a case file's title or text may carry escape sequences. */

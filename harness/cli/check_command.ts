@@ -17,27 +17,30 @@ import {
 import type { CompiledCase } from "../../cases/types.ts";
 import { compareWithBaseline } from "../baseline/mod.ts";
 import {
-  allVerdicts,
   createPooledReferenceSolver,
   gridSequence,
   type ProgressEvent,
   runCampaign,
   summarize,
 } from "../campaign/mod.ts";
-import { type CampaignResult, readResult } from "../result/mod.ts";
+import { type CampaignResult, readResult, worstStatus } from "../result/mod.ts";
 import {
-  createExternalSolver,
   createReferenceSolver,
+  createSolver,
   loadSolverFile,
+  programsToCheck,
   resolveProgram,
 } from "../solvers/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { InputError } from "./errors.ts";
 import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
-import { escapeTerminal, rendererFor } from "../report/mod.ts";
+import { solverBuild } from "./solver_build.ts";
+import { findChromium } from "./pdf.ts";
+import { escapeTerminal, foundLines, rendererFor, wrapWords } from "../report/mod.ts";
 import {
   environmentRecord,
+  outputWidth,
   parseNumberList,
   parsePositive,
   progressPrinter,
@@ -106,7 +109,10 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
     .option("--resume", "continue the campaign recorded in the output folder's journal")
     .option("--json", "print the result object as JSON instead of the summary")
     .addOption(
-      new Option("--format <list>", "also write reports: comma-separated text,html,md,csv,junit"),
+      new Option(
+        "--format <list>",
+        "also write reports: comma-separated text,html,pdf,md,csv,junit (pdf needs chromium)",
+      ),
     )
     .option("--order-tolerance <t>", "allowed |observed − expected| order (default 0.1)")
     .option("--tolerance <t>", "relative residual tolerance asked of every solver (default 1e-10)")
@@ -205,7 +211,7 @@ export async function selectSolvers(
   const all: Solver[] = [reference];
   const specs = flags.solvers === undefined ? [] : await loadSolverFile(flags.solvers);
   for (const spec of specs) {
-    all.push(createExternalSolver(spec, { solverFileDir: spec.solverFileDir }));
+    all.push(createSolver(spec, { solverFileDir: spec.solverFileDir }));
   }
   let chosen = all;
   if (flags.solver !== undefined) {
@@ -225,18 +231,30 @@ export async function selectSolvers(
   // names a missing interpreter) is bad input: refused before any work, not one failure per solve
   for (const [index, spec] of specs.entries()) {
     if (!chosen.some((s) => s.info.name === spec.name)) continue;
-    const found = await resolveProgram(spec.command[0], {
-      baseDir: spec.solverFileDir,
-      path: spec.env?.PATH,
-    });
-    if (!found.ok) {
+    for (const { field, program } of programsToCheck(spec)) {
+      const found = await resolveProgram(program, {
+        baseDir: spec.solverFileDir,
+        path: spec.env?.PATH,
+      });
+      if (found.ok) continue;
       await Promise.all(all.map((s) => s.close()));
-      throw new InputError(`solvers[${index}] ("${spec.name}"): ${found.reason}`, {
+      const need = field === "batch"
+        ? "; a batch solver needs Slurm's client commands (Debian package slurm-client)"
+        : "";
+      const at = field === "command" ? "" : ` ${field}`;
+      throw new InputError(`solvers[${index}] ("${spec.name}")${at}: ${found.reason}${need}`, {
         where: flags.solvers,
       });
     }
   }
   await Promise.all(all.filter((s) => !chosen.includes(s)).map((s) => s.close()));
+  // the digests of what each chosen solver runs, for the reports' first screen
+  for (const spec of specs) {
+    const solver = chosen.find((s) => s.info.name === spec.name);
+    if (solver && flags.solvers !== undefined) {
+      solver.info.build = await solverBuild(spec, flags.solvers);
+    }
+  }
   return chosen;
 }
 
@@ -290,7 +308,7 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   for (const format of formats) {
     // refuse an unknown report format before any solve runs
     try {
-      rendererFor(format);
+      if (rendererFor(format).printed) findChromium();
     } catch (error) {
       if (error instanceof RangeError) throw new InputError(error.message, { where: "--format" });
       throw error;
@@ -404,7 +422,7 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   if (flags.json) {
     console.log(JSON.stringify(result, finite, 1));
   } else {
-    console.log(summaryText(result));
+    console.log(summaryText(result, outputWidth()));
     console.log(`\nwritten: ${written.join(", ")}`);
   }
   return result;
@@ -477,20 +495,25 @@ function gridsOrThrow(make: () => number[], where: string): number[] {
   }
 }
 
-/** The readable summary printed at the end of a campaign: one line per case × solver, then failures. */
-export function summaryText(result: CampaignResult): string {
+/**
+ * The readable summary printed at the end of a campaign: the builds under test and what was found
+ * (failures by defect, undecided, warnings by criterion with reasons), then one line per case ×
+ * solver, wrapped at word boundaries to `width` columns.
+ */
+export function summaryText(result: CampaignResult, width = 100): string {
   const lines: string[] = [];
   const rows = result.studies.map((s) => {
     const verdicts = s.verdicts;
-    const status = verdicts.some((v) => v.status === "fail")
-      ? "FAIL"
-      : verdicts.some((v) => v.status === "inconclusive")
-      ? "UNDECIDED"
-      : verdicts.every((v) => v.status === "not-applicable")
+    const status = worstStatus(verdicts);
+    const criteria = [
+      ...new Set(verdicts.filter((v) => v.status === status).map((v) => v.criterion)),
+    ];
+    const word = status === "not-applicable"
       ? "n/a"
-      : verdicts.some((v) => v.status === "warn")
-      ? "pass*"
-      : "pass";
+      : status === "pass"
+      ? "pass"
+      : `${status === "warn" ? "pass, warned" : status === "fail" ? "FAIL" : "UNDECIDED"}: ` +
+        criteria.join(", ");
     const order = s.orders.find((o) => o.region === "all" && o.norm === "max");
     const finest = order?.pairwise[order.pairwise.length - 1];
     return [
@@ -499,47 +522,48 @@ export function summaryText(result: CampaignResult): string {
       String(s.expectedOrder),
       finest === null || finest === undefined ? "—" : finest.toFixed(2),
       s.grids.join(","),
-      status,
+      word,
     ];
   });
   const head = ["case", "solver", "expected", "observed (max, finest pair)", "grids", "verdict"];
   const widths = head.map((h, k) => Math.max(h.length, ...rows.map((r) => r[k].length)));
-  const fmt = (r: string[]) => r.map((c, k) => c.padEnd(widths[k])).join("  ");
+  const fmt = (r: string[]) => r.map((c, k) => c.padEnd(widths[k])).join("  ").trimEnd();
   lines.push(fmt(head), widths.map((w) => "─".repeat(w)).join("  "), ...rows.map(fmt));
-  const failed = allVerdicts(result).filter((v) => v.status === "fail");
-  if (failed.length > 0) {
-    lines.push("", "Failed:");
-    for (const v of failed) lines.push(`  ${v.caseId} × ${v.solver} [${v.criterion}]: ${v.reason}`);
-  }
-  const undecided = allVerdicts(result).filter((v) => v.status === "inconclusive");
-  if (undecided.length > 0) {
-    lines.push(
-      "",
-      "Undecided (the evidence does not decide; refine further or fix what blocks it):",
-    );
-    for (const v of undecided) {
-      lines.push(`  ${v.caseId} × ${v.solver} [${v.criterion}]: ${v.reason}`);
-    }
-  }
+  lines.push("", ...foundLines(result, { width }));
   const isolated = result.studies.filter((s) => s.isolation);
   if (isolated.length > 0) {
     lines.push("", "Isolation (variants of each failing case, one ingredient changed):");
-    for (const s of isolated) lines.push(`  ${s.caseId} × ${s.solver}: ${s.isolation!.finding}`);
+    for (const s of isolated) {
+      lines.push(
+        ...wrapWords(`${s.caseId} × ${s.solver}: ${s.isolation!.finding}`, width, "  ", "    "),
+      );
+    }
   }
   const added = result.studies.filter((s) => s.added);
   if (added.length > 0) {
     lines.push("", "Grids added to decide:");
-    for (const s of added) lines.push(`  ${s.caseId} × ${s.solver}: ${s.added!.reason}`);
+    for (const s of added) {
+      lines.push(
+        ...wrapWords(`${s.caseId} × ${s.solver}: ${s.added!.reason}`, width, "  ", "    "),
+      );
+    }
   }
-  for (const note of result.notes ?? []) lines.push("", `note: ${note}`);
+  for (const note of result.notes ?? []) lines.push("", ...wrapWords(note, width, "note: ", "  "));
   const s = result.summary;
   lines.push(
     "",
-    `${s.pass} passed, ${s.fail} failed, ${s.inconclusive ?? 0} undecided, ${s.warn} warnings, ` +
-      `${s.notApplicable} not applicable ` +
-      `(pass* = passed with warnings; see the report for details)`,
-    "Code verification shows the discrete equations are solved correctly; it does not validate " +
-      "the physical model.",
+    ...wrapWords(
+      `${s.pass} passed, ${s.fail} failed, ${s.inconclusive ?? 0} undecided, ${s.warn} warnings, ` +
+        `${s.notApplicable} not applicable (verdicts; see the report for each one)`,
+      width,
+      "",
+    ),
+    ...wrapWords(
+      "Code verification shows the discrete equations are solved correctly; it does not validate " +
+        "the physical model.",
+      width,
+      "",
+    ),
   );
   return lines.map((line) => line.split("\n").map(escapeTerminal).join("\n")).join("\n");
 }

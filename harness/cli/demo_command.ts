@@ -16,7 +16,15 @@ import type { CampaignResult } from "../result/mod.ts";
 import { createExternalSolver, loadSolverFile, type Solver } from "../solvers/mod.ts";
 import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
-import { environmentRecord, parsePositive, progressPrinter, writeFileWhole } from "./shared.ts";
+import { foundLines, wrapWords } from "../report/mod.ts";
+import { solverBuild } from "./solver_build.ts";
+import {
+  environmentRecord,
+  outputWidth,
+  parsePositive,
+  progressPrinter,
+  writeFileWhole,
+} from "./shared.ts";
 
 /** Default output folder of the demo. */
 export const DEMO_OUT = "gridproof-demo";
@@ -84,9 +92,14 @@ export function unmetExpectations(result: CampaignResult): string[] {
   return unmet;
 }
 
-/** The demo's short summary: verdicts per solver, then what was found in the candidate, per case. */
-export function demoSummary(result: CampaignResult): string {
-  const lines = ["", "solver          passed  passed with warnings  failed  not applicable"];
+/**
+ * The demo's summary: the builds under test and what was found first (failures by defect with the
+ * isolation finding, then warnings by criterion with their reasons), then studies per solver.
+ */
+export function demoSummary(result: CampaignResult, width = 100): string {
+  const lines = ["", ...foundLines(result, { width, reasonsPerWarning: 3 })];
+  lines.push("", "Studies per solver:");
+  lines.push("  solver          passed  passed with warnings  failed  not applicable");
   for (const solver of result.solvers.map((s) => s.name)) {
     const studies = result.studies.filter((s) => s.solver === solver);
     const count = (test: (v: string[]) => boolean) =>
@@ -96,32 +109,25 @@ export function demoSummary(result: CampaignResult): string {
     const warned = count((v) => !v.includes("fail") && v.includes("warn"));
     const passed = studies.length - failed - na - warned;
     lines.push(
-      `${solver.padEnd(16)}${String(passed).padStart(6)}  ${String(warned).padStart(20)}  ` +
+      `  ${solver.padEnd(16)}${String(passed).padStart(6)}  ${String(warned).padStart(20)}  ` +
         `${String(failed).padStart(6)}  ${String(na).padStart(14)}`,
     );
   }
-  const failures = result.studies.filter((s) =>
-    s.solver === CANDIDATE && s.verdicts.some((v) => v.status === "fail")
-  );
-  if (failures.length > 0) {
-    lines.push("", `What the verification found in ${CANDIDATE}:`);
-    for (const s of failures) {
-      const v = s.verdicts.find((v) => v.status === "fail" && v.criterion === "order") ??
-        s.verdicts.find((v) => v.status === "fail")!;
-      // the isolation finding says where in one sentence; the verdict's reason has the evidence
-      lines.push(
-        s.isolation
-          ? `  ${s.caseId} [${v.criterion}, isolated]: ${s.isolation.finding}`
-          : `  ${s.caseId} [${v.criterion}]: ${v.reason}`,
-      );
-    }
-  }
   lines.push(
     "",
-    "Warnings are expected here: the SOR solvers' iteration counts grow with the grid (the scaling " +
-      "analysis shows it), and some quantities of interest are not yet in their asymptotic range.",
-    "Code verification shows the discrete equations are solved correctly; it does not validate " +
-      "the physical model.",
+    ...wrapWords(
+      "Warnings are expected here: the SOR solvers' iteration counts grow with the grid (the " +
+        "scaling analysis shows it), and some quantities of interest are not yet in their " +
+        "asymptotic range.",
+      width,
+      "",
+    ),
+    ...wrapWords(
+      "Code verification shows the discrete equations are solved correctly; it does not validate " +
+        "the physical model.",
+      width,
+      "",
+    ),
   );
   return lines.join("\n");
 }
@@ -144,6 +150,9 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
     createPooledReferenceSolver({ workers: jobs }),
     ...specs.map((spec) => createExternalSolver(spec, { solverFileDir: spec.solverFileDir })),
   ];
+  for (const [k, spec] of specs.entries()) {
+    solvers[k + 1].info.build = await solverBuild(spec, fileURLToPath(SOLVER_FILE));
+  }
   let result: CampaignResult;
   try {
     result = await runCampaign(cases, solvers, {
@@ -166,7 +175,7 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
   ) {
     await writeReport(result, { format, out: `${out}/${file}` });
   }
-  log(demoSummary(result));
+  log(demoSummary(result, outputWidth()));
   const unmet = unmetExpectations(result);
   log("");
   if (unmet.length === 0) {
@@ -176,7 +185,7 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
     );
   } else {
     log("The demonstration did not run as intended:");
-    for (const u of unmet) log(`  - ${u}`);
+    for (const u of unmet) log(wrapWords(u, outputWidth(), "  - ", "    ").join("\n"));
   }
   log(`\nHTML report: ${out}/report.html`);
   log(`Also written: ${out}/result.json, ${out}/report.md, ${out}/report.xml`);

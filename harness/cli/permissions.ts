@@ -16,7 +16,8 @@ export const WHY_GRANTED: Readonly<Record<GrantedPermission, string>> = {
   write: "the output folder (journal, result.json, reports) and `--out` files",
   env: "PATH, to find a solver's command, and NO_COLOR",
   run: "your solvers, util-linux `setsid` to give each its own process group, `kill`, and " +
-    "`/bin/sh` with `cat` to list in /proc the processes a solver started",
+    "`/bin/sh` with `cat` to list in /proc the processes a solver started; Chromium to print " +
+    "`--format pdf`",
   sys: "the host name recorded in result.json",
 };
 
@@ -28,9 +29,10 @@ export const COMMAND_NEEDS: Readonly<Record<string, readonly GrantedPermission[]
   "cases": ["read"],
   "cases show": ["read"],
   "cases check": ["read"],
+  "cases export": ["read", "write"],
   "check": ["read", "write", "env", "run", "sys"],
   "solve": ["read"],
-  "report": ["read", "write", "env"],
+  "report": ["read", "write", "env", "run"],
   "refine": ["read"],
   "probe": ["read", "env", "run"],
   "demo": ["read", "write", "env", "run", "sys"],

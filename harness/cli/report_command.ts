@@ -7,6 +7,7 @@
 import type { Command } from "commander";
 import { InputError } from "./errors.ts";
 import { writeFileWhole } from "./shared.ts";
+import { findChromium, printPdf } from "./pdf.ts";
 import { type CampaignResult, readResult } from "../result/mod.ts";
 import { RENDERERS, type ReportFormat } from "../report/mod.ts";
 
@@ -57,9 +58,10 @@ export async function writeReport(
     );
   }
   const renderer = RENDERERS[format as ReportFormat];
+  const chromium = renderer.printed ? findChromium() : undefined;
   const color = options.out === undefined && format === "text" && wantsColor();
   const text = await renderer.render(result, { color });
-  const bytes = new TextEncoder().encode(text);
+  const bytes = chromium ? await printPdf(text, chromium) : new TextEncoder().encode(text);
   if (options.out === undefined) {
     await writeAll(bytes);
     return undefined;
@@ -98,6 +100,8 @@ export function registerReportCommand(
           { where: "--format" },
         );
       }
+      // a printed format needs its browser: refused before the result is read
+      if (RENDERERS[options.format as ReportFormat].printed) findChromium();
       const result = await readResult(path);
       const written = await writeReport(result, options);
       if (written !== undefined) console.error(`gridproof: wrote ${written}`);

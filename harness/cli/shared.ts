@@ -56,30 +56,121 @@ export function environmentRecord(): CampaignResult["environment"] {
   };
 }
 
+/** Columns of standard output: the terminal's width, else 100 (logs and pipes). */
+export function outputWidth(): number {
+  try {
+    if (Deno.stdout.isTerminal()) return Math.max(60, Deno.consoleSize().columns);
+  } catch {
+    // no terminal size (not a terminal after all): the default below
+  }
+  return 100;
+}
+
+/** Seconds as "42 s", "3 min 05 s" or "1 h 02 min". */
+export function clock(seconds: number): string {
+  const t = Math.max(0, Math.round(seconds));
+  if (t < 60) return `${t} s`;
+  if (t < 3600) return `${Math.floor(t / 60)} min ${String(t % 60).padStart(2, "0")} s`;
+  return `${Math.floor(t / 3600)} h ${String(Math.floor((t % 3600) / 60)).padStart(2, "0")} min`;
+}
+
+/** What the progress line says about a batch of solves so far. */
+export interface ProgressState {
+  /** The batch: the planned grids, grids added to decide, or isolation variants. */
+  phase: string;
+  done: number;
+  total: number;
+  /** Seconds since the batch started. */
+  elapsed: number;
+  /** Solves of the batch that failed or did not converge so far. */
+  failed: number;
+}
+
 /**
- * A progress printer on stderr: a bar redrawn in place on a terminal, one plain line per solve
- * otherwise (logs, CI).
+ * The progress line of a batch: count, elapsed time, the estimate of the time left (from the
+ * batch's own pace; none before two solves) and the failures so far.
+ *
+ * @example
+ * ```ts
+ * import assert from "node:assert/strict";
+ * import { progressLine } from "./shared.ts";
+ * assert.equal(
+ *   progressLine({ phase: "solves", done: 30, total: 120, elapsed: 10, failed: 1 }),
+ *   "solves 30/120 · 10 s elapsed · about 30 s left · 1 failed",
+ * );
+ * ```
  */
-export function progressPrinter(): (event: ProgressEvent) => void {
+export function progressLine(state: ProgressState): string {
+  const { phase, done, total, elapsed, failed } = state;
+  const left = done >= 2 && done < total
+    ? ` · about ${clock((elapsed / done) * (total - done))} left`
+    : "";
+  return `${phase} ${done}/${total} · ${clock(elapsed)} elapsed${left} · ` +
+    `${failed === 0 ? "none failed" : `${failed} failed`}`;
+}
+
+/**
+ * A progress printer on stderr: a line redrawn in place on a terminal (a bar, the count, elapsed
+ * time, an estimate of the time left and the failures so far), one plain line per solve
+ * otherwise (logs, CI). A batch that follows the planned solves (grids added to decide, isolation
+ * variants) starts its own count. When a batch ends, a line says what happens next, so the pause
+ * while the studies are judged and the reports written is never silent.
+ *
+ * @param now The clock in milliseconds (tests pass their own). Default `performance.now`.
+ */
+export function progressPrinter(
+  now: () => number = () => performance.now(),
+): (event: ProgressEvent) => void {
   const encoder = new TextEncoder();
   const terminal = Deno.stderr.isTerminal();
   const write = (s: string) => Deno.stderr.writeSync(encoder.encode(s));
+  let started = now();
+  let failed = 0;
+  let batches = 0;
+  let phase = "solves";
+  let last = 0;
   return (event) => {
     const r = event.record;
+    if (event.done === 1 || event.done <= last) {
+      // a new batch: the planned solves, then grids added to decide, then isolation variants
+      batches++;
+      started = now();
+      failed = 0;
+      phase = batches === 1
+        ? "solves"
+        : r.caseId.includes("~")
+        ? "isolation variants"
+        : "added grids";
+    }
+    last = event.done;
+    if (r.status === "failed" || r.converged === false) failed++;
     const what = `${r.caseId} × ${r.solver} ${r.nx}×${r.ny}`;
     const status = r.status === "ok" ? (r.converged === false ? "not converged" : "ok") : r.status;
+    const elapsed = (now() - started) / 1000;
+    const line = progressLine({ phase, done: event.done, total: event.total, elapsed, failed });
     if (terminal) {
-      const width = 30;
+      let columns = 100;
+      try {
+        columns = Deno.consoleSize().columns;
+      } catch {
+        // stderr is a terminal without a size: keep 100 columns
+      }
+      const width = 20;
       const filled = Math.round((event.done / event.total) * width);
-      write(
-        `\r[${"#".repeat(filled)}${".".repeat(width - filled)}] ${event.done}/${event.total} ` +
-          `${what.slice(0, 50).padEnd(50)}`,
-      );
+      const text = `[${"#".repeat(filled)}${".".repeat(width - filled)}] ${line} · ${what}`;
+      write(`\r${[...text].slice(0, columns - 1).join("")}\x1b[K`);
       if (event.done === event.total) write("\n");
     } else {
       write(
         `[${event.done}/${event.total}] ${what}: ${status}` +
           `${event.resumed ? " (from the journal)" : ` (${r.seconds.toFixed(2)} s)`}\n`,
+      );
+    }
+    if (event.done === event.total) {
+      write(
+        `${phase}: ${event.total} done in ${clock(elapsed)}, ` +
+          `${failed === 0 ? "none failed" : `${failed} failed`}; judging the studies ` +
+          `(finer grids or isolation variants may follow), then writing the reports…\n`,
       );
     }
   };

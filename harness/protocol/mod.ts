@@ -1,5 +1,5 @@
 /**
- * The gridproof solver protocol, `gridproof-protocol/1` (documented in docs/protocol.md): message
+ * The gridproof solver protocol, `gridproof-protocol/1` and `/2` (documented in docs/protocol.md): message
  * types, JSON Schemas for every message, the two array encodings (JSON numbers, base64 of
  * little-endian float64), building requests and reading replies with every violation reported
  * with its JSON path. Large messages are written as bytes in pieces ({@link solveRequestBytes},
@@ -45,4 +45,5 @@ export {
   serializeMessage,
   solutionReplyBytes,
   solveRequestBytes,
+  version1Misses,
 } from "./request.ts";

@@ -13,6 +13,7 @@ import {
   type DecodedSolution,
   type GridLayout,
   PROTOCOL_VERSION,
+  type ProtocolVersion,
   type ReadyMessage,
   type Rectangle,
 } from "./types.ts";
@@ -25,6 +26,8 @@ export interface ReplyExpectation {
   nx: number;
   ny: number;
   domain: Rectangle;
+  /** The request's protocol version, which the reply must echo. Default: version 1. */
+  protocol?: ProtocolVersion;
 }
 
 /** Outcome of reading a reply: the decoded reply, or why it is unusable. */
@@ -153,12 +156,13 @@ function logProblem(logLines: string[], what: string): string {
     }); stdout is for protocol messages only, logs belong on stderr`;
 }
 
-function versionProblem(value: unknown): string | undefined {
+function versionProblem(value: unknown, wanted: ProtocolVersion): string | undefined {
   if (!isMessage(value)) return undefined;
   const version = (value as { protocol: unknown }).protocol;
-  if (version === PROTOCOL_VERSION) return undefined;
+  if (version === wanted) return undefined;
   return `the solver speaks protocol ${describeValue(version)}; this gridproof speaks ` +
-    `"${PROTOCOL_VERSION}" — update the adapter to echo "${PROTOCOL_VERSION}" (docs/protocol.md)`;
+    `"${wanted}" to it (the solver file's "protocol" field) — update the adapter to echo ` +
+    `"${wanted}", or set "protocol" to the version it speaks (docs/protocol.md)`;
 }
 
 /** Names point k of a layout: grid indices and coordinates. */
@@ -221,7 +225,7 @@ export function readReply(text: string | ParsedMessage, expect: ReplyExpectation
     : { ok: true, value: text.value, logLines: [], decoded: text.decoded };
   if (!parsed.ok) return fail(parsed.reason);
   const value = parsed.value;
-  const version = versionProblem(value);
+  const version = versionProblem(value, expect.protocol ?? PROTOCOL_VERSION);
   if (version) return fail(version);
   if (parsed.logLines.length > 0) return fail(logProblem(parsed.logLines, "reply"));
   const message = value as Record<string, unknown>;
@@ -353,6 +357,7 @@ function decodeSolution(
  * Reads a session's `ready` message (the answer to `hello`) and checks it.
  *
  * @param text the line the solver wrote
+ * @param protocol the version `hello` was sent in, which `ready` must echo (default version 1)
  * @returns the message, or the reason it is unusable
  *
  * @example
@@ -361,10 +366,10 @@ function decodeSolution(
  * readReady('{"protocol":"gridproof-protocol/1","type":"ready"}').ok; // true
  * ```
  */
-export function readReady(text: string): ReadyCheck {
+export function readReady(text: string, protocol: ProtocolVersion = PROTOCOL_VERSION): ReadyCheck {
   const parsed = parseStdout(text, "ready message");
   if (!parsed.ok) return fail(parsed.reason);
-  const version = versionProblem(parsed.value);
+  const version = versionProblem(parsed.value, protocol);
   if (version) return fail(version);
   if (parsed.logLines.length > 0) return fail(logProblem(parsed.logLines, "ready message"));
   const problems = validateMessage("ready", parsed.value);

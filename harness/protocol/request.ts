@@ -13,7 +13,11 @@ import { validateMessage } from "./schemas.ts";
 import {
   type ArrayEncoding,
   type ExpressionTexts,
+  faceCounts,
   PROTOCOL_VERSION,
+  PROTOCOL_VERSION_2,
+  PROTOCOL_VERSIONS,
+  type ProtocolVersion,
   type SampledProblem,
   type SampledSide,
   type SchemeHint,
@@ -40,6 +44,11 @@ export interface RequestDetails {
    * in with `constantArrays`). Default: false.
    */
   constants?: boolean;
+  /**
+   * The protocol version of the request. Default: version 1, which cannot carry the
+   * conservative form or the mixed term (building such a request throws).
+   */
+  protocol?: ProtocolVersion;
 }
 
 /**
@@ -75,7 +84,11 @@ export function buildSolveRequest(
   details: RequestDetails,
 ): SolveRequestMessage {
   const constants = details.constants ?? false;
-  return assembleRequest(problem, details, (v) => encodeArray(v, details.encoding, { constants }));
+  return assembleRequest(
+    problem,
+    details,
+    (v) => encodeArray(v, details.encoding, { constants }),
+  ) as SolveRequestMessage;
 }
 
 /**
@@ -130,12 +143,33 @@ function knownConstants(
 ): Map<Float64Array, { constant: number; length: number }> {
   const known = new Map<Float64Array, { constant: number; length: number }>();
   for (const [name, value] of Object.entries(problem.constantCoefficients ?? {})) {
-    const v = problem.coefficients[name as keyof SampledProblem["coefficients"]];
+    const v = name === "m"
+      ? problem.m
+      : problem.coefficients[name as keyof SampledProblem["coefficients"]];
+    if (v === undefined || problem.form === "conservative") continue;
     if (v.length > 0 && v[0] === value && v[v.length - 1] === value && Number.isFinite(value)) {
       known.set(v, { constant: value, length: v.length });
     }
   }
   return known;
+}
+
+/** true when some entry of `m` is not 0 (an absent `m` is 0). */
+function hasMixedTerm(m: Float64Array | undefined): boolean {
+  return m !== undefined && m.some((v) => v !== 0);
+}
+
+/**
+ * Why a problem cannot be written in version 1 (the conservative form, a mixed term), or
+ * undefined when it can.
+ *
+ * @param problem the sampled problem
+ * @returns the reason, for a not-applicable outcome or an error
+ */
+export function version1Misses(problem: SampledProblem): string | undefined {
+  if (problem.form === "conservative") return "protocol 1 has no conservative form";
+  if (hasMixedTerm(problem.m)) return "protocol 1 has no mixed term (u_xy)";
+  return undefined;
 }
 
 /** The request message with each array written by `enc`. */
@@ -144,6 +178,17 @@ function assembleRequest<A>(
   details: RequestDetails,
   enc: (v: Float64Array) => A,
 ) {
+  const protocol = details.protocol ?? PROTOCOL_VERSION;
+  if (protocol === PROTOCOL_VERSION) {
+    const misses = version1Misses(problem);
+    if (misses) {
+      throw new RangeError(
+        `cannot write request ${details.id} (case ${details.caseId}) in ` +
+          `${PROTOCOL_VERSION}: ${misses}; send it in ${PROTOCOL_VERSION_2} to a solver that ` +
+          `speaks it (docs/protocol.md, "Moving to version 2")`,
+      );
+    }
+  }
   const boundary = {} as Record<
     SideName,
     { kind: SampledSide["kind"]; alpha?: number; beta?: number; values: A }
@@ -157,8 +202,46 @@ function assembleRequest<A>(
   const c = problem.coefficients;
   const caseInfo: SolveRequestMessage["case"] = { id: details.caseId };
   if (details.caseTitle !== undefined) caseInfo.title = details.caseTitle;
+  const count = layoutPointCount(problem.layout, problem.nx, problem.ny);
+  const form = problem.form ?? "non-conservative";
+  const operator: Record<string, unknown> = {};
+  if (protocol === PROTOCOL_VERSION_2) {
+    operator.form = form;
+    operator.interfaces = {
+      x: [...(problem.interfaces?.x ?? [])],
+      y: [...(problem.interfaces?.y ?? [])],
+    };
+  }
+  if (form === "conservative") {
+    const k = problem.conservative;
+    if (!k) {
+      throw new TypeError(`request ${details.id}: a conservative problem needs its conductivity`);
+    }
+    operator.conservative = {
+      k11: enc(k.k11),
+      k12: enc(k.k12),
+      k22: enc(k.k22),
+      bx: enc(c.b),
+      by: enc(c.d),
+      sigma: enc(c.e),
+      faces: {
+        x: { k11: enc(k.faces.x.k11), k12: enc(k.faces.x.k12) },
+        y: { k12: enc(k.faces.y.k12), k22: enc(k.faces.y.k22) },
+      },
+    };
+  } else {
+    const coefficients: Record<string, A> = {
+      a: enc(c.a),
+      b: enc(c.b),
+      c: enc(c.c),
+      d: enc(c.d),
+      e: enc(c.e),
+    };
+    if (protocol === PROTOCOL_VERSION_2) coefficients.m = enc(problem.m ?? new Float64Array(count));
+    operator.coefficients = coefficients;
+  }
   return {
-    protocol: PROTOCOL_VERSION as typeof PROTOCOL_VERSION,
+    protocol,
     type: "solve" as const,
     id: details.id,
     case: caseInfo,
@@ -168,10 +251,10 @@ function assembleRequest<A>(
       ny: problem.ny,
       layout: problem.layout,
       order: "x-fastest" as const,
-      points: layoutPointCount(problem.layout, problem.nx, problem.ny),
+      points: count,
     },
     encoding: details.encoding,
-    coefficients: { a: enc(c.a), b: enc(c.b), c: enc(c.c), d: enc(c.d), e: enc(c.e) },
+    ...operator,
     source: enc(problem.source),
     boundary,
     expressions: details.expressions,
@@ -200,7 +283,8 @@ export interface ReadRequest {
  *   `LineScanner`)
  * @param options `keptConstants`: buffers kept from request to request for arrays sent in the
  *   constant form, by path (see `decodeArray`); for a solver answering one request at a time, so
- *   that constant coefficients do not cost fresh memory on every request (default: none)
+ *   that constant coefficients do not cost fresh memory on every request (default: none);
+ *   `versions`: the protocol versions the program speaks (default: both)
  * @returns the decoded request
  * @throws RangeError listing every problem (an adapter answers it with an `error` reply)
  *
@@ -212,7 +296,8 @@ export interface ReadRequest {
  */
 export function readSolveRequest(
   text: string | ParsedMessage,
-  options: { keptConstants?: Map<string, Float64Array> } = {},
+  options: { keptConstants?: Map<string, Float64Array>; versions?: readonly ProtocolVersion[] } =
+    {},
 ): ReadRequest {
   let value: unknown;
   let decoded: ReadonlyMap<string, Float64Array>;
@@ -226,9 +311,12 @@ export function readSolveRequest(
     );
   }
   const version = (value as { protocol?: unknown } | null)?.protocol;
-  if (typeof version === "string" && version !== PROTOCOL_VERSION) {
+  const speaks = options.versions ?? PROTOCOL_VERSIONS;
+  if (typeof version === "string" && !speaks.includes(version as ProtocolVersion)) {
     throw new RangeError(
-      `the request uses protocol "${version}"; this program speaks "${PROTOCOL_VERSION}"`,
+      `the request uses protocol "${version}"; this program speaks ${
+        speaks.map((v) => `"${v}"`).join(" and ")
+      }`,
     );
   }
   const problems = validateMessage("solve", value);
@@ -245,7 +333,6 @@ export function readSolveRequest(
     }
     return v;
   };
-  const c = message.coefficients;
   const boundary = {} as Record<SideName, SampledSide>;
   for (const side of SIDE_NAMES) {
     const b = message.boundary[side];
@@ -256,24 +343,61 @@ export function readSolveRequest(
       ? { kind: "robin", alpha: b.alpha, beta: b.beta, values }
       : { kind: b.kind, values };
   }
-  return {
-    message,
-    problem: {
-      domain: message.domain,
-      nx,
-      ny,
-      layout,
-      coefficients: {
-        a: read(c.a, "/coefficients/a", count),
-        b: read(c.b, "/coefficients/b", count),
-        c: read(c.c, "/coefficients/c", count),
-        d: read(c.d, "/coefficients/d", count),
-        e: read(c.e, "/coefficients/e", count),
-      },
-      source: read(message.source, "/source", count),
-      boundary,
-    },
+  const problem: SampledProblem = {
+    domain: message.domain,
+    nx,
+    ny,
+    layout,
+    // filled below from `coefficients` or `conservative`
+    coefficients: undefined as unknown as SampledProblem["coefficients"],
+    source: read(message.source, "/source", count),
+    boundary,
   };
+  if (message.protocol === PROTOCOL_VERSION_2) {
+    problem.form = message.form;
+    problem.interfaces = { x: [...message.interfaces!.x], y: [...message.interfaces!.y] };
+  }
+  const k = message.conservative;
+  if (message.form === "conservative" && k) {
+    const faces = faceCounts(layout, nx, ny);
+    const k11 = read(k.k11, "/conservative/k11", count);
+    const k22 = read(k.k22, "/conservative/k22", count);
+    problem.coefficients = {
+      a: k11,
+      b: read(k.bx, "/conservative/bx", count),
+      c: k22,
+      d: read(k.by, "/conservative/by", count),
+      e: read(k.sigma, "/conservative/sigma", count),
+    };
+    problem.conservative = {
+      k11,
+      k12: read(k.k12, "/conservative/k12", count),
+      k22,
+      faces: {
+        x: {
+          k11: read(k.faces.x.k11, "/conservative/faces/x/k11", faces.x),
+          k12: read(k.faces.x.k12, "/conservative/faces/x/k12", faces.x),
+        },
+        y: {
+          k12: read(k.faces.y.k12, "/conservative/faces/y/k12", faces.y),
+          k22: read(k.faces.y.k22, "/conservative/faces/y/k22", faces.y),
+        },
+      },
+    };
+  } else {
+    const c = message.coefficients!;
+    problem.coefficients = {
+      a: read(c.a, "/coefficients/a", count),
+      b: read(c.b, "/coefficients/b", count),
+      c: read(c.c, "/coefficients/c", count),
+      d: read(c.d, "/coefficients/d", count),
+      e: read(c.e, "/coefficients/e", count),
+    };
+    if (message.protocol === PROTOCOL_VERSION_2 && c.m !== undefined) {
+      problem.m = read(c.m, "/coefficients/m", count);
+    }
+  }
+  return { message, problem };
 }
 
 /**
@@ -281,7 +405,8 @@ export function readSolveRequest(
  *
  * @param id the request id
  * @param values the solution at the layout's points (or at `extras.points`)
- * @param options extras and the encoding of the arrays (default "numbers")
+ * @param options extras, the encoding of the arrays (default "numbers") and the protocol version
+ *   (default version 1; answer a request in its own version)
  * @returns the message, ready for {@link serializeMessage}
  *
  * @example
@@ -293,7 +418,7 @@ export function readSolveRequest(
 export function buildSolutionReply(
   id: string,
   values: Float64Array,
-  options: SolutionExtras & { encoding?: ArrayEncoding } = {},
+  options: SolutionExtras & { encoding?: ArrayEncoding; protocol?: ProtocolVersion } = {},
 ): Record<string, unknown> {
   const encoding = options.encoding ?? "numbers";
   return assembleReply(id, values, options, (v) => encodeArray(v, encoding));
@@ -306,7 +431,8 @@ export function buildSolutionReply(
  *
  * @param id the request id
  * @param values the solution; read when the bytes are, so keep it unchanged until then
- * @param options extras and the encoding of the arrays (default "numbers")
+ * @param options extras, the encoding of the arrays (default "numbers") and the protocol version
+ *   (default version 1; answer a request in its own version)
  * @returns the size and the bytes of the line
  *
  * @example
@@ -319,7 +445,7 @@ export function buildSolutionReply(
 export function solutionReplyBytes(
   id: string,
   values: Float64Array,
-  options: SolutionExtras & { encoding?: ArrayEncoding } = {},
+  options: SolutionExtras & { encoding?: ArrayEncoding; protocol?: ProtocolVersion } = {},
 ): MessageBytes {
   const base64 = options.encoding === "base64";
   // a Float64Array left in the message is written as base64 by messageBytes
@@ -330,11 +456,11 @@ export function solutionReplyBytes(
 function assembleReply(
   id: string,
   values: Float64Array,
-  options: SolutionExtras,
+  options: SolutionExtras & { protocol?: ProtocolVersion },
   enc: (v: Float64Array) => unknown,
 ): Record<string, unknown> {
   const reply: Record<string, unknown> = {
-    protocol: PROTOCOL_VERSION,
+    protocol: options.protocol ?? PROTOCOL_VERSION,
     type: "solution",
     id,
     values: enc(values),

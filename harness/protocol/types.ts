@@ -1,12 +1,37 @@
 /**
- * Message types of `gridproof-protocol/1` (see docs/protocol.md). Arrays appear in two shapes:
- * on the wire ({@link WireArray}: JSON numbers or base64 text) and decoded (`Float64Array`).
+ * Message types of `gridproof-protocol/1` and `gridproof-protocol/2` (see docs/protocol.md).
+ * Version 2 adds the operator form (conservative or not), the mixed term u_xy, K at the faces and
+ * the material interfaces. Arrays appear in two shapes: on the wire ({@link WireArray}: JSON
+ * numbers or base64 text) and decoded (`Float64Array`).
  *
  * @module
  */
 
-/** The version string every message carries and every reply must echo. */
+/** Version 1: the non-conservative operator without the mixed term; the default of a solver file. */
 export const PROTOCOL_VERSION = "gridproof-protocol/1";
+
+/** Version 2: the operator form, the mixed term, K at faces and material interfaces. */
+export const PROTOCOL_VERSION_2 = "gridproof-protocol/2";
+
+/** A version string a message may carry. */
+export type ProtocolVersion = typeof PROTOCOL_VERSION | typeof PROTOCOL_VERSION_2;
+
+/** Every version this gridproof speaks, oldest first. */
+export const PROTOCOL_VERSIONS: readonly ProtocolVersion[] = [
+  PROTOCOL_VERSION,
+  PROTOCOL_VERSION_2,
+] as const;
+
+/** The version string of a protocol number (1 or 2), as a solver file's `protocol` names it. */
+export function protocolVersion(number: 1 | 2): ProtocolVersion {
+  return number === 2 ? PROTOCOL_VERSION_2 : PROTOCOL_VERSION;
+}
+
+/**
+ * The operator's form: `non-conservative` a·u_xx + m·u_xy + c·u_yy + b·u_x + d·u_y + e·u = f, or
+ * `conservative` ∇·(K∇u) + βx·u_x + βy·u_y + σ·u = f.
+ */
+export type OperatorFormName = "non-conservative" | "conservative";
 
 /** How arrays are written: plain JSON numbers or base64 of little-endian float64. */
 export type ArrayEncoding = "numbers" | "base64";
@@ -76,7 +101,51 @@ export interface SampledProblem {
    * that value: a request in the constant form sends them without looking at their arrays.
    * Optional; arrays not named here are looked at.
    */
-  constantCoefficients?: Partial<Record<"a" | "b" | "c" | "d" | "e", number>>;
+  constantCoefficients?: Partial<Record<"a" | "b" | "c" | "d" | "e" | "m", number>>;
+  /** The operator's form; absent: non-conservative. Version 2 only when not the default. */
+  form?: OperatorFormName;
+  /** Coefficient of u_xy at the points (non-conservative form, version 2); absent: 0. */
+  m?: Float64Array;
+  /**
+   * The conservative form's K (form "conservative" only). Then `coefficients.a` and `.c` hold
+   * k11 and k22 at the points, and `b`, `d`, `e` hold βx, βy and σ.
+   */
+  conservative?: SampledConductivity;
+  /** Material interfaces (lines x = const and y = const); absent: none. */
+  interfaces?: { x: number[]; y: number[] };
+}
+
+/**
+ * K = [[k11, k12], [k12, k22]] at the points of a layout and at its faces. A face value on an
+ * interface is the effective one (harmonic mean across it, arithmetic along it); solvers never
+ * average. Face arrays, x fastest:
+ *
+ * - `faces.x`, faces whose flux runs along x: cell layout the x-faces at (x0 + i·hx,
+ *   y0 + (j + ½)·hy), (nx + 1)·ny values, index j·(nx + 1) + i; vertex layout the midpoints of
+ *   the edges along x at (x0 + (i + ½)·hx, y0 + j·hy), nx·(ny + 1) values, index j·nx + i.
+ * - `faces.y`, flux along y: cell layout the y-faces at (x0 + (i + ½)·hx, y0 + j·hy),
+ *   nx·(ny + 1) values, index j·nx + i; vertex layout the midpoints of the edges along y at
+ *   (x0 + i·hx, y0 + (j + ½)·hy), (nx + 1)·ny values, index j·(nx + 1) + i.
+ */
+export interface SampledConductivity {
+  k11: Float64Array;
+  k12: Float64Array;
+  k22: Float64Array;
+  faces: {
+    x: { k11: Float64Array; k12: Float64Array };
+    y: { k12: Float64Array; k22: Float64Array };
+  };
+}
+
+/** Number of values of each face array of a layout (see {@link SampledConductivity}). */
+export function faceCounts(
+  layout: GridLayout,
+  nx: number,
+  ny: number,
+): { x: number; y: number } {
+  return layout === "cell"
+    ? { x: (nx + 1) * ny, y: nx * (ny + 1) }
+    : { x: nx * (ny + 1), y: (nx + 1) * ny };
 }
 
 /** The expressions of a case as text (mathjs syntax), for solvers that evaluate them. */
@@ -86,20 +155,52 @@ export interface ExpressionTexts {
   c: string;
   d: string;
   e: string;
+  /** Coefficient of u_xy, when the case has one. */
+  m?: string;
+  /** The conservative form's terms (cases of that form without interfaces). */
+  conservative?: { k11: string; k12: string; k22: string; bx: string; by: string; sigma: string };
   source: string;
   boundary: Record<SideName, string>;
 }
 
+/** The conservative form's arrays of a version 2 request (on the wire). */
+export interface WireConservative {
+  k11: WireArray;
+  k12: WireArray;
+  k22: WireArray;
+  bx: WireArray;
+  by: WireArray;
+  sigma: WireArray;
+  faces: { x: { k11: WireArray; k12: WireArray }; y: { k12: WireArray; k22: WireArray } };
+}
+
 /** A solve request as sent (arrays on the wire). */
 export interface SolveRequestMessage {
-  protocol: typeof PROTOCOL_VERSION;
+  protocol: ProtocolVersion;
   type: "solve";
   id: string;
   case: { id: string; title?: string };
   domain: Rectangle;
   grid: { nx: number; ny: number; layout: GridLayout; order: "x-fastest"; points: number };
   encoding: ArrayEncoding;
-  coefficients: { a: WireArray; b: WireArray; c: WireArray; d: WireArray; e: WireArray };
+  /** Version 2: the operator's form (version 1 is always non-conservative). */
+  form?: OperatorFormName;
+  /** Version 2: material interfaces (empty lists when none). */
+  interfaces?: { x: number[]; y: number[] };
+  /**
+   * The non-conservative coefficients (absent for the conservative form); `m` (u_xy) is sent in
+   * version 2 only.
+   */
+  coefficients?: {
+    a: WireArray;
+    b: WireArray;
+    c: WireArray;
+    d: WireArray;
+    e: WireArray;
+    m?: WireArray;
+  };
+  /** Version 2, conservative form: K at points and faces, β and σ at points. */
+  conservative?: WireConservative;
   source: WireArray;
   boundary: Record<
     SideName,
@@ -115,6 +216,8 @@ export interface SolveRequestMessage {
 export interface SolverIdentity {
   name?: string;
   version?: string;
+  /** Any build id the solver reports (a commit, a build number, compiler flags). */
+  build?: string;
 }
 
 /** What a session solver says it supports in its `ready` message (absent list: everything). */
@@ -124,6 +227,8 @@ export interface Capabilities {
   layouts?: ("vertex" | "cell" | "points")[];
   encodings?: ArrayEncoding[];
   largestGrid?: { nx: number; ny: number };
+  /** Version 2: the operator forms the solver solves (absent: both). */
+  forms?: OperatorFormName[];
   /**
    * true: the solver reads `{ constant, length }` arrays in requests, so constant coefficients
    * are sent as one number (as the solver file's `constantArrays` asks for).
@@ -133,19 +238,19 @@ export interface Capabilities {
 
 /** The `hello` message opening a session. */
 export interface HelloMessage {
-  protocol: typeof PROTOCOL_VERSION;
+  protocol: ProtocolVersion;
   type: "hello";
 }
 
 /** The `goodbye` message closing a session. */
 export interface GoodbyeMessage {
-  protocol: typeof PROTOCOL_VERSION;
+  protocol: ProtocolVersion;
   type: "goodbye";
 }
 
 /** The solver's answer to `hello`. */
 export interface ReadyMessage {
-  protocol: typeof PROTOCOL_VERSION;
+  protocol: ProtocolVersion;
   type: "ready";
   solver?: SolverIdentity;
   supports?: Capabilities;

@@ -29,32 +29,75 @@ import {
   worst,
 } from "./_shared.ts";
 import { escapeHtml as esc } from "./escape.ts";
+import { buildRows, reportedLine, shortDigest } from "./builds.ts";
+import {
+  criteriaAt,
+  type Finding,
+  findingsOf,
+  measuresPhrase,
+  pairsPhrase,
+  type WarningGroup,
+} from "./findings.ts";
 import { type PlotSpec, renderSvg, reportPlots } from "./plots.ts";
+import { formulaMathml, texMathml } from "./formulas.ts";
 
 const STYLE = `
 :root { color-scheme: light; --fail: #b3261e; --undecided: #6a1b9a; --warn: #8a5a00; --pass: #1e6b34; --na: #666; }
-body { font: 15px/1.5 system-ui, sans-serif; margin: 0 auto; max-width: 1180px; padding: 1.5rem;
+body { font: 15px/1.5 system-ui, sans-serif; margin: 0 auto; max-width: 1320px; padding: 1.5rem;
   color: #1b1b1b; background: #fff; }
 h1 { font-size: 1.6rem; margin-bottom: 0.2rem; }
 h2 { font-size: 1.3rem; border-bottom: 2px solid #ddd; padding-bottom: 0.2rem; margin-top: 2.2rem; }
 h3 { font-size: 1.05rem; margin-top: 1.4rem; }
-table { border-collapse: collapse; margin: 0.5rem 0 1rem; font-size: 0.88rem; display: block;
-  overflow-x: auto; max-width: 100%; }
-th, td { border: 1px solid #d5d5d5; padding: 0.2rem 0.5rem; text-align: left; vertical-align: top; }
-th { background: #f3f3f3; }
+table { border-collapse: collapse; margin: 0.5rem 0 1rem; font-size: 0.88rem; max-width: 100%; }
+table.full { width: 100%; }
+th, td { border: 1px solid #d5d5d5; padding: 0.2rem 0.5rem; text-align: left; vertical-align: top;
+  overflow-wrap: break-word; }
+th { background: #f3f3f3; font-weight: 600; }
 td.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
-code, pre { font: 0.85rem/1.4 ui-monospace, monospace; }
-pre { background: #f6f6f6; padding: 0.5rem; overflow-x: auto; white-space: pre-wrap; }
-.status { font-weight: 700; padding: 0 0.35rem; border-radius: 3px; color: #fff; font-size: 0.8rem; }
-.status.fail { background: var(--fail); } .status.warn { background: var(--warn); }
+td.name { white-space: nowrap; }
+code, pre { font: 0.85rem/1.4 ui-monospace, monospace; overflow-wrap: anywhere; }
+pre { background: #f6f6f6; padding: 0.5rem; white-space: pre-wrap; }
+.status { font-weight: 700; padding: 0 0.35rem; border-radius: 3px; color: #fff; font-size: 0.8rem;
+  white-space: nowrap; print-color-adjust: exact; -webkit-print-color-adjust: exact; }
+.status.fail { background: var(--fail); }
 .status.inconclusive { background: var(--undecided); }
-.status.pass { background: var(--pass); } .status.not-applicable { background: var(--na); }
+.status.warn { color: var(--warn); background: #fff; border: 1px solid var(--warn); padding: 0 0.3rem; }
+.status.pass { color: var(--pass); background: #fff; border: 1px solid #9cc5a8; padding: 0 0.3rem; }
+.status.not-applicable { color: var(--na); background: #fff; border: 1px solid #ccc; }
 .caution { border-left: 4px solid var(--warn); background: #fff8e6; padding: 0.5rem 0.8rem; }
+.flag { color: var(--fail); font-weight: 600; }
 .plots { display: flex; flex-wrap: wrap; gap: 1rem; }
-figure.plot { margin: 0; border: 1px solid #e3e3e3; padding: 0.4rem; }
-figure.plot figcaption { font-size: 0.8rem; color: #444; max-width: 460px; }
+figure.plot { margin: 0; border: 1px solid #e3e3e3; padding: 0.4rem; max-width: 100%; }
+figure.plot.wide { flex-basis: 100%; }
+figure.plot svg { max-width: 100%; height: auto; }
+figure.plot figcaption { font-size: 0.8rem; color: #444; max-width: 640px; }
 ul.verdicts { list-style: none; padding-left: 0; } ul.verdicts li { margin: 0.25rem 0; }
+ul.reasons { margin: 0.2rem 0 0.6rem; padding-left: 1.2rem; font-size: 0.9rem; }
 .muted { color: #555; }
+.formula math { font-size: 1.1em; margin-right: 0.25em; }
+dl.kv { display: grid; grid-template-columns: max-content 1fr; gap: 0 0.6rem; margin: 0; }
+dl.kv dt { color: #555; } dl.kv dd { margin: 0; overflow-wrap: anywhere; }
+@media print, (max-width: 60rem) {
+  table.stack thead { display: none; }
+  table.stack, table.stack tbody { display: block; width: 100%; }
+  table.stack tr { display: grid; grid-template-columns: repeat(auto-fill, minmax(13rem, 1fr));
+    border: 1px solid #ccc; margin-bottom: 0.4rem; break-inside: avoid; }
+  table.stack td { display: block; border: none; border-bottom: 1px dotted #ddd; text-align: left;
+    white-space: normal; }
+  table.stack td::before { content: attr(data-label) ": "; font-weight: 600; color: #333; }
+}
+@media print {
+  @page { size: A4; margin: 12mm; }
+  body { font-size: 10pt; max-width: none; padding: 0; }
+  table { font-size: 8.5pt; }
+  h2 { break-after: avoid; } h3 { break-after: avoid; }
+  tr, figure.plot, li { break-inside: avoid; }
+  .plots { gap: 0.4rem; }
+  figure.plot { width: 48%; padding: 0.2rem; }
+  figure.plot.wide { width: 100%; }
+  figure.plot svg { width: 100%; }
+  a { color: inherit; text-decoration: none; }
+}
 `;
 
 function badge(status: VerdictStatus): string {
@@ -98,26 +141,38 @@ function verdictList(verdicts: Verdict[], withPair: boolean): string {
   return `<ul class="verdicts">${items.join("")}</ul>`;
 }
 
+/** An expression typeset as MathML, or as code when it cannot be (the reason in a note). */
+function formulaCell(text: string): string {
+  const mathml = formulaMathml(text);
+  return mathml === undefined
+    ? `<code>${esc(text)}</code> <span class="muted">(shown as text: a term of it is too long ` +
+      `to typeset on one line, or it is not an expression)</span>`
+    : `<span class="formula">${mathml}</span>`;
+}
+
 function formulas(info: CaseInfo): string {
   const f = info.formulas;
-  const rows = [
-    ["operator", "a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f"],
-    ["a", f.a],
-    ["b", f.b],
-    ["c", f.c],
-    ["d", f.d],
-    ["e", f.e],
-    ["exact solution u", f.exact],
-    ["source f", f.source],
-    ...Object.entries(f.boundary).map(([side, text]) => [
+  const operator = texMathml(
+    "a\\,u_{xx} + b\\,u_x + c\\,u_{yy} + d\\,u_y + e\\,u = f",
+    "a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f",
+  );
+  const rows: [string, string][] = [
+    ["operator", `<span class="formula">${operator}</span>`],
+    ["a", formulaCell(f.a)],
+    ["b", formulaCell(f.b)],
+    ["c", formulaCell(f.c)],
+    ["d", formulaCell(f.d)],
+    ["e", formulaCell(f.e)],
+    ["exact solution u", formulaCell(f.exact)],
+    ["source f", formulaCell(f.source)],
+    ...Object.entries(f.boundary).map(([side, text]): [string, string] => [
       `boundary ${side} (${info.boundaryKinds[side] ?? "?"})`,
-      text,
+      formulaCell(text),
     ]),
   ];
   const d = info.domain;
-  return `<table><tbody>${
-    rows.map(([k, v]) => `<tr><th scope="row">${esc(k)}</th><td><code>${esc(v)}</code></td></tr>`)
-      .join("")
+  return `<table class="full formulas"><tbody>${
+    rows.map(([k, v]) => `<tr><th scope="row">${esc(k)}</th><td>${v}</td></tr>`).join("")
   }<tr><th scope="row">domain</th><td>[${num(d.x0)}, ${num(d.x1)}] × [${num(d.y0)}, ${
     num(d.y1)
   }]</td></tr>${
@@ -126,7 +181,8 @@ function formulas(info: CaseInfo): string {
         esc(Object.entries(info.parameters).map(([k, v]) => `${k} = ${v}`).join(", "))
       }</td></tr>`
       : ""
-  }</tbody></table>`;
+  }</tbody></table><p class="muted">Formulas typeset from the case's expression text (MathML ` +
+    `made by MathJax when the report was written); each keeps its text as alternative text.</p>`;
 }
 
 function solveTable(solves: SolveRecord[]): string {
@@ -176,8 +232,49 @@ function orderTable(study: StudyRecord): string {
   }</tbody></table>`;
 }
 
+/** A cell of a {@link stackTable}: text, numeric or not. */
+type Cell = { text: string; numeric?: boolean; html?: string; name?: boolean };
+
+/**
+ * A table whose rows become blocks of "label: value" pairs in print and on narrow screens (class
+ * `stack`), so no column is ever cut off; each cell carries its column header as `data-label`.
+ */
+function stackTable(head: string[], rows: Cell[][], className = "stack full"): string {
+  return `<table class="${className}"><thead><tr>${
+    head.map((h) => `<th>${esc(h)}</th>`).join("")
+  }</tr></thead><tbody>${
+    rows.map((row) =>
+      `<tr>${
+        row.map((c, k) =>
+          `<td${c.numeric ? ` class="n"` : c.name ? ` class="name"` : ""} data-label="${
+            esc(head[k] ?? "")
+          }">${c.html ?? esc(c.text)}</td>`
+        ).join("")
+      }</tr>`
+    ).join("")
+  }</tbody></table>`;
+}
+
+/** Column headers of the GCI audit, the deciding column right after the quantity. */
+export const GCI_HEADERS = [
+  "solver",
+  "quantity",
+  "exact value inside GCI band",
+  "values, coarsest first",
+  "exact",
+  "observed order",
+  "extrapolated",
+  "GCI fine",
+  "GCI coarse",
+  "safety factor",
+  "GCI ratio (≈1 in range)",
+  "GCI (Celik et al.)",
+  "convergence",
+  "least-squares uncertainty",
+] as const;
+
 function gciTable(studies: StudyRecord[]): string {
-  const rows: string[] = [];
+  const rows: Cell[][] = [];
   let audited = 0;
   let covered = 0;
   for (const study of studies) {
@@ -186,39 +283,144 @@ function gciTable(studies: StudyRecord[]): string {
         audited++;
         if (q.covered) covered++;
       }
-      rows.push(
-        `<tr>${td(study.solver)}${td(q.label || q.name)}${
-          td(q.values.map((v) => num(v, 6)).join(", "))
-        }${td(num(q.exact, 6), true)}${td(order(q.order), true)}${
-          td(num(q.extrapolated, 6), true)
-        }${td(percent(q.gciFine), true)}${td(percent(q.gciCoarse), true)}${
-          td(num(q.safetyFactor, 3), true)
-        }${td(num(q.asymptoticRatio, 4), true)}${td(percent(q.celik?.gciFine), true)}${
-          td(q.celik?.convergence ?? "—")
-        }${td(num(q.leastSquares?.uncertainty), true)}${
-          td(q.covered === null ? "—" : q.covered ? "yes" : "NO")
-        }</tr>`,
-      );
+      rows.push([
+        { text: study.solver },
+        { text: q.label || q.name },
+        {
+          text: "",
+          html: q.covered === null ? "—" : q.covered ? "yes" : `<span class="flag">NO</span>`,
+        },
+        { text: q.values.map((v) => num(v, 6)).join(", ") },
+        { text: num(q.exact, 6), numeric: true },
+        { text: order(q.order), numeric: true },
+        { text: num(q.extrapolated, 6), numeric: true },
+        { text: percent(q.gciFine), numeric: true },
+        { text: percent(q.gciCoarse), numeric: true },
+        { text: num(q.safetyFactor, 3), numeric: true },
+        { text: num(q.asymptoticRatio, 4), numeric: true },
+        { text: percent(q.celik?.gciFine), numeric: true },
+        { text: q.celik?.convergence ?? "—" },
+        { text: num(q.leastSquares?.uncertainty), numeric: true },
+      ]);
     }
   }
   if (rows.length === 0) return `<p class="muted">No quantities of interest were studied.</p>`;
   const coverage = studies
     .filter((s) => s.coverage !== null)
     .map((s) => `${esc(s.solver)} ${percent(s.coverage)}`);
-  return `<table><thead><tr><th>solver</th><th>quantity</th><th>values, coarsest first</th>` +
-    `<th>exact</th><th>observed order</th><th>extrapolated</th><th>GCI fine</th>` +
-    `<th>GCI coarse</th><th>safety factor</th><th>GCI ratio (≈1 in range)</th>` +
-    `<th>GCI (Celik et al.)</th><th>convergence</th><th>least-squares uncertainty</th>` +
-    `<th>exact value inside GCI band</th></tr></thead><tbody>${
-      rows.join("")
-    }</tbody></table><p><strong>Coverage audit:</strong> the finest-grid GCI band contained the ` +
+  return `${stackTable([...GCI_HEADERS], rows, "stack full gci")}` +
+    `<p><strong>Coverage audit:</strong> the finest-grid GCI band contained the ` +
     `true error in ${covered} of ${audited} quantities` +
     (coverage.length ? ` (coverage per solver: ${coverage.join(", ")})` : "") +
     `. A band that misses the exact value means the safety factor was not enough.</p>`;
 }
 
+/** The builds under test: what each solver reported, its command and the digests of its files. */
+function buildsSection(result: CampaignResult): string {
+  const rows = buildRows(result).map((row): Cell[] => [
+    { text: row.solver, name: true },
+    {
+      text: "",
+      html: esc(reportedLine(row)) +
+        (row.changed ? ` <span class="flag">the build changed during the campaign</span>` : ""),
+    },
+    { text: "", html: `<code>${esc(row.command)}</code>` },
+    {
+      text: "",
+      html: [
+        ...(row.solverFile ? [`solver file ${esc(shortDigest(row.solverFile))}`] : []),
+        ...row.files.map((f) => esc(shortDigest(f))),
+        ...row.unread.map((u) => `<span class="flag">not read: ${esc(u)}</span>`),
+      ].join("<br>") || (row.kind === "reference" ? "part of gridproof" : "—"),
+    },
+  ]);
+  return `<section id="builds"><h2>Builds under test</h2>${
+    stackTable(
+      ["solver", "reported by the solver (name, version, build)", "command", "files (SHA-256)"],
+      rows,
+    )
+  }</section>`;
+}
+
+/** A reason cut at a word boundary for a summary line (the full text is in the case section). */
+function gist(text: string, max = 260): string {
+  if ([...text].length <= max) return text;
+  const cut = [...text].slice(0, max).join("");
+  const space = cut.lastIndexOf(" ");
+  return `${cut.slice(0, space > max / 2 ? space : max)} …`;
+}
+
+function findingRows(items: Finding[]): string {
+  const rows = items.map((f): Cell[] => [
+    {
+      text: "",
+      html: `<a href="#case-${esc(encodeURIComponent(f.caseId))}">${esc(f.caseId)}</a>`,
+      name: true,
+    },
+    { text: f.solver, name: true },
+    {
+      text: "",
+      html: `<strong>${esc(f.criterion)}</strong>${
+        f.measures.length > 0
+          ? `<br><span class="muted">${esc(measuresPhrase(f.measures))}</span>`
+          : ""
+      }`,
+    },
+    { text: gist(f.isolation ? `Isolated: ${f.isolation}` : f.reason) },
+  ]);
+  return stackTable(["case", "solver", "criterion", "what was found"], rows, "stack full found");
+}
+
+function warningList(groups: WarningGroup[]): string {
+  return `<ul class="verdicts">${
+    groups.map((g) =>
+      `<li>${badge("warn")} <strong>${esc(g.criterion)}</strong>: ${g.count} ` +
+      `warning${g.count === 1 ? "" : "s"} in ${g.cases.length} case${
+        g.cases.length === 1 ? "" : "s"
+      }<ul class="reasons">${
+        g.reasons.map((r) =>
+          `<li>${esc(r.reason)} <span class="muted">— ${esc(pairsPhrase(r.pairs))}</span></li>`
+        ).join("")
+      }</ul></li>`
+    ).join("")
+  }</ul>`;
+}
+
+/** Failures by defect, then undecided studies, then warnings by criterion. */
+function findingsSection(result: CampaignResult): string {
+  const found = findingsOf(result);
+  const parts: string[] = [];
+  const verdictCount = (items: Finding[]) => items.reduce((n, f) => n + f.verdicts.length, 0);
+  if (found.failures.length > 0) {
+    parts.push(
+      `<h3>${badge("fail")} ${found.failures.length} failure${
+        found.failures.length === 1 ? "" : "s"
+      } <span class="muted">(${verdictCount(found.failures)} failing verdicts, each ` +
+        `case × solver × criterion once)</span></h3>${findingRows(found.failures)}`,
+    );
+  }
+  if (found.undecided.length > 0) {
+    parts.push(
+      `<h3>${badge("inconclusive")} ${found.undecided.length} undecided</h3>` +
+        `<p class="muted">The evidence does not decide: refine further or fix what blocks it.</p>` +
+        findingRows(found.undecided),
+    );
+  }
+  if (found.warnings.length > 0) {
+    const total = found.warnings.reduce((n, g) => n + g.count, 0);
+    parts.push(
+      `<h3>${total} warning${total === 1 ? "" : "s"} <span class="muted">(advice; they never ` +
+        `change the exit code)</span></h3>${warningList(found.warnings)}`,
+    );
+  }
+  if (parts.length === 0) parts.push(`<p>Every verdict passed.</p>`);
+  return `<section id="found"><h2>What it found</h2>${parts.join("")}</section>`;
+}
+
 function figure(plot: PlotSpec, svg: string): string {
-  return `<figure class="plot" data-plot="${plot.kind}" data-case="${esc(plot.caseId)}"${
+  return `<figure class="plot${
+    plot.kind === "errors" ? " wide" : ""
+  }" data-plot="${plot.kind}" data-case="${esc(plot.caseId)}"${
     plot.solver === undefined ? "" : ` data-solver="${esc(plot.solver)}"`
   }>${svg}<figcaption>${esc(plot.caption)}</figcaption></figure>`;
 }
@@ -235,10 +437,8 @@ function overview(result: CampaignResult): string {
         ...result.baselineVerdicts.filter((v) => v.caseId === id && v.solver === solver),
       ];
       if (verdicts.length === 0) return `<td class="muted">—</td>`;
-      const failing = [
-        ...new Set(verdicts.filter((v) => v.status === "fail").map((v) => v.criterion)),
-      ];
-      return `<td>${badge(worst(verdicts))} ${esc(failing.join(", "))}</td>`;
+      const status = worst(verdicts);
+      return `<td>${badge(status)} ${esc(criteriaAt(verdicts, status).join(", "))}</td>`;
     });
     rows.push(
       `<tr><td><a href="#case-${esc(encodeURIComponent(id))}">${esc(id)}</a></td>${
@@ -249,6 +449,24 @@ function overview(result: CampaignResult): string {
   return `<table><thead><tr><th>case</th>${
     solvers.map((s) => `<th>${esc(s)}</th>`).join("")
   }</tr></thead><tbody>${rows.join("")}</tbody></table>`;
+}
+
+/** A description record as a list of "key: value" lines (nested records flattened with dots). */
+function keyValues(record: Record<string, unknown>): string {
+  const lines: [string, string][] = [];
+  const walk = (prefix: string, value: unknown) => {
+    if (value !== null && typeof value === "object" && !Array.isArray(value)) {
+      const entries = Object.entries(value as Record<string, unknown>);
+      if (entries.length === 0) lines.push([prefix, "(none)"]);
+      for (const [k, v] of entries) walk(prefix ? `${prefix}.${k}` : k, v);
+    } else {
+      lines.push([prefix, Array.isArray(value) ? value.join(", ") : String(value)]);
+    }
+  };
+  walk("", record);
+  return `<dl class="kv">${
+    lines.map(([k, v]) => `<dt>${esc(k)}</dt><dd>${esc(v)}</dd>`).join("")
+  }</dl>`;
 }
 
 function environment(result: CampaignResult): string {
@@ -270,7 +488,7 @@ function environment(result: CampaignResult): string {
     `<tr>${td(s.name)}${td(s.kind)}<td><code>${
       esc(commandLine(s.command) || "(in-process)")
     }</code></td>${td(s.layout)}${td(s.scheme)}<td>${
-      s.description ? `<pre>${esc(JSON.stringify(s.description, null, 2))}</pre>` : "—"
+      s.description ? keyValues(s.description) : "—"
     }</td></tr>`
   );
   return `<table><tbody>${
@@ -335,6 +553,7 @@ export async function renderHtml(result: CampaignResult): Promise<string> {
     }</h2>${verdictList(result.baselineVerdicts, true)}</section>`
     : "";
   const failures = all.filter((v) => v.status === "fail");
+  const defects = findingsOf(result).failures.length;
   return `<!DOCTYPE html>
 <html lang="en">
 <head>
@@ -360,17 +579,18 @@ export async function renderHtml(result: CampaignResult): Promise<string> {
         ? "warn"
         : "pass",
     )
-  } ${count("fail")} failed, ${count("inconclusive")} undecided, ${count("warn")} warnings, ${
-    count("pass")
-  } passed, ${count("not-applicable")} not applicable · exit code ${
-    esc(String(result.summary.exitCode))
-  }</p>
-<p class="caution"><strong>Caution.</strong> ${esc(CAUTION)}</p>
+  } ${defects} failure${defects === 1 ? "" : "s"} (${count("fail")} failing verdicts), ${
+    count("inconclusive")
+  } undecided, ${count("warn")} warnings, ${count("pass")} passed, ${
+    count("not-applicable")
+  } not applicable · exit code ${esc(String(result.summary.exitCode))}</p>
 </header>
 <main>
+${buildsSection(result)}
+${findingsSection(result)}
+<p class="caution"><strong>Caution.</strong> ${esc(CAUTION)}</p>
 <h2>Overview</h2>
 ${overview(result)}
-${failures.length > 0 ? `<h3>Failures</h3>${verdictList(failures, true)}` : ""}
 ${sections.join("\n")}
 ${baseline}
 <section id="environment"><h2>Configuration and environment</h2>${environment(result)}</section>

@@ -7,7 +7,7 @@ Deno.test("renderHtml() makes one page with an SVG for every plot and no script"
   const html = await renderHtml(result);
   assert.match(html, /^<!DOCTYPE html>/);
   // 2 cases × (errors + 2 residual histories + cost)
-  assert.equal(html.match(/<figure class="plot"[^>]*><svg /g)?.length, 8);
+  assert.equal(html.match(/<figure class="plot[^"]*"[^>]*><svg /g)?.length, 8);
   assert.equal(html.match(/data-plot="errors"/g)?.length, 2);
   assert.equal(html.match(/data-plot="residuals"/g)?.length, 4);
   assert.equal(html.match(/data-plot="cost"/g)?.length, 2);
@@ -24,8 +24,12 @@ Deno.test("renderHtml() shows formulas, GCI table, coverage, verdicts and the en
   const result = makeFixtureResult();
   result.configuration.baseline = "release-1.3/result.json";
   const html = await renderHtml(result);
-  assert.ok(html.includes("<code>sin(pi*x)*sin(pi*y)</code>"));
-  assert.ok(html.includes("<code>1 + 0.5*x*y</code>"));
+  // typeset as MathML with the expression text kept as alternative text
+  assert.ok(html.includes(`<math alttext="sin(pi*x)*sin(pi*y)"`));
+  assert.ok(html.includes(`<math alttext="1 + 0.5*x*y"`));
+  // MathML Core: sin(πx) is the function name, an invisible function application and the argument
+  assert.match(html, /<mi>sin<\/mi><mo>&#x2061;<\/mo>/);
+  assert.match(html, /<mi>&#x3C0;<\/mi>/);
   // one audit per case, each over the quantity of both solvers
   const audits = html.match(
     /Coverage audit:<\/strong> the finest-grid GCI band contained the true error in (\d) of (\d) quantities/g,

@@ -4,7 +4,9 @@
  * Mapping (our choice, stated here once):
  * - one `<testsuite>` per case × solver (named `case · solver`), holding that study's verdicts and
  *   the baseline verdicts of the same case and solver;
- * - one `<testcase>` per verdict, named after its criterion, class name `gridproof.<case>.<solver>`;
+ * - one `<testcase>` per verdict, named after its criterion and, for a verdict per norm and region,
+ *   both (`order (L2 norm, all points)`), class name `gridproof.<case>.<solver>`;
+ * - the suite's properties name the solver's build: what it reported, its command and digests;
  * - `fail` → `<failure>` whose message is the verdict's reason and whose body adds the details;
  * - `warn` → a passing test case with the reason in `<system-out>` prefixed `warning:`. A warning
  *   does not stop a release, and CI servers count "skipped" as "did not run", which would hide a
@@ -15,6 +17,7 @@
  */
 import type { CampaignResult, Verdict } from "../result/mod.ts";
 import { escapeHtml as esc } from "./escape.ts";
+import { buildRows, reportedLine } from "./builds.ts";
 
 interface Suite {
   caseId: string;
@@ -42,6 +45,31 @@ function suites(result: CampaignResult): Suite[] {
   }
   for (const v of result.baselineVerdicts) get(v.caseId, v.solver).verdicts.push(v);
   return [...map.values()];
+}
+
+/** The solver's build as suite properties: what it reported, its command and file digests. */
+function buildProperties(result: CampaignResult, solver: string): string[] {
+  const row = buildRows(result).find((r) => r.solver === solver);
+  if (!row) return [];
+  const props: [string, string][] = [
+    ["solver.reported", reportedLine(row)],
+    ["solver.command", row.command],
+    ...(row.solverFile
+      ? [
+        ["solver.file", `${row.solverFile.path} sha256:${row.solverFile.sha256}`] as [
+          string,
+          string,
+        ],
+      ]
+      : []),
+    ...row.files.map((
+      f,
+      k,
+    ): [string, string] => [`solver.runs.${k + 1}`, `${f.path} sha256:${f.sha256}`]),
+  ];
+  return props.map(([name, value]) =>
+    `      <property name="${esc(name)}" value="${attr(value)}"/>`
+  );
 }
 
 /** ISO date-time without zone or fraction (the form the Ant schema's timestamp allows), or "". */
@@ -77,6 +105,24 @@ function testcase(v: Verdict, name: string, classname: string): string {
   }
 }
 
+const NORM_NAME: Record<string, string> = { max: "max norm", l2: "L2 norm", l1: "L1 norm" };
+const REGION_NAME: Record<string, string> = {
+  all: "all points",
+  interior: "interior points",
+  boundary: "boundary band",
+};
+
+/** " (max norm, all points)" for a verdict with a norm or region in its details, else "". */
+function measureName(v: Verdict): string {
+  const norm = v.details?.norm;
+  const region = v.details?.region;
+  const parts: string[] = [];
+  if (typeof norm === "string") parts.push(NORM_NAME[norm] ?? `${norm} norm`);
+  if (typeof region === "string") parts.push(REGION_NAME[region] ?? region);
+  else if (typeof norm === "string") parts.push(REGION_NAME.all);
+  return parts.length > 0 ? ` (${parts.join(", ")})` : "";
+}
+
 /**
  * Renders every verdict (study and baseline) as JUnit XML.
  *
@@ -100,10 +146,9 @@ export function renderJunit(result: CampaignResult): string {
     const classname = `gridproof.${suite.caseId}.${suite.solver}`;
     const seen = new Map<string, number>();
     const cases = suite.verdicts.map((v) => {
-      // a verdict per norm is named by its norm; any other repeat gets a counter so CI servers
-      // keep both
-      const norm = typeof v.details?.norm === "string" ? ` (${v.details.norm} norm)` : "";
-      const name = v.criterion + norm;
+      // a verdict per norm and region is named by both; any other repeat gets a counter so CI
+      // servers keep both
+      const name = v.criterion + measureName(v);
       const n = (seen.get(name) ?? 0) + 1;
       seen.set(name, n);
       return testcase(v, n === 1 ? name : `${name} (${n})`, classname);
@@ -126,6 +171,7 @@ export function renderJunit(result: CampaignResult): string {
       `      <property name="case" value="${esc(suite.caseId)}"/>`,
       `      <property name="solver" value="${esc(suite.solver)}"/>`,
       `      <property name="gridproof.version" value="${esc(result.tool.version)}"/>`,
+      ...buildProperties(result, suite.solver),
       `    </properties>`,
       ...cases,
       `  </testsuite>`,

@@ -18,41 +18,66 @@ import {
   worst,
 } from "./_shared.ts";
 import { escapeMarkdown as md } from "./escape.ts";
+import { buildRows, reportedLine, shortDigest } from "./builds.ts";
+import {
+  type Finding,
+  findingsOf,
+  measuresPhrase,
+  pairsPhrase,
+  type WarningGroup,
+} from "./findings.ts";
 
-/**
- * Failures of one case × solver as one bullet: each failing criterion once, with the reason of
- * its first verdict (the order criterion has one verdict per norm; they say the same thing).
- */
-function failureItems(failures: Verdict[]): string[] {
-  const groups = new Map<string, Verdict[]>();
-  for (const v of failures) {
-    const key = `${v.caseId}\u0000${v.solver}`;
-    groups.set(key, [...(groups.get(key) ?? []), v]);
-  }
-  return [...groups.values()].map((vs) => {
-    const first = new Map<string, Verdict>();
-    for (const v of vs) if (!first.has(v.criterion)) first.set(v.criterion, v);
-    const reasons = [...first.values()].map((v) => `${md(v.criterion)}: ${md(v.reason)}`);
-    return `- **FAIL** ${md(vs[0].caseId)} · ${md(vs[0].solver)} — ${reasons.join("; ")}`;
+/** Failures or undecided studies, one bullet per case × solver × criterion (norms folded in). */
+function findingItems(items: Finding[]): string[] {
+  return items.map((f) => {
+    const measures = f.measures.length > 0 ? ` (${md(measuresPhrase(f.measures))})` : "";
+    const body = f.isolation ? `isolated: ${f.isolation}` : f.reason;
+    return `- **${STATUS_WORD[f.status]}** ${md(f.caseId)} · ${md(f.solver)} · ` +
+      `${md(f.criterion)}${measures} — ${md(body)}`;
   });
 }
 
-/** Warnings grouped by criterion: how many, which pairs (the first few), and one reason. */
-function warningItems(warnings: Verdict[], shown = 4): string[] {
-  const groups = new Map<string, Verdict[]>();
-  for (const v of warnings) groups.set(v.criterion, [...(groups.get(v.criterion) ?? []), v]);
-  return [...groups.entries()].map(([criterion, vs]) => {
-    const pairs = vs.slice(0, shown).map((v) => `${md(v.caseId)} · ${md(v.solver)}`);
-    const more = vs.length > shown ? ` and ${vs.length - shown} more` : "";
-    return `- **WARN** ${md(criterion)} (${vs.length}): ${pairs.join(", ")}${more} — e.g. ` +
-      `${md(vs[0].reason)}`;
-  });
+/** Warnings grouped by criterion: how many, then each distinct reason and the pairs that gave it. */
+function warningItems(groups: WarningGroup[], shown = 4): string[] {
+  return groups.flatMap((g) => [
+    `- **WARN** ${md(g.criterion)}: ${g.count} in ${g.cases.length} case` +
+    `${g.cases.length === 1 ? "" : "s"}`,
+    ...g.reasons.slice(0, shown).map((r) => `  - ${md(r.reason)} — ${md(pairsPhrase(r.pairs))}`),
+    ...(g.reasons.length > shown
+      ? [`  - … and ${g.reasons.length - shown} more reasons (every one is in the full report)`]
+      : []),
+  ]);
+}
+
+/** The builds under test as a table. */
+function buildTable(result: CampaignResult): string[] {
+  return [
+    "| solver | reported by the solver | command | files (SHA-256) |",
+    "| --- | --- | --- | --- |",
+    ...buildRows(result).map((row) => {
+      const files = [
+        ...(row.solverFile ? [`solver file ${shortDigest(row.solverFile)}`] : []),
+        ...row.files.map(shortDigest),
+        ...row.unread.map((u) => `not read: ${u}`),
+      ];
+      return `| ${md(row.solver)} | ${md(reportedLine(row))}${
+        row.changed ? " **(the build changed during the campaign)**" : ""
+      } | \`${row.command.replaceAll("`", "'").replaceAll("|", "\\|")}\` | ${
+        files.length > 0
+          ? files.map(md).join("<br>")
+          : row.kind === "reference"
+          ? "part of gridproof"
+          : "—"
+      } |`;
+    }),
+  ];
 }
 
 /**
- * Renders a short Markdown summary: a headline with the counts, the failures (one bullet per
- * case × solver, each failing criterion with its reason), the warnings grouped by criterion, one
- * table row per case × solver (failing rows first), and the caution.
+ * Renders a short Markdown summary: a headline with the counts, the builds under test, the
+ * failures (one bullet per case × solver × criterion, norms folded in), the undecided studies, the
+ * warnings grouped by criterion with their reasons, one table row per case × solver (failing rows
+ * first), and the caution.
  *
  * @param result The campaign result.
  * @returns Markdown text (GitHub/GitLab flavoured tables).
@@ -68,9 +93,11 @@ export function renderMarkdown(result: CampaignResult): string {
   const warnings = all.filter((v) => v.status === "warn");
   const undecided = all.filter((v) => v.status === "inconclusive");
   const passed = all.filter((v) => v.status === "pass").length;
+  const found = findingsOf(result);
   const out: string[] = [];
   out.push(
-    `### gridproof: ${failures.length} failed, ${undecided.length} undecided, ` +
+    `### gridproof: ${found.failures.length} failure${found.failures.length === 1 ? "" : "s"} ` +
+      `(${failures.length} failing verdicts), ${undecided.length} undecided, ` +
       `${warnings.length} warnings, ${passed} passed`,
   );
   out.push("");
@@ -79,12 +106,22 @@ export function renderMarkdown(result: CampaignResult): string {
       `${caseIds(result).length} cases × ${result.solvers.length} solvers · exit code ` +
       `${result.summary.exitCode}`,
   );
-  if (failures.length > 0) {
-    out.push("", "**Failures**", "", ...failureItems(failures));
+  out.push("", "**Builds under test**", "", ...buildTable(result));
+  if (found.failures.length > 0) {
+    out.push(
+      "",
+      `**Failures** (${found.failures.length}: each case × solver × criterion once)`,
+      "",
+      ...findingItems(found.failures),
+    );
   }
-  if (warnings.length > 0) {
+  if (found.undecided.length > 0) {
+    out.push("", "**Undecided** (refine further or fix what blocks it)", "");
+    out.push(...findingItems(found.undecided));
+  }
+  if (found.warnings.length > 0) {
     out.push("", "**Warnings** (grouped by criterion; every one is in the full report)", "");
-    out.push(...warningItems(warnings));
+    out.push(...warningItems(found.warnings));
   }
   const rows: { status: Verdict["status"]; line: string }[] = [];
   for (const id of caseIds(result)) {

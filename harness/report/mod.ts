@@ -34,3 +34,12 @@ export {
 } from "./registry.ts";
 export { escapeCsvCell, escapeHtml, escapeMarkdown, escapeTerminal } from "./escape.ts";
 export { type PlotKind, type PlotSpec, reportPlots } from "./plots.ts";
+export { type BuildRow, buildRows } from "./builds.ts";
+export {
+  type Finding,
+  type Findings,
+  findingsOf,
+  measureOf,
+  type WarningGroup,
+} from "./findings.ts";
+export { foundLines, type FoundOptions, wrapWords } from "./found_text.ts";

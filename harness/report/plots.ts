@@ -10,7 +10,7 @@ import type { CampaignResult, NormSet } from "../result/mod.ts";
 import { caseIds, pairs, solvesOf } from "./_shared.ts";
 
 /** Which kind of plot, used in the HTML as `data-plot`. */
-export type PlotKind = "errors" | "residuals" | "cost" | "error-map";
+export type PlotKind = "errors" | "residuals" | "cost" | "error-map" | "places";
 
 /** A plot to draw: its kind, what it shows and its Vega-Lite specification. */
 export interface PlotSpec {
@@ -25,6 +25,8 @@ export interface PlotSpec {
 
 const NORM_LABEL: Record<keyof NormSet, string> = { max: "max", l2: "L2", l1: "L1" };
 const WIDTH = 380;
+/** The error plot spans the page's width: it is the plot a reviewer reads first. */
+const WIDE = 760;
 const HEIGHT = 260;
 /** Longest residual history drawn point by point; longer ones are thinned evenly. */
 const MAX_POINTS = 400;
@@ -32,7 +34,7 @@ const MAX_POINTS = 400;
 const CONFIG = {
   font: "system-ui, sans-serif",
   axis: { labelFontSize: 11, titleFontSize: 12, grid: true, gridOpacity: 0.35 },
-  legend: { labelFontSize: 11, titleFontSize: 11, labelLimit: 220 },
+  legend: { labelFontSize: 11, titleFontSize: 11, labelLimit: 220, titleLimit: 320 },
   title: { fontSize: 13 },
 } as const;
 
@@ -41,10 +43,17 @@ function logAxis(title: string) {
   return { title, format: "~g", labelOverlap: "greedy" as const };
 }
 
+/** Ticks of a log axis of errors or residuals: one format for every label (1e-6, 1e-7). */
+const POWER_FORMAT = ".0e";
+
+/** A readable grid spacing for a tick: three significant figures, no trailing zeros. */
+const SPACING_FORMAT = ".3~g";
+
 /**
  * The error plot of one case: each error norm on all nodes against h on log–log axes, one colour
- * per solver and one dash per norm, with a reference line of the expected order drawn through
- * the finest point of the first solver.
+ * per solver and one line style and mark per norm, with slope guides for the expected order and
+ * for order 1 drawn from half the lowest error at the finest h (labelled at their coarse end, so
+ * the legend holds only solvers and norms). The h axis has a tick at every grid spacing used.
  */
 export function errorPlot(result: CampaignResult, caseId: string): PlotSpec | undefined {
   const rows: Record<string, unknown>[] = [];
@@ -62,70 +71,177 @@ export function errorPlot(result: CampaignResult, caseId: string): PlotSpec | un
   if (rows.length === 0) return undefined;
   const study = result.studies.find((s) => s.caseId === caseId);
   const p = study?.expectedOrder ?? 2;
-  const hs = rows.map((r) => r.h as number);
-  const hMin = Math.min(...hs);
-  const hMax = Math.max(...hs);
-  // the slope line runs half a step below the lowest error at the finest h, so it never hides data
+  const hs = [...new Set(rows.map((r) => r.h as number))].sort((a, b) => a - b);
+  const hMin = hs[0];
+  const hMax = hs[hs.length - 1];
+  // the guides start half a step below the lowest error at the finest h, so they hide no data
   const finest = rows.filter((r) => r.h === hMin).map((r) => r.error as number);
   const anchor = 0.5 * Math.min(...finest);
-  const slopeLabel = `expected order ${Number(p.toPrecision(3))}`;
-  const slope = [hMin, hMax].map((h) => ({
-    h,
-    error: anchor * Math.pow(h / hMin, p),
-    solver: slopeLabel,
-  }));
+  const orders = p === 1 ? [1] : [p, 1];
+  const guideLabel = (q: number) =>
+    `slope ${Number(q.toPrecision(3))}${q === p ? " (expected)" : ""}`;
+  const guides = orders.flatMap((q) =>
+    [hMin, hMax].map((h) => ({ h, error: anchor * Math.pow(h / hMin, q), guide: guideLabel(q) }))
+  );
+  const solvers = [...new Set(rows.map((r) => r.solver as string))];
+  const hidden = coinciding(rows, solvers);
+  const x = {
+    field: "h",
+    type: "quantitative" as const,
+    scale: { type: "log" as const, nice: false, padding: 12 },
+    axis: { title: "grid spacing h", values: hs, format: SPACING_FORMAT, labelOverlap: true },
+  };
+  const y = {
+    field: "error",
+    type: "quantitative" as const,
+    scale: { type: "log" as const, nice: false, padding: 12 },
+    axis: { title: "error", format: POWER_FORMAT, labelOverlap: "greedy" as const },
+  };
   return {
     kind: "errors",
     caseId,
-    caption: "Error against grid spacing (log–log), every norm on all nodes; the dashed grey " +
-      "line has the slope of the expected order",
+    caption: "Error against grid spacing (log–log), every norm on all nodes: colour is the " +
+      "solver, line style and mark the norm; the grey dashed guides have the slope of the " +
+      `expected order (${Number(p.toPrecision(3))})${p === 1 ? "" : " and of order 1"}, and ` +
+      "the h axis has a tick at every grid spacing used" +
+      (hidden.length > 0 ? `. ${hidden.join("; ")}` : ""),
     spec: {
       $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-      width: WIDTH,
+      width: WIDE,
       height: HEIGHT,
-      config: CONFIG,
+      // the legend below the plot leaves the right margin to the guides' labels
+      config: {
+        ...CONFIG,
+        legend: { ...CONFIG.legend, orient: "bottom", direction: "horizontal" },
+      },
       layer: [
         {
-          data: { values: slope },
+          data: { values: guides },
           mark: { type: "line", strokeDash: [6, 4], color: "#777", strokeWidth: 1.5 },
-          encoding: {
-            x: { field: "h", type: "quantitative", scale: { type: "log", nice: false } },
-            y: { field: "error", type: "quantitative", scale: { type: "log", nice: false } },
-            color: { field: "solver", type: "nominal" },
-          },
+          encoding: { x, y, detail: { field: "guide", type: "nominal" } },
         },
         {
           data: { values: rows },
           mark: { type: "line", point: { filled: true, size: 45 }, strokeWidth: 2 },
           encoding: {
-            x: {
-              field: "h",
-              type: "quantitative",
-              scale: { type: "log", nice: false, padding: 12 },
-              axis: logAxis("grid spacing h"),
-            },
-            y: {
-              field: "error",
-              type: "quantitative",
-              scale: { type: "log", nice: false, padding: 12 },
-              axis: logAxis("error"),
-            },
+            x,
+            y,
             color: {
               field: "solver",
               type: "nominal",
-              title: "solver",
-              scale: {
-                domain: [...new Set(rows.map((r) => r.solver as string)), slopeLabel],
-                range: [...palette(new Set(rows.map((r) => r.solver)).size), "#777"],
-              },
+              title: "solver (colour)",
+              scale: { domain: solvers, range: palette(solvers.length) },
             },
-            strokeDash: { field: "norm", type: "nominal", title: "norm" },
-            shape: { field: "norm", type: "nominal", title: "norm" },
+            strokeDash: { field: "norm", type: "nominal", title: "norm (line and mark)" },
+            shape: { field: "norm", type: "nominal", title: "norm (line and mark)" },
           },
+        },
+        {
+          data: { values: guides.filter((g) => g.h === hMax) },
+          mark: { type: "text", align: "left", dx: 4, fontSize: 11, color: "#555" },
+          encoding: { x, y, text: { field: "guide", type: "nominal" } },
         },
       ],
     },
   };
+}
+
+/**
+ * Where a failing study's error sits as the grid is refined: the max-norm error of each place
+ * (the band along each side, the corners, the interior) against h, log–log. The place the
+ * verdict blames is drawn thick (or, when none is blamed, the place with the largest error), so a
+ * boundary band that converges more slowly than the interior stands out.
+ */
+export function placesPlot(
+  result: CampaignResult,
+  caseId: string,
+  solver: string,
+): PlotSpec | undefined {
+  const study = result.studies.find((s) => s.caseId === caseId && s.solver === solver);
+  const failing = study?.verdicts.find((v) =>
+    v.status === "fail" && (v.criterion === "order" || v.criterion === "exactness")
+  );
+  if (!study?.places || study.places.length === 0 || !failing) return undefined;
+  const location = failing.details?.location as
+    | { blamed?: string[]; largest?: string }
+    | undefined;
+  const blamed = location?.blamed?.length ? location.blamed : [];
+  const marked = blamed.length > 0 ? blamed : location?.largest ? [location.largest] : [];
+  const rows = study.places.flatMap((p) =>
+    p.errors.map((error, k) => ({
+      h: study.h[k],
+      error,
+      place: `${p.place} (order ${p.order === null ? "—" : p.order.toFixed(2)})`,
+      marked: marked.includes(p.place) ? "yes" : "no",
+    })).filter((r) => r.error !== null && r.error > 0 && Number.isFinite(r.error))
+  );
+  if (rows.length === 0) return undefined;
+  const hs = [...new Set(rows.map((r) => r.h))].sort((a, b) => a - b);
+  const why = blamed.length > 0 ? "where the verdict locates the defect" : "the largest error";
+  return {
+    kind: "places",
+    caseId,
+    solver,
+    caption: `${solver}: max-norm error of each place against h (log–log) — the band along each ` +
+      `side, the corners and the interior, with each place's order on the finest pair; the ` +
+      `thick line is ${why} (${marked.join(", ") || "none"})`,
+    spec: {
+      $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+      width: WIDTH,
+      height: HEIGHT,
+      config: CONFIG,
+      title: `${solver}: error by place`,
+      data: { values: rows },
+      mark: { type: "line", point: { filled: true, size: 30 } },
+      encoding: {
+        x: {
+          field: "h",
+          type: "quantitative",
+          scale: { type: "log", nice: false, padding: 12 },
+          axis: { title: "grid spacing h", values: hs, format: SPACING_FORMAT },
+        },
+        y: {
+          field: "error",
+          type: "quantitative",
+          scale: { type: "log", nice: false, padding: 12 },
+          axis: { title: "max error in the place", format: POWER_FORMAT },
+        },
+        color: { field: "place", type: "nominal", title: "place (order, finest pair)" },
+        strokeWidth: {
+          field: "marked",
+          type: "nominal",
+          title: `thick: ${why}`,
+          scale: { domain: ["yes", "no"], range: [3.5, 1.2] },
+          legend: { symbolType: "stroke", symbolStrokeColor: "#333" },
+        },
+      },
+    },
+  };
+}
+
+/**
+ * Solvers whose errors equal an earlier solver's on every grid and norm (to 0.1 %), so their lines
+ * lie under that solver's: "reference lies under head-2.3 (the same errors to 0.1 %)".
+ */
+function coinciding(rows: Record<string, unknown>[], solvers: string[]): string[] {
+  const key = (r: Record<string, unknown>) => `${r.h}\u0000${r.norm}`;
+  const errors = new Map(solvers.map((s) => [s, new Map<string, number>()]));
+  for (const r of rows) errors.get(r.solver as string)!.set(key(r), r.error as number);
+  const out: string[] = [];
+  for (const [k, later] of solvers.entries()) {
+    const mine = errors.get(later)!;
+    const under = solvers.slice(0, k).find((earlier) => {
+      const theirs = errors.get(earlier)!;
+      return theirs.size === mine.size &&
+        [...mine].every(([at, e]) => {
+          const t = theirs.get(at);
+          return t !== undefined && Math.abs(t - e) <= 1e-3 * Math.max(t, e);
+        });
+    });
+    // the later solver is drawn on top, so the earlier one is the hidden one
+    if (under) out.push(`${under}'s lines lie under ${later}'s (the same errors to 0.1 %)`);
+  }
+  return out;
 }
 
 function palette(n: number): string[] {
@@ -175,7 +291,7 @@ export function residualPlot(
           field: "residual",
           type: "quantitative",
           scale: { type: "log" },
-          axis: logAxis("residual norm ‖r‖"),
+          axis: { title: "residual norm ‖r‖", format: POWER_FORMAT, labelOverlap: "greedy" },
         },
         color: {
           field: "grid",
@@ -328,6 +444,10 @@ export function reportPlots(result: CampaignResult): PlotSpec[] {
     }
     const c = costPlot(result, id);
     if (c) out.push(c);
+    for (const solver of pairs(result, id)) {
+      const p = placesPlot(result, id, solver);
+      if (p) out.push(p);
+    }
     for (const solver of pairs(result, id)) {
       for (const which of ["error", "difference"] as const) {
         const m = errorMapPlot(result, id, solver, which);

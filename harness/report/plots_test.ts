@@ -1,5 +1,12 @@
 import assert from "node:assert/strict";
-import { errorMapPlot, errorPlot, renderSvg, reportPlots, residualPlot } from "./plots.ts";
+import {
+  errorMapPlot,
+  errorPlot,
+  placesPlot,
+  renderSvg,
+  reportPlots,
+  residualPlot,
+} from "./plots.ts";
 import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 import { assertClose } from "../../testing/mod.ts";
 
@@ -90,4 +97,77 @@ Deno.test("errorMapPlot() draws the kept error map of a failing study with the s
   const svg = await renderSvg(plot.spec, "map");
   assert.match(svg, /west ← x → east/);
   assert.match(svg, /south ← y → north/);
+});
+
+Deno.test("errorPlot() explains every mark: guides for the expected order and order 1, a tick at every h", async () => {
+  const result = makeFixtureResult();
+  const plot = errorPlot(result, "robin-variable")!;
+  const guides = layerValues(plot.spec, 0);
+  // derived: the order-1 guide rises by the ratio of the spacings, the expected one by its square
+  const one = guides.filter((g) => g.guide === "slope 1");
+  assert.equal(one.length, 2);
+  assertClose(
+    Math.log((one[1].error as number) / (one[0].error as number)) /
+      Math.log((one[1].h as number) / (one[0].h as number)),
+    1,
+    { rel: 1e-12 },
+  );
+  const svg = await renderSvg(plot.spec, "e");
+  const texts = [...svg.matchAll(/<text[^>]*>([^<]*)<\/text>/g)].map((m) => m[1]);
+  for (
+    const label of ["slope 2 (expected)", "slope 1", "solver (colour)", "norm (line and mark)"]
+  ) {
+    assert.ok(texts.includes(label), `shows "${label}"`);
+  }
+  // the guides are labelled on the plot, not listed among the solvers
+  assert.ok(!texts.some((t) => /expected order/.test(t)));
+  // one tick label per grid spacing of the fixture (h = 1/8, 1/16, 1/32, 1/64), three figures
+  for (const h of ["0.125", "0.0625", "0.0313", "0.0156"]) assert.ok(texts.includes(h), h);
+  // every error-axis label in one form: a power of ten as 1e-5
+  const yLabels = texts.filter((t) => /^\d(\.\d+)?e[-+]\d+$/.test(t));
+  assert.ok(yLabels.length >= 2, texts.join(" | "));
+  assert.ok(!texts.some((t) => /^0\.0000/.test(t)), "no long decimals beside powers");
+});
+
+Deno.test("placesPlot() draws each place's error and marks the place the failing verdict blames", () => {
+  const result = makeFixtureResult();
+  const study = result.studies.find((s) =>
+    s.solver === "team-gs" && s.caseId === "robin-variable"
+  )!;
+  // invented: the band along the north side converges at order 1, everything else at order 2
+  study.places = [
+    { place: "north", errors: [4e-2, 2e-2, 1e-2, 5e-3], order: 1 },
+    { place: "interior", errors: [4e-3, 1e-3, 2.5e-4, 6.25e-5], order: 2 },
+  ];
+  const order = study.verdicts.find((v) => v.criterion === "order" && v.status === "fail")!;
+  order.details = { ...order.details, location: { blamed: ["north"], largest: "north" } };
+  const plot = placesPlot(result, "robin-variable", "team-gs")!;
+  assert.equal(plot.kind, "places");
+  // deno-lint-ignore no-explicit-any
+  const rows = (plot.spec as any).data.values as { place: string; marked: string }[];
+  assert.equal(rows.length, 8);
+  assert.ok(rows.filter((r) => r.place.startsWith("north")).every((r) => r.marked === "yes"));
+  assert.ok(rows.filter((r) => r.place.startsWith("interior")).every((r) => r.marked === "no"));
+  assert.match(plot.caption, /thick line is where the verdict locates the defect \(north\)/);
+  // a passing study gets no such plot
+  assert.equal(placesPlot(result, "poisson-sine", "reference"), undefined);
+});
+
+Deno.test("errorPlot() says when one solver's lines hide another's", () => {
+  const result = makeFixtureResult();
+  // make team-gs's errors on poisson-sine equal to the reference's (0.01 % apart)
+  const ref = result.solves.filter((s) => s.caseId === "poisson-sine" && s.solver === "reference");
+  for (
+    const s of result.solves.filter((s) => s.caseId === "poisson-sine" && s.solver === "team-gs")
+  ) {
+    const twin = ref.find((r) => r.nx === s.nx)!;
+    s.status = "ok";
+    s.errors = structuredClone(twin.errors!);
+    s.errors.all.max *= 1.0001;
+  }
+  assert.match(
+    errorPlot(result, "poisson-sine")!.caption,
+    /reference's lines lie under team-gs's \(the same errors to 0\.1 %\)/,
+  );
+  assert.doesNotMatch(errorPlot(result, "robin-variable")!.caption, /lie under/);
 });

@@ -27,12 +27,17 @@ export interface Renderer {
   mediaType: string;
   /** One line for help texts. */
   summary: string;
-  /** Renders the result (the HTML renderer is asynchronous). */
+  /**
+   * Renders the result (the HTML renderer is asynchronous). For a printed format this is the
+   * document to print; the command line prints it (reports never start a process).
+   */
   render(result: CampaignResult, options?: RenderOptions): string | Promise<string>;
+  /** true: the rendered HTML is printed to this format by a browser (`pdf`). Default false. */
+  printed?: boolean;
 }
 
 /** Names of the report formats. */
-export type ReportFormat = "text" | "html" | "md" | "csv" | "junit" | "json";
+export type ReportFormat = "text" | "html" | "pdf" | "md" | "csv" | "junit" | "json";
 
 /** Every report format by name. */
 export const RENDERERS: Readonly<Record<ReportFormat, Renderer>> = {
@@ -49,6 +54,14 @@ export const RENDERERS: Readonly<Record<ReportFormat, Renderer>> = {
     mediaType: "text/html",
     summary: "one self-contained page with plots",
     render: (result) => renderHtml(result),
+  },
+  pdf: {
+    name: "pdf",
+    extension: "pdf",
+    mediaType: "application/pdf",
+    summary: "the HTML page printed to A4 by headless Chromium (Debian's chromium)",
+    render: (result) => renderHtml(result),
+    printed: true,
   },
   md: {
     name: "md",

@@ -5,7 +5,9 @@ import { makeFixtureResult } from "../../testdata/report/fixture.ts";
 
 Deno.test("RENDERERS renders the fixture in every format", async () => {
   const result = makeFixtureResult();
-  assert.deepEqual(Object.keys(RENDERERS), ["text", "html", "md", "csv", "junit", "json"]);
+  assert.deepEqual(Object.keys(RENDERERS), ["text", "html", "pdf", "md", "csv", "junit", "json"]);
+  // a printed format renders the page the command line prints
+  assert.equal(RENDERERS.pdf.printed, true);
   for (const renderer of Object.values(RENDERERS)) {
     const out = await renderer.render(result);
     assert.ok(out.length > 500, renderer.name);
@@ -22,10 +24,11 @@ Deno.test("the json format reads back to the same result", async () => {
 Deno.test("rendererFor() refuses an unknown format and lists the valid ones", () => {
   assert.equal(rendererFor("junit").extension, "xml");
   assert.throws(
-    () => rendererFor("pdf"),
+    () => rendererFor("docx"),
     (e: unknown) =>
       e instanceof RangeError &&
-      e.message === 'unknown report format "pdf": use one of text, html, md, csv, junit, json',
+      e.message ===
+        'unknown report format "docx": use one of text, html, pdf, md, csv, junit, json',
   );
   assert.throws(() => rendererFor("toString"), RangeError);
 });

@@ -5,6 +5,7 @@
  */
 import type { CampaignResult, SolveRecord, Verdict, VerdictStatus } from "../result/mod.ts";
 import { escapeTerminal } from "./escape.ts";
+import { foundLines } from "./found_text.ts";
 import {
   allVerdicts,
   bySeverity,
@@ -26,6 +27,8 @@ export interface TextOptions {
    * standard output is a terminal and `NO_COLOR` is not set.
    */
   color?: boolean;
+  /** Columns the builds and findings at the top wrap at. Default 100. */
+  width?: number;
 }
 
 const ANSI: Record<VerdictStatus, string> = {
@@ -108,6 +111,7 @@ export function renderText(result: CampaignResult, options: TextOptions = {}): s
     `gridproof ${oneLine(result.tool.version)} · result of ${oneLine(result.createdAt)} · ` +
       `${caseIds(result).length} cases × ${result.solvers.length} solvers`,
   );
+  out.push("", ...foundLines(result, { color, width: options.width }));
   for (const id of caseIds(result)) {
     const info = caseInfo(result, id);
     out.push("");

@@ -100,10 +100,36 @@ export interface SolveRecord {
    * ten times better than the values as given (the output is in the wrong point order).
    */
   outputOrder?: string;
+  /**
+   * The rank count of a solve of the rank-count check (such solves are journaled, and reported in
+   * the "rank-invariance" verdict, not among the study's solves).
+   */
+  ranks?: number;
+  /** On the second solve of a rank-count pair: the comparison of the two solutions. */
+  rankComparison?: RankComparison;
   /** Last 64 KiB of an external solver's stderr. */
   stderrTail?: string;
   /** The solver's describe() record or reported name/version/notes. */
   description?: Record<string, unknown>;
+}
+
+/** One grid solved at two rank counts and the two solutions compared. */
+export interface RankComparison {
+  nx: number;
+  ny: number;
+  /** The two rank counts, fewer first (1 and N). */
+  ranks: [number, number];
+  /** max |u_N − u_1| / max |u_1| over the points; null when a solve failed or the points differ. */
+  difference: number | null;
+  /** Where the difference is largest. */
+  at: { x: number; y: number } | null;
+  /**
+   * The relative residual reduction each solve reached (last over first residual norm), fewer
+   * ranks first; null when a solve reported no history.
+   */
+  reductions: [number | null, number | null];
+  /** Why the solutions could not be compared (a solve failed or does not apply). */
+  reason?: string;
 }
 
 /** Observed orders of one norm in one region over the grid sequence. */
@@ -277,6 +303,30 @@ export interface SolverInfo {
   /** Declared iteration growth g (iterations ~ N^g); absent: 0.5 (SOR, CG). */
   iterationGrowth?: number;
   description?: Record<string, unknown>;
+  /**
+   * What the harness read of an external solver's build before the campaign (absent in results
+   * written before this field existed). The name, version and build id the solver reports come
+   * with each solve, in `SolveRecord.description.solver`.
+   */
+  build?: SolverBuildRecord;
+}
+
+/** A file as the harness read it: the path as written (relative to the working folder when inside it). */
+export interface FileDigest {
+  path: string;
+  /** SHA-256 of the content, lower-case hex. */
+  sha256: string;
+  bytes: number;
+}
+
+/** The files behind an external solver: the solver file that declared it, and what its command runs. */
+export interface SolverBuildRecord {
+  /** The solver file (`--solvers`) that declared the solver. */
+  solverFile?: FileDigest;
+  /** Every file the command names that exists: the program, then script or input files. */
+  files: FileDigest[];
+  /** Files the command names that could not be read, with the reason. */
+  unread?: string[];
 }
 
 /** The whole campaign result. */

@@ -8,43 +8,24 @@
 import { resolve } from "node:path";
 import {
   type Capabilities,
-  type MessageBytes,
   type ParsedMessage,
-  PROTOCOL_VERSION,
+  protocolVersion,
   readReady,
-  readReply,
   type ReadyMessage,
-  type ReplyExpectation,
   serializeMessage,
-  solveRequestBytes,
 } from "../protocol/mod.ts";
-import { SIDES } from "../../reference-solver/mod.ts";
 import { describeExit, GroupProcess, within } from "./process.ts";
 import { type EndedProcesses, MARK_VARIABLE } from "./descendants.ts";
 import { resolveProgram } from "./resolve_command.ts";
-import { emptyOutcome, solutionOutcome, stderrGist } from "./outcome.ts";
-import { gridPoints, type LayoutPoints } from "./geometry.ts";
-import { expressionTexts, sampleCase } from "./sample.ts";
+import { emptyOutcome, stderrGist } from "./outcome.ts";
+import { applicability, guard, judgeReply, type Prepared, prepareRequest } from "./exchange.ts";
+import { launchPrefix, ranksFor } from "./launcher.ts";
 import type { ExternalSolverSpec, SolveOutcome, Solver, SolveTask } from "./types.ts";
 
 /** Longest wait for a session's `ready` answer. */
 const MAX_STARTUP_SECONDS = 60;
 /** Grace after `goodbye` before the session process group is killed. */
 const GOODBYE_GRACE_MS = 2000;
-
-interface Prepared {
-  task: SolveTask;
-  /** The request line; its arrays are encoded while it is written. */
-  request: MessageBytes;
-  expect: ReplyExpectation;
-  limitSeconds: number;
-  /**
-   * The points of the request's grid, made on first call and kept: called once the request is
-   * sent, so they are ready while the solver works (at a million nodes they take milliseconds
-   * the harness would otherwise spend after the reply).
-   */
-  points: () => LayoutPoints;
-}
 
 /** Options of {@link createExternalSolver}. */
 export interface ExternalSolverOptions {
@@ -118,6 +99,7 @@ export function createExternalSolver(
     stop(): Promise<void> {
       return runner.endAll();
     },
+    ...(spec.rankCheck ? { rankCheck: { ...spec.rankCheck } } : {}),
   };
 }
 
@@ -137,60 +119,6 @@ function leftoverNote(ended: EndedProcesses): string | undefined {
     `${pids.length === 1 ? "it was" : "they were"} ended`;
 }
 
-/** Last line of defence: a bug in the runner becomes a failed outcome, not an exception. */
-async function guard(
-  work: () => Promise<SolveOutcome>,
-  task: SolveTask,
-  spec: ExternalSolverSpec,
-): Promise<SolveOutcome> {
-  try {
-    return await work();
-  } catch (error) {
-    return emptyOutcome(
-      "failed",
-      `gridproof could not run the solver: ${(error as Error).message}`,
-      { layout: spec.layout, nx: task.nx, ny: task.ny },
-    );
-  }
-}
-
-function requestLayout(spec: ExternalSolverSpec): "vertex" | "cell" {
-  return spec.layout === "cell" ? "cell" : "vertex";
-}
-
-/** Why a task is outside a session's declared support, or undefined. */
-function unsupported(
-  task: SolveTask,
-  spec: ExternalSolverSpec,
-  caps: Capabilities,
-): string | undefined {
-  if (caps.boundaryKinds) {
-    for (const side of SIDES) {
-      const kind = task.case.boundary[side].kind;
-      if (!caps.boundaryKinds.includes(kind)) {
-        return `the solver declares boundary kinds ${
-          caps.boundaryKinds.join(", ")
-        }; the case has ${kind} on ${side}`;
-      }
-    }
-  }
-  if (caps.layouts && !caps.layouts.includes(spec.layout)) {
-    return `the solver declares layouts ${
-      caps.layouts.join(", ")
-    }; the solver file says ${spec.layout}`;
-  }
-  if (caps.encodings && !caps.encodings.includes(spec.encoding)) {
-    return `the solver declares encodings ${
-      caps.encodings.join(", ")
-    }; the solver file says ${spec.encoding}`;
-  }
-  if (caps.largestGrid && (task.nx > caps.largestGrid.nx || task.ny > caps.largestGrid.ny)) {
-    return `the grid ${task.nx}×${task.ny} is larger than the solver's largest grid ` +
-      `${caps.largestGrid.nx}×${caps.largestGrid.ny}`;
-  }
-  return undefined;
-}
-
 /** Starts processes and runs `once` solves. */
 class Runner {
   /** Processes started and not yet ended, so a stop can end them at once. */
@@ -203,6 +131,11 @@ class Runner {
     await Promise.all([...this.#live].map((proc) => proc.end()));
   }
 
+  /** The protocol version the solver file names (hello, requests and goodbye carry it). */
+  get protocol() {
+    return protocolVersion(this.spec.protocol ?? 1);
+  }
+
   get env(): Record<string, string> | undefined {
     return this.spec.env;
   }
@@ -211,76 +144,48 @@ class Runner {
     return Math.floor(this.spec.maxReplyMiB * 1024 * 1024);
   }
 
+  /** The rank count of a solve under the launcher (1 without one). */
+  ranks(p: Prepared): number {
+    const launcher = this.spec.launcher;
+    if (!launcher) return 1;
+    return p.task.ranks ?? ranksFor(launcher, this.spec.layout, p.task.nx, p.task.ny);
+  }
+
+  /** The filled launcher command of a solve (of the session when `p` is absent), or []. */
+  launch(p?: Prepared): string[] {
+    return launchPrefix(this.spec.launcher, {
+      solver: this.spec.name,
+      caseId: p?.task.case.id ?? "session",
+      layout: this.spec.layout,
+      nx: p?.task.nx ?? 0,
+      ny: p?.task.ny ?? 0,
+      ranks: p?.task.ranks,
+      limitSeconds: p?.limitSeconds ?? this.spec.timeLimitSeconds,
+    });
+  }
+
   /** A not-applicable outcome when the task is outside what the solver handles, else undefined. */
   applicability(task: SolveTask, caps: Capabilities | undefined): SolveOutcome | undefined {
-    const spec = this.spec;
-    const grid = { layout: spec.layout, nx: task.nx, ny: task.ny };
-    if (spec.skipCases.includes(task.case.id)) {
-      return emptyOutcome(
-        "not-applicable",
-        `case ${task.case.id} is in the solver file's skipCases`,
-        grid,
-      );
-    }
-    if (task.scheme !== spec.scheme && !(caps?.schemes?.includes(task.scheme))) {
-      return emptyOutcome(
-        "not-applicable",
-        `the solver implements the ${spec.scheme} scheme; this solve asks for ${task.scheme}`,
-        grid,
-      );
-    }
-    if (caps) {
-      const why = unsupported(task, spec, caps);
-      if (why) return emptyOutcome("not-applicable", why, grid);
-    }
-    return undefined;
+    return applicability(this.spec, task, caps);
   }
 
   /** Builds the request, or an outcome when the task does not apply or cannot be sampled. */
   prepare(task: SolveTask, id: string, caps: Capabilities | undefined): Prepared | SolveOutcome {
-    const spec = this.spec;
-    const grid = { layout: spec.layout, nx: task.nx, ny: task.ny };
-    const refusal = this.applicability(task, caps);
-    if (refusal) return refusal;
-    const layout = requestLayout(spec);
-    const limitSeconds = task.timeLimitSeconds ?? spec.timeLimitSeconds;
-    let request: MessageBytes;
-    try {
-      const sampled = sampleCase(task.case, task.nx, task.ny, layout);
-      request = solveRequestBytes(sampled, {
-        id,
-        caseId: task.case.id,
-        caseTitle: task.case.title,
-        expressions: expressionTexts(task.case.formulas),
-        scheme: task.scheme,
-        tolerance: task.tolerance,
-        timeLimitSeconds: limitSeconds,
-        encoding: spec.encoding,
-        // the solver file decides when it says; else what the session declared (once: no)
-        constants: spec.constantArrays ?? caps?.constantArrays === true,
-      });
-    } catch (error) {
-      return emptyOutcome(
-        "failed",
-        `could not sample the case for the request: ${(error as Error).message}`,
-        grid,
-      );
-    }
-    let points: LayoutPoints | undefined;
-    return {
-      task,
-      request,
-      limitSeconds,
-      expect: { id, layout, nx: task.nx, ny: task.ny, domain: task.case.domain },
-      points: () => points ??= gridPoints(layout, task.case.domain, task.nx, task.ny),
-    };
+    return prepareRequest(this.spec, task, id, caps);
   }
 
-  /** Resolves the program and starts it in its own process group, or says why it cannot. */
-  async start(): Promise<GroupProcess | string> {
+  /**
+   * Resolves the program and starts it in its own process group, or says why it cannot.
+   * `prefix` is a filled launcher command (see `launcher.ts`) put before the program.
+   */
+  async start(prefix: string[] = []): Promise<GroupProcess | string> {
     const [program, ...args] = this.spec.command;
     const found = await resolveProgram(program, { baseDir: this.baseDir, path: this.env?.PATH });
     if (!found.ok) return found.reason;
+    const launcher = prefix.length > 0
+      ? await resolveProgram(prefix[0], { baseDir: this.baseDir, path: this.env?.PATH })
+      : undefined;
+    if (launcher && !launcher.ok) return `the launcher: ${launcher.reason}`;
     const cwd = resolve(this.baseDir, this.spec.cwd ?? ".");
     try {
       const info = await Deno.stat(cwd);
@@ -290,7 +195,7 @@ class Runner {
     }
     try {
       const proc = GroupProcess.start({
-        argv: [found.path, ...args],
+        argv: [...(launcher?.ok ? [launcher.path, ...prefix.slice(1)] : []), found.path, ...args],
         cwd,
         env: this.env,
         memoryLimitMiB: this.spec.memoryLimitMiB,
@@ -307,7 +212,7 @@ class Runner {
     const grid = { layout: this.spec.layout, nx: p.task.nx, ny: p.task.ny };
     const started = performance.now();
     const elapsed = () => (performance.now() - started) / 1000;
-    const proc = await this.start();
+    const proc = await this.start(this.launch(p));
     if (typeof proc === "string") return emptyOutcome("failed", proc, grid, { seconds: elapsed() });
     const deadline = started + p.limitSeconds * 1000;
     const left = () => deadline - performance.now();
@@ -365,10 +270,14 @@ class Runner {
     await within(proc.stderrDone, 500);
     await proc.release();
     const tail = proc.stderr.text();
+    const notes = {
+      ...(this.spec.launcher ? { ranks: this.ranks(p) } : {}),
+      ...(leftover ? { leftoverProcesses: leftover } : {}),
+    };
     const extra = {
       seconds,
       stderrTail: tail,
-      ...(leftover ? { description: { leftoverProcesses: leftover } } : {}),
+      ...(Object.keys(notes).length > 0 ? { description: notes } : {}),
     };
     const bytes = read.kind === "data" ? read.bytes : new Uint8Array(0);
     const shortWrite = write.written >= 0 && write.written < p.request.byteLength;
@@ -412,18 +321,7 @@ class Runner {
     extra: { seconds: number; stderrTail?: string },
     description: Record<string, unknown>,
   ): SolveOutcome {
-    const grid = { layout: this.spec.layout, nx: p.task.nx, ny: p.task.ny };
-    const check = readReply(text, p.expect);
-    if (!check.ok) return emptyOutcome("failed", check.reason, grid, extra);
-    const reply = check.reply;
-    if (reply.type === "not-applicable") {
-      return emptyOutcome("not-applicable", `the solver says: ${reply.reason}`, grid, extra);
-    }
-    if (reply.type === "error") {
-      return emptyOutcome("failed", `the solver reported an error: ${reply.reason}`, grid, extra);
-    }
-    if (reply.type !== "solution") throw new TypeError(`unhandled reply type ${reply.type}`);
-    return solutionOutcome(reply, { ...p.expect }, { ...extra, description }, p.points);
+    return judgeReply(this.spec, text, p, extra, description);
   }
 }
 
@@ -442,10 +340,10 @@ class Session {
 
   async #start(limitSeconds: number): Promise<string | undefined> {
     const started = performance.now();
-    const proc = await this.runner.start();
+    const proc = await this.runner.start(this.runner.launch());
     if (typeof proc === "string") return proc;
     const hello = new TextEncoder().encode(
-      serializeMessage({ protocol: PROTOCOL_VERSION, type: "hello" }),
+      serializeMessage({ protocol: this.runner.protocol, type: "hello" }),
     );
     const wrote = await proc.write(hello);
     const wait = Math.min(limitSeconds, MAX_STARTUP_SECONDS) * 1000;
@@ -474,7 +372,7 @@ class Session {
       );
     }
     if (line.kind !== "line") return await abandon("unexpected output");
-    const check = readReady(line.text);
+    const check = readReady(line.text, this.runner.protocol);
     if (!check.ok) return await abandon(check.reason);
     this.#proc = proc;
     this.#ready = check.ready;
@@ -594,7 +492,7 @@ class Session {
     const proc = this.#proc;
     if (!proc) return;
     const bye = new TextEncoder().encode(
-      serializeMessage({ protocol: PROTOCOL_VERSION, type: "goodbye" }),
+      serializeMessage({ protocol: this.runner.protocol, type: "goodbye" }),
     );
     await within(proc.write(bye), 500);
     await proc.closeStdin();

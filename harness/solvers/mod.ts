@@ -18,8 +18,13 @@
  * @module
  */
 export type {
+  BatchSpec,
   ExternalSolverSpec,
+  JobNote,
+  JobTrack,
+  LauncherSpec,
   OutcomeStatus,
+  RankCheckSpec,
   SolveOutcome,
   Solver,
   SolveTask,
@@ -28,6 +33,9 @@ export { createReferenceSolver, type ReferenceSolverOptions } from "./reference.
 export { emptyOutcome } from "./outcome.ts";
 export { createExternalSolver, type ExternalSolverOptions } from "./external.ts";
 export { loadSolverFile } from "./solver_file.ts";
+export { type BatchSolverOptions, createBatchSolver } from "./batch/mod.ts";
+export { createSolver, programsToCheck } from "./create_solver.ts";
+export { launchPrefix, PLACEHOLDERS, ranksFor } from "./launcher.ts";
 export { expressionTexts, sampleCase } from "./sample.ts";
 export { freePoints, gridPoints, type LayoutPoints } from "./geometry.ts";
 export { resolveProgram } from "./resolve_command.ts";

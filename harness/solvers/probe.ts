@@ -1,19 +1,24 @@
 /**
  * Checks an external solver's adapter with a few tiny requests: each boundary kind, both array
- * encodings, each declared process mode. Returns the checks as data (the CLI prints them).
+ * encodings, each declared process mode; for a solver that speaks protocol version 2 also a
+ * conservative request (K varying at the faces, one interface) and a mixed-term request. Returns
+ * the checks as data (the CLI prints them).
  *
  * @module
  */
 import type { ArrayEncoding } from "../protocol/mod.ts";
 import { createExternalSolver } from "./external.ts";
 import { type ProbeBoundarySet, probeCase } from "./probe_cases.ts";
+import { type ProbeFormCase, probeFormCase } from "./probe_cases_v2.ts";
+import type { CompiledCase } from "../../cases/types.ts";
 import type { ExternalSolverSpec, SolveOutcome } from "./types.ts";
 
 /** One probe request and what came of it. */
 export interface ProbeCheck {
   mode: "once" | "session";
   encoding: ArrayEncoding;
-  boundary: ProbeBoundarySet;
+  /** The boundary set of the plain probe case, or the version 2 probe ("conservative", "mixed"). */
+  boundary: ProbeBoundarySet | ProbeFormCase;
   /** false for the encoding the solver file does not declare: a failure there is only noted. */
   required: boolean;
   status: "pass" | "fail" | "not-applicable";
@@ -41,7 +46,7 @@ export interface ProbeReport {
 /** Largest relative error accepted on the probe grid (8 × 16): far above any consistent scheme's. */
 export const PROBE_ERROR_LIMIT = 0.05;
 
-function relativeError(c: ReturnType<typeof probeCase>, o: SolveOutcome): number {
+function relativeError(c: CompiledCase, o: SolveOutcome): number {
   let err = 0;
   let scale = 0;
   for (let k = 0; k < o.values.length; k++) {
@@ -86,8 +91,16 @@ export async function probeSolver(
         { solverFileDir: options.solverFileDir },
       );
       try {
-        for (const boundary of ["dirichlet", "neumann", "robin"] as const) {
-          const c = probeCase(boundary);
+        const probes: [ProbeBoundarySet | ProbeFormCase, CompiledCase][] = [
+          ["dirichlet", probeCase("dirichlet")],
+          ["neumann", probeCase("neumann")],
+          ["robin", probeCase("robin")],
+        ];
+        if (spec.protocol === 2) {
+          probes.push(["conservative", await probeFormCase("conservative")]);
+          probes.push(["mixed", await probeFormCase("mixed")]);
+        }
+        for (const [boundary, c] of probes) {
           const o = await solver.solve({
             case: c,
             nx: 8,
@@ -113,7 +126,15 @@ export async function probeSolver(
                 `${
                   check.relativeError.toPrecision(3)
                 } > ${PROBE_ERROR_LIMIT} on an 8×16 grid): check ` +
-                `the point order (x fastest), the layout and the boundary conventions in docs/protocol.md`;
+                `the point order (x fastest), the layout and the boundary conventions in docs/protocol.md` +
+                (typeof boundary === "string" &&
+                    (boundary === "conservative" || boundary === "mixed")
+                  ? `, and the version 2 fields (${
+                    boundary === "mixed"
+                      ? "coefficients.m"
+                      : "conservative.faces, the conormal flux on Neumann sides"
+                  })`
+                  : "");
             }
           }
           const startup = o.description?.startupSeconds;

@@ -1,13 +1,20 @@
 /**
  * Samples a compiled case at the points a layout needs for a solve request: grid nodes (vertex
  * layout, through the case's own `sample`) or cell centres with boundary data at the centres of
- * the boundary faces (cell layout).
+ * the boundary faces (cell layout). The mixed term u_xy and the conservative form's K (at the
+ * points and at the faces, from the case's own face values) come along for protocol version 2.
  *
  * @module
  */
-import type { CompiledCase, PointFn } from "../../cases/types.ts";
+import type { CompiledCase, ConservativeTerms, PointFn } from "../../cases/types.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
-import type { ExpressionTexts, SampledProblem, SampledSide, SideName } from "../protocol/mod.ts";
+import type {
+  ExpressionTexts,
+  SampledConductivity,
+  SampledProblem,
+  SampledSide,
+  SideName,
+} from "../protocol/mod.ts";
 
 /**
  * Samples a case for a request on the given layout.
@@ -27,39 +34,201 @@ import type { ExpressionTexts, SampledProblem, SampledSide, SideName } from "../
  * p.source.length; // 64
  * ```
  */
-/** The constant coefficients among the five a request carries (the mixed term m is not one). */
-function protocolConstants(compiled: CompiledCase): SampledProblem["constantCoefficients"] {
-  const { m: _m, ...five } = compiled.constantCoefficients;
-  return five;
-}
-
 export function sampleCase(
   compiled: CompiledCase,
   nx: number,
   ny: number,
   layout: "vertex" | "cell",
 ): SampledProblem {
-  if (layout === "vertex") {
-    const p = compiled.sample(nx, ny);
-    const boundary = {} as Record<SideName, SampledSide>;
-    for (const side of SIDES) boundary[side] = { ...p.boundary[side] };
-    return {
-      domain: { ...p.domain },
-      nx: p.nx,
-      ny: p.ny,
-      layout,
-      coefficients: { a: p.a, b: p.b, c: p.c, d: p.d, e: p.e },
-      source: p.f,
-      boundary,
-      constantCoefficients: protocolConstants(compiled),
-    };
+  const misses = compiled.gridMisses(nx, ny);
+  if (misses !== null) {
+    throw new RangeError(
+      `case ${compiled.id}: the ${nx}×${ny} grid does not suit the case: ${misses}; ` +
+        `choose grids that put every interface on a grid line`,
+    );
   }
-  return sampleCells(compiled, nx, ny);
+  const problem = layout === "vertex"
+    ? sampleVertex(compiled, nx, ny)
+    : sampleCells(compiled, nx, ny);
+  if (compiled.form === "conservative") {
+    problem.form = "conservative";
+    problem.interfaces = { x: [...compiled.interfaces.x], y: [...compiled.interfaces.y] };
+    // the case's constants are those of the expanded operator, not of K, β and σ
+    problem.constantCoefficients = {};
+  } else {
+    problem.form = "non-conservative";
+  }
+  return problem;
+}
+
+/**
+ * Why a solver that speaks protocol 1 cannot be sent the case (the conservative form, a mixed
+ * term), or undefined when it can.
+ *
+ * @param compiled the case
+ * @returns the reason, naming the way out, or undefined
+ */
+export function version1Refusal(compiled: CompiledCase): string | undefined {
+  const missing = compiled.form === "conservative"
+    ? "no conservative form"
+    : noMixedTerm(compiled)
+    ? undefined
+    : "no mixed term (u_xy)";
+  if (missing === undefined) return undefined;
+  return `the solver speaks protocol 1, which has ${missing}; see docs/protocol.md, ` +
+    `"Moving to version 2"`;
+}
+
+/** true when the case's mixed term is 0 everywhere. */
+function noMixedTerm(compiled: CompiledCase): boolean {
+  return compiled.constantCoefficients.m === 0 ||
+    (compiled.formulas.m === undefined && compiled.constantCoefficients.m === undefined);
+}
+
+/** The vertex layout: the case's own node sample, its u_xy and K at the edge midpoints. */
+function sampleVertex(compiled: CompiledCase, nx: number, ny: number): SampledProblem {
+  const p = compiled.sample(nx, ny);
+  const boundary = {} as Record<SideName, SampledSide>;
+  for (const side of SIDES) boundary[side] = { ...p.boundary[side] };
+  const problem: SampledProblem = {
+    domain: { ...p.domain },
+    nx: p.nx,
+    ny: p.ny,
+    layout: "vertex",
+    coefficients: { a: p.a, b: p.b, c: p.c, d: p.d, e: p.e },
+    source: p.f,
+    boundary,
+    constantCoefficients: { ...compiled.constantCoefficients },
+  };
+  const terms = compiled.conservative;
+  if (compiled.form === "conservative" && terms) {
+    const cond = p.conductivity;
+    if (!cond) {
+      throw new TypeError(`case ${compiled.id}: the conservative sample has no conductivity`);
+    }
+    const xs = cond.alongX.k11.length;
+    const ys = cond.alongY.k22.length;
+    problem.conservative = {
+      k11: p.a,
+      k12: atPoints(terms.k12, compiled, nx, ny, "vertex"),
+      k22: p.c,
+      faces: {
+        x: { k11: cond.alongX.k11, k12: cond.alongX.k12 ?? new Float64Array(xs) },
+        y: { k12: cond.alongY.k12 ?? new Float64Array(ys), k22: cond.alongY.k22 },
+      },
+    };
+  } else if (p.m && !noMixedTerm(compiled)) {
+    problem.m = p.m;
+  }
+  return problem;
+}
+
+/** Values of `fn` at the points of a layout, x fastest. */
+function atPoints(
+  fn: PointFn,
+  compiled: CompiledCase,
+  nx: number,
+  ny: number,
+  layout: "vertex" | "cell",
+): Float64Array {
+  const shift = layout === "cell" ? 0.5 : 0;
+  const mx = layout === "cell" ? nx : nx + 1;
+  const my = layout === "cell" ? ny : ny + 1;
+  return lattice(fn, compiled, { x: shift, y: shift, mx, my, nx, ny, what: `${layout} point` });
+}
+
+/**
+ * Values of `fn` at x0 + (i + at.x)·hx, y0 + (j + at.y)·hy for 0 ≤ i < mx, 0 ≤ j < my (x
+ * fastest); a value that is not finite is an error naming the point.
+ */
+function lattice(
+  fn: PointFn,
+  compiled: CompiledCase,
+  at: { x: number; y: number; mx: number; my: number; nx: number; ny: number; what: string },
+): Float64Array {
+  const { x0, x1, y0, y1 } = compiled.domain;
+  const hx = (x1 - x0) / at.nx;
+  const hy = (y1 - y0) / at.ny;
+  const out = new Float64Array(at.mx * at.my);
+  for (let j = 0, k = 0; j < at.my; j++) {
+    const y = y0 + (j + at.y) * hy;
+    for (let i = 0; i < at.mx; i++, k++) {
+      const x = x0 + (i + at.x) * hx;
+      const v = fn(x, y);
+      if (!Number.isFinite(v)) {
+        throw new RangeError(
+          `case ${compiled.id}: a coefficient is ${v} at the ${at.what} (${x}, ${y}); ` +
+            `the case must be finite on the domain`,
+        );
+      }
+      out[k] = v;
+    }
+  }
+  return out;
+}
+
+/**
+ * The conservative form on the cell layout: K, β and σ at the cell centres, K at the x-faces
+ * ((nx + 1) × ny, at x_i, y_{j+½}) and the y-faces (nx × (ny + 1), at x_{i+½}, y_j), taken from
+ * the case's face values (the effective value on an interface). Checks that K is positive
+ * definite at every centre and face.
+ */
+function cellConductivity(
+  compiled: CompiledCase,
+  terms: ConservativeTerms,
+  nx: number,
+  ny: number,
+): { points: SampledConductivity; bx: Float64Array; by: Float64Array; sigma: Float64Array } {
+  const centres = (fn: PointFn) => atPoints(fn, compiled, nx, ny, "cell");
+  const xFaces = (fn: PointFn) =>
+    lattice(fn, compiled, { x: 0, y: 0.5, mx: nx + 1, my: ny, nx, ny, what: "x-face" });
+  const yFaces = (fn: PointFn) =>
+    lattice(fn, compiled, { x: 0.5, y: 0, mx: nx, my: ny + 1, nx, ny, what: "y-face" });
+  const points: SampledConductivity = {
+    k11: centres(terms.k11),
+    k12: centres(terms.k12),
+    k22: centres(terms.k22),
+    faces: {
+      x: { k11: xFaces(terms.faceX.k11), k12: xFaces(terms.faceX.k12) },
+      y: { k12: yFaces(terms.faceY.k12), k22: yFaces(terms.faceY.k22) },
+    },
+  };
+  for (let k = 0; k < points.k11.length; k++) {
+    const k11 = points.k11[k];
+    const k22 = points.k22[k];
+    const k12 = points.k12[k];
+    if (!(k11 > 0 && k11 * k22 - k12 * k12 > 0)) {
+      throw new RangeError(
+        `case ${compiled.id}: K is not positive definite at cell ${k % nx}, ` +
+          `${Math.floor(k / nx)} (k11 = ${k11}, k12 = ${k12}, k22 = ${k22})`,
+      );
+    }
+  }
+  return {
+    points,
+    bx: centres(terms.bx),
+    by: centres(terms.by),
+    sigma: centres(terms.sigma),
+  };
 }
 
 function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledProblem {
   if (!(Number.isInteger(nx) && Number.isInteger(ny) && nx >= 1 && ny >= 1)) {
     throw new RangeError(`cell grid must have whole numbers of cells ≥ 1, got ${nx}×${ny}`);
+  }
+  const terms = compiled.conservative;
+  if (compiled.form === "conservative" && terms) {
+    const k = cellConductivity(compiled, terms, nx, ny);
+    return {
+      domain: { ...compiled.domain },
+      nx,
+      ny,
+      layout: "cell",
+      coefficients: { a: k.points.k11, b: k.bx, c: k.points.k22, d: k.by, e: k.sigma },
+      source: atPoints(compiled.source, compiled, nx, ny, "cell"),
+      boundary: cellBoundary(compiled, nx, ny),
+      conservative: k.points,
+    };
   }
   const { x0, x1, y0, y1 } = compiled.domain;
   const hx = (x1 - x0) / nx;
@@ -94,6 +263,43 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
       }
     }
   }
+  const m = noMixedTerm(compiled)
+    ? undefined
+    : atPoints(compiled.coefficients.m, compiled, nx, ny, "cell");
+  if (m) {
+    for (let idx = 0; idx < m.length; idx++) {
+      const det = 4 * arrays[0][idx] * arrays[2][idx] - m[idx] * m[idx];
+      if (!(det > 0)) {
+        throw new RangeError(
+          `case ${compiled.id}: not elliptic at cell ${idx % nx}, ${Math.floor(idx / nx)}: ` +
+            `4ac − m² = ${det} must be > 0`,
+        );
+      }
+    }
+  }
+  const [a, b, c, d, e, f] = arrays;
+  return {
+    domain: { x0, x1, y0, y1 },
+    nx,
+    ny,
+    layout: "cell",
+    coefficients: { a, b, c, d, e },
+    source: f,
+    boundary: cellBoundary(compiled, nx, ny),
+    constantCoefficients: { ...compiled.constantCoefficients },
+    ...(m ? { m } : {}),
+  };
+}
+
+/** Boundary data at the centres of the boundary faces (the cell layout's). */
+function cellBoundary(
+  compiled: CompiledCase,
+  nx: number,
+  ny: number,
+): Record<SideName, SampledSide> {
+  const { x0, x1, y0, y1 } = compiled.domain;
+  const hx = (x1 - x0) / nx;
+  const hy = (y1 - y0) / ny;
   const boundary = {} as Record<SideName, SampledSide>;
   for (const side of SIDES) {
     const bc = compiled.boundary[side];
@@ -115,27 +321,25 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
       ? { kind: "robin", alpha: bc.alpha, beta: bc.beta, values }
       : { kind: bc.kind, values };
   }
-  const [a, b, c, d, e, f] = arrays;
-  return {
-    domain: { x0, x1, y0, y1 },
-    nx,
-    ny,
-    layout: "cell",
-    coefficients: { a, b, c, d, e },
-    source: f,
-    boundary,
-    constantCoefficients: protocolConstants(compiled),
-  };
+  return boundary;
 }
 
 /**
  * The expressions a request carries for solvers that evaluate them: the operator, the source and
- * the boundary data — never the exact solution (docs/protocol.md).
+ * the boundary data — never the exact solution (docs/protocol.md). `m` comes when the case has
+ * a mixed term; the conservative terms when the case has them and no interfaces (with
+ * interfaces a term is piecewise, and only the sampled arrays describe it).
  *
  * @param formulas a compiled case's formulas
  * @returns the expression texts of a solve request
  */
 export function expressionTexts(formulas: CompiledCase["formulas"]): ExpressionTexts {
   const { a, b, c, d, e, source } = formulas;
-  return { a, b, c, d, e, source, boundary: { ...formulas.boundary } };
+  const texts: ExpressionTexts = { a, b, c, d, e, source, boundary: { ...formulas.boundary } };
+  if (formulas.m !== undefined) texts.m = formulas.m;
+  // one text per term holds only without interfaces (the formulas show the first region)
+  if (formulas.conservative && !formulas.regions) {
+    texts.conservative = { ...formulas.conservative };
+  }
+  return texts;
 }

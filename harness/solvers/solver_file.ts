@@ -10,6 +10,7 @@ import { JsonSyntaxError, readJsonWithPositions } from "../../cases/mod.ts";
 import { InputError } from "../../errors/mod.ts";
 import solverFileSchema from "./solvers.schema.json" with { type: "json" };
 import type { ExternalSolverSpec } from "./types.ts";
+import { readScaleOut } from "./scale_out_fields.ts";
 
 let validator: ReturnType<Ajv2020["compile"]> | undefined;
 
@@ -139,6 +140,8 @@ export async function loadSolverFile(
     if (entry.memoryLimitMiB !== undefined) spec.memoryLimitMiB = entry.memoryLimitMiB as number;
     if (entry.constantArrays !== undefined) spec.constantArrays = entry.constantArrays as boolean;
     if (entry.iterationGrowth !== undefined) spec.iterationGrowth = entry.iterationGrowth as number;
+    if (entry.protocol !== undefined) spec.protocol = entry.protocol as 1 | 2;
+    readScaleOut(spec, entry, `solvers[${index}]`, path);
     specs.push(spec);
   });
   return specs;

@@ -20,6 +20,35 @@ export interface SolveTask {
   tolerance: number;
   /** Wall-time limit of this solve; default: the solver's own limit. */
   timeLimitSeconds?: number;
+  /**
+   * Rank count of this solve for a solver with a launcher; default: the launcher's rule. The
+   * rank-count check asks for 1 and N ranks on one grid.
+   */
+  ranks?: number;
+  /** Scheduler jobs of this solve (batch solvers): the earlier run's job, and where to report. */
+  jobs?: JobTrack;
+}
+
+/** A scheduler job of one solve as the journal keeps it. */
+export interface JobNote {
+  /** The scheduler's job id (`123`, or `123_4` for a task of a job array). */
+  id: string;
+  /** The scheduler's state word (PENDING, RUNNING, COMPLETED, FAILED, TIMEOUT, …). */
+  state: string;
+  /** The request id the job's reply must echo. */
+  requestId: string;
+  /** The job's folder of files (request, reply, stderr, exit status). */
+  folder: string;
+}
+
+/**
+ * How a batch solve talks to the campaign about its job: the job an earlier, interrupted run
+ * submitted (collected or waited for instead of submitting again), and a callback for every new
+ * job or state (the campaign journals it).
+ */
+export interface JobTrack {
+  earlier?: JobNote;
+  note(job: JobNote): void;
 }
 
 /** Status of a solve (the same words as the result object's). */
@@ -83,6 +112,51 @@ export interface Solver {
    * returns promptly; the solves end as failed. Optional: in-process solvers finish on their own.
    */
   stop?(): Promise<void>;
+  /** The rank-count check the solver file asks for (solvers with a launcher); none by default. */
+  rankCheck?: RankCheckSpec;
+}
+
+/** A launcher that wraps a solver's command, such as `mpirun -np {ranks}` (see `launcher.ts`). */
+export interface LauncherSpec {
+  /** Program and arguments put before the solver's command, with placeholders. */
+  command: string[];
+  /** A fixed rank count, or one rank per `unknownsPerRank` unknowns, at most `most` (default no cap). */
+  ranks: number | { unknownsPerRank: number; most?: number };
+}
+
+/** Solve one grid at 1 rank and at `ranks` ranks and compare the solutions. */
+export interface RankCheckSpec {
+  /** The rank count compared with 1 (at least 2). */
+  ranks: number;
+  /** The grid (intervals along x); default: the study's finest planned grid. */
+  grid?: number;
+}
+
+/** A solver run as scheduler jobs: files in, a job, files out (see `batch/`). */
+export interface BatchSpec {
+  /** The scheduler. Only "slurm" so far. */
+  scheduler: "slurm";
+  /**
+   * Folder for the jobs' files, relative to the solver file's folder; the compute nodes must see
+   * it. Default "gridproof-jobs".
+   */
+  folder: string;
+  /** Extra arguments of every submission (`sbatch`), e.g. `["--partition=short"]`. Default []. */
+  submitArguments: string[];
+  /** Longest wait in the queue before the job is cancelled and the solve fails. Default none. */
+  queueLimitSeconds?: number;
+  /** Seconds between looks at the jobs' states. Default 1. */
+  pollSeconds: number;
+  /**
+   * Solves that arrive within this many seconds of each other go into one job array. Default
+   * 0.2; 0 submits one job per solve.
+   */
+  gatherSeconds: number;
+  /**
+   * Job time limits predicted from the time the coarser grids took, times `safety`, never above
+   * `timeLimitSeconds`. Default: off (every job gets `timeLimitSeconds`).
+   */
+  predictTime?: { safety: number };
 }
 
 /** One external solver as written in a solver file, with defaults filled in. */
@@ -122,4 +196,15 @@ export interface ExternalSolverSpec {
    * declares (`supports.constantArrays`); in once mode, never.
    */
   constantArrays?: boolean;
+  /**
+   * The protocol version the solver speaks (the solver file's `protocol`): 1 or 2. Absent: 1,
+   * and cases of the conservative form or with a mixed term are not applicable to it.
+   */
+  protocol?: 1 | 2;
+  /** A launcher around the command (MPI); none by default. */
+  launcher?: LauncherSpec;
+  /** The rank-count check (needs a launcher); none by default. */
+  rankCheck?: RankCheckSpec;
+  /** Run every solve as a scheduler job; none by default (a local process). */
+  batch?: BatchSpec;
 }

@@ -1,12 +1,14 @@
 /**
- * The zoo's own assembly of a·u_xx + b·u_x + c·u_yy + d·u_y + e·u = f with five-point central
- * differences on vertex and cell grids, written from the case's point functions (independent of
- * the reference solver's discretization). The exact solution is never read.
+ * The zoo's own assembly of a·u_xx + m·u_xy + b·u_x + c·u_yy + d·u_y + e·u = f with central
+ * differences on vertex and cell grids (five points, nine where m ≠ 0), written from the case's
+ * point functions (independent of the reference solver's discretization). The exact solution is
+ * never read.
  *
  * @module
  */
-import type { CompiledCase } from "../../cases/mod.ts";
+import type { CaseBoundary, CompiledCase } from "../../cases/mod.ts";
 import type { Side } from "../../reference-solver/mod.ts";
+import { type Combination, combine, known, unknown } from "./combination.ts";
 import type { Discretization } from "./defects.ts";
 import { addEntry, emptySystem, type LinearSystem } from "./system.ts";
 
@@ -66,13 +68,17 @@ function stencil(
  * Assembles the vertex-centred system: (nx+1)(ny+1) nodes, x fastest. Dirichlet nodes (a corner
  * on a Dirichlet side included) hold their data and are eliminated from their neighbours' rows;
  * Neumann and Robin nodes carry the PDE row with the ghost node of each outside neighbour
- * eliminated by the central normal difference u_g = u_opposite + 2h(g − α·u)/β.
+ * eliminated by the central normal difference u_g = u_opposite + 2h(g − α·u)/β. The mixed term
+ * is the four-corner difference inside; on a Neumann or Robin side it is the central difference
+ * along the side of the normal derivative the condition gives (u_xy = ∂t(∂u/∂n)·(±1)), which
+ * leaves no closure at a corner between two such sides.
  *
  * @param c the compiled case
  * @param nx intervals along x
  * @param ny intervals along y
  * @param disc the scheme, possibly with a seeded defect
- * @returns the system (bandwidth nx + 1)
+ * @returns the system (bandwidth nx + 1, nx + 2 with a mixed term)
+ * @throws {RangeError} at a corner between two Neumann or Robin sides where m ≠ 0
  */
 export function assembleVertex(
   c: CompiledCase,
@@ -85,7 +91,8 @@ export function assembleVertex(
   const hy = (y1 - y0) / ny;
   const mx = nx + 1;
   const n = mx * (ny + 1);
-  const system = emptySystem(n, mx);
+  const hasMixed = c.constantCoefficients.m !== 0;
+  const system = hasMixed ? emptySystem(n, mx + 1, 9) : emptySystem(n, mx);
   const sidesAt = (i: number, j: number): Side[] => {
     const sides: Side[] = [];
     if (i === 0) sides.push("west");
@@ -168,21 +175,157 @@ export function assembleVertex(
         addEntry(system, k, k, -w * 2 * h * alpha / beta);
         system.rhs[k] -= w * 2 * h * g / beta;
       }
+      const mixed = hasMixed ? disc.mixedScale * c.coefficients.m(x, y) : 0;
+      if (mixed !== 0) {
+        const uxy = vertexMixed(c, disc, { i, j, nx, ny, hx, hy, sides });
+        for (const [col, coef] of uxy.terms) add(col, mixed * coef);
+        system.rhs[k] -= mixed * uxy.constant;
+      }
     }
   }
   return system;
+}
+
+/** u_xy at a free vertex node (see {@link assembleVertex}) as a combination of node values. */
+function vertexMixed(
+  c: CompiledCase,
+  disc: Discretization,
+  at: { i: number; j: number; nx: number; ny: number; hx: number; hy: number; sides: Side[] },
+): Combination {
+  const { i, j, nx, hx, hy, sides } = at;
+  const { x0, y0 } = c.domain;
+  const node = (ii: number, jj: number) => unknown(jj * (nx + 1) + ii);
+  if (sides.length === 0) {
+    const q = 1 / (4 * hx * hy);
+    return combine(
+      [node(i + 1, j + 1), node(i - 1, j - 1), node(i - 1, j + 1), node(i + 1, j - 1)],
+      [q, q, -q, -q],
+    );
+  }
+  if (sides.length > 1) {
+    throw new RangeError(
+      `the zoo has no closure of the mixed term at the corner node (${x0 + i * hx}, ` +
+        `${y0 + j * hy}) between the ${sides.join(" and ")} sides; make one of them Dirichlet`,
+    );
+  }
+  const side = sides[0];
+  const bc = c.boundary[side];
+  // ∂u/∂n = s·(u_x or u_y), s = +1 on east and north
+  const s = side === "east" || side === "north" ? 1 : -1;
+  const normalDerivative = (ii: number, jj: number): Combination => {
+    const g = disc.fluxDataScale * bc.data(x0 + ii * hx, y0 + jj * hy);
+    if (bc.kind === "neumann") return known(s * g);
+    // Robin: g = α·u + β·∂u/∂n
+    const beta = disc.robinBetaSign * bc.beta!;
+    return combine([known(g), node(ii, jj)], [s / beta, -s * bc.alpha! / beta]);
+  };
+  return side === "south" || side === "north"
+    ? combine([normalDerivative(i + 1, j), normalDerivative(i - 1, j)], [
+      1 / (2 * hx),
+      -1 / (2 * hx),
+    ])
+    : combine([normalDerivative(i, j + 1), normalDerivative(i, j - 1)], [
+      1 / (2 * hy),
+      -1 / (2 * hy),
+    ]);
+}
+
+/**
+ * The ghost cell beyond a side as p·u₁ + r (u₁ the cell inside), closed at the face point (fx, fy):
+ * Dirichlet u_g = 2g − u₁ (or the face-value defect), Neumann u_g = u₁ + h·g, Robin
+ * α(u₁ + u_g)/2 + β(u_g − u₁)/h = g.
+ */
+function cellGhost(
+  bc: CaseBoundary,
+  fx: number,
+  fy: number,
+  h: number,
+  disc: Discretization,
+): [p: number, r: number] {
+  if (bc.kind === "dirichlet") {
+    const g = bc.data(fx, fy);
+    return disc.cellDirichlet === "reflect" ? [-1, 2 * g] : [0, g];
+  }
+  if (bc.kind === "neumann") {
+    const factor = disc.neumann === "one-sided" ? 2 : 1;
+    return [1, factor * h * disc.fluxDataScale * bc.data(fx, fy)];
+  }
+  const alpha = bc.alpha!;
+  const beta = disc.robinBetaSign * bc.beta!;
+  const den = alpha / 2 + beta / h;
+  return [-(alpha / 2 - beta / h) / den, disc.fluxDataScale * bc.data(fx, fy) / den];
+}
+
+/**
+ * u_xy at cell (i, j) as (U_e − U_w)/hx, U = u_y at the x-faces: inside, the mean of the two
+ * columns' central differences, with a row beyond the south or north side taken from that side
+ * (Dirichlet: the quadratic ghost (8g − 6u₁ + u₂)/3, which keeps u_y second order; otherwise the
+ * closure's ghost); on a west or east face, the derivative of the Dirichlet data along the side, or
+ * the difference of the face values (u₁ + u_g)/2 of a Neumann or Robin closure (one-sided in the
+ * corner cells).
+ */
+function cellMixed(
+  c: CompiledCase,
+  disc: Discretization,
+  at: { i: number; j: number; nx: number; ny: number; hx: number; hy: number },
+): Combination {
+  const { i, j, nx, ny, hx, hy } = at;
+  const { x0, x1, y0, y1 } = c.domain;
+  const cell = (ii: number, jj: number) => unknown(jj * nx + ii);
+  const value = (ii: number, jj: number): Combination => {
+    if (jj >= 0 && jj < ny) return cell(ii, jj);
+    const south = jj < 0;
+    const bc = c.boundary[south ? "south" : "north"];
+    const inner = south ? 0 : ny - 1;
+    const next = south ? 1 : ny - 2;
+    const fx = x0 + (ii + 0.5) * hx;
+    const fy = south ? y0 : y1;
+    if (bc.kind === "dirichlet") {
+      return combine([known(bc.data(fx, fy)), cell(ii, inner), cell(ii, next)], [8 / 3, -2, 1 / 3]);
+    }
+    const [p, r] = cellGhost(bc, fx, fy, hy, disc);
+    return combine([cell(ii, inner), known(r)], [p, 1]);
+  };
+  const uyAtXFace = (ii: number): Combination => {
+    if (ii >= 0 && ii + 1 < nx) {
+      const q = 1 / (4 * hy);
+      return combine(
+        [value(ii, j + 1), value(ii + 1, j + 1), value(ii, j - 1), value(ii + 1, j - 1)],
+        [q, q, -q, -q],
+      );
+    }
+    const west = ii < 0;
+    const bc = c.boundary[west ? "west" : "east"];
+    const fx = west ? x0 : x1;
+    const column = west ? 0 : nx - 1;
+    const yj = y0 + (j + 0.5) * hy;
+    if (bc.kind === "dirichlet") {
+      return known((bc.data(fx, yj + hy / 2) - bc.data(fx, yj - hy / 2)) / hy);
+    }
+    const faceValue = (jj: number) => {
+      const [p, r] = cellGhost(bc, fx, y0 + (jj + 0.5) * hy, hx, disc);
+      return combine([cell(column, jj), known(r)], [(1 + p) / 2, 0.5]);
+    };
+    const lo = Math.max(j - 1, 0);
+    const hi = Math.min(j + 1, ny - 1);
+    if (hi === lo) return known(0);
+    const w = 1 / ((hi - lo) * hy);
+    return combine([faceValue(hi), faceValue(lo)], [w, -w]);
+  };
+  return combine([uyAtXFace(i), uyAtXFace(i - 1)], [1 / hx, -1 / hx]);
 }
 
 /**
  * Assembles the cell-centred system: nx·ny cells, x fastest, coefficients and source at the
  * centres. A neighbour beyond a side is a ghost cell closed at the face centre: Dirichlet
  * u_g = 2g − u₁, Neumann u_g = u₁ + h·g, Robin α(u₁ + u_g)/2 + β(u_g − u₁)/h = g (outward normal).
+ * The mixed term m·u_xy is the nine-point difference described at `cellMixed`.
  *
  * @param c the compiled case
  * @param nx cells along x
  * @param ny cells along y
  * @param disc the scheme, possibly with a seeded defect
- * @returns the system (bandwidth nx)
+ * @returns the system (bandwidth nx, nx + 1 with a mixed term)
  */
 export function assembleCell(
   c: CompiledCase,
@@ -193,7 +336,8 @@ export function assembleCell(
   const { x0, x1, y0, y1 } = c.domain;
   const hx = (x1 - x0) / nx;
   const hy = (y1 - y0) / ny;
-  const system = emptySystem(nx * ny, nx);
+  const hasMixed = c.constantCoefficients.m !== 0;
+  const system = hasMixed ? emptySystem(nx * ny, nx + 1, 9) : emptySystem(nx * ny, nx);
   const face: Record<Side, (x: number, y: number) => [number, number]> = {
     west: (_x, y) => [x0, y],
     east: (_x, y) => [x1, y],
@@ -225,23 +369,15 @@ export function assembleCell(
         const bc = c.boundary[dir.side];
         const [fx, fy] = face[dir.side](x, y);
         const h = dir.di !== 0 ? hx : hy;
-        // the ghost as p·u₁ + r
-        let p: number;
-        let r: number;
-        if (bc.kind === "dirichlet") {
-          const g = bc.data(fx, fy);
-          [p, r] = disc.cellDirichlet === "reflect" ? [-1, 2 * g] : [0, g];
-        } else if (bc.kind === "neumann") {
-          const factor = disc.neumann === "one-sided" ? 2 : 1;
-          [p, r] = [1, factor * h * disc.fluxDataScale * bc.data(fx, fy)];
-        } else {
-          const alpha = bc.alpha!;
-          const beta = disc.robinBetaSign * bc.beta!;
-          const den = alpha / 2 + beta / h;
-          [p, r] = [-(alpha / 2 - beta / h) / den, disc.fluxDataScale * bc.data(fx, fy) / den];
-        }
+        const [p, r] = cellGhost(bc, fx, fy, h, disc);
         addEntry(system, k, k, w * p);
         system.rhs[k] -= w * r;
+      }
+      const mixed = hasMixed ? disc.mixedScale * c.coefficients.m(x, y) : 0;
+      if (mixed !== 0) {
+        const uxy = cellMixed(c, disc, { i, j, nx, ny, hx, hy });
+        for (const [col, coef] of uxy.terms) addEntry(system, k, col, mixed * coef);
+        system.rhs[k] -= mixed * uxy.constant;
       }
     }
   }

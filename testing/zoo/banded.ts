@@ -3,7 +3,7 @@
  *
  * @module
  */
-import { type LinearSystem, SLOTS } from "./system.ts";
+import type { LinearSystem } from "./system.ts";
 
 /** A diagonal pivot is kept while it is at least this fraction of the column's largest entry. */
 const PIVOT_THRESHOLD = 0.1;
@@ -47,15 +47,15 @@ export function solveBanded(system: LinearSystem): BandedSolution {
  * the multipliers are not kept.
  */
 function eliminate(system: LinearSystem, allowExchange: boolean): Float64Array | undefined {
-  const { n, cols, vals } = system;
+  const { n, cols, vals, slots } = system;
   const lower = system.bandwidth;
   const upper = allowExchange ? 2 * lower : lower;
   const width = lower + upper + 1;
   const a = new Float64Array(n * width);
   for (let i = 0; i < n; i++) {
-    for (let s = 0; s < SLOTS; s++) {
-      const c = cols[i * SLOTS + s];
-      if (c >= 0) a[i * width + c - i + lower] += vals[i * SLOTS + s];
+    for (let s = 0; s < slots; s++) {
+      const c = cols[i * slots + s];
+      if (c >= 0) a[i * width + c - i + lower] += vals[i * slots + s];
     }
   }
   const x = system.rhs.slice();

@@ -1,6 +1,9 @@
 /**
  * The registry of seeded defects: each is a realistic coding bug, stated as a change to the
- * discretization the zoo assembles or as a rewrite of the finished solve.
+ * discretization the zoo assembles or as a rewrite of the finished solve. The closure and sampling
+ * choices (`neumann`, `robinBetaSign`, `aShift`, …) act on the non-conservative assembly; the
+ * conservative ones (`crossSign`, `faceConductivity`, `neumannData`) on the finite-volume assembly
+ * of the conservative form.
  *
  * @module
  */
@@ -36,6 +39,20 @@ export interface Discretization {
   robinBetaSign: number;
   /** Whether e·u is kept in the first layer of unknowns next to the boundary. */
   reactionNearBoundary: boolean;
+  /** Factor applied to the mixed term m·u_xy (non-conservative form). */
+  mixedScale: number;
+  /** Conservative form: sign in front of k12 in the cross fluxes k12·u_y and k12·u_x. */
+  crossSign: number;
+  /**
+   * Conservative form: K at a face between two unknowns — the case's face value (`faceX`/`faceY`,
+   * harmonic across an interface) or the arithmetic mean of K at the two unknowns ("arithmetic").
+   */
+  faceConductivity: "face" | "arithmetic";
+  /**
+   * Conservative form: Neumann data read as the conormal flux (K∇u)·n ("conormal") or as the normal
+   * derivative ∂u/∂n, so the flux through the face is taken as k·g ("gradient").
+   */
+  neumannData: "conormal" | "gradient";
 }
 
 /** The second-order central scheme the brief asks for. */
@@ -51,6 +68,10 @@ export const CORRECT_DISCRETIZATION: Discretization = {
   fluxDataScale: 1,
   robinBetaSign: 1,
   reactionNearBoundary: true,
+  mixedScale: 1,
+  crossSign: 1,
+  faceConductivity: "face",
+  neumannData: "conormal",
 };
 
 /** What a solve reports: values (x fastest unless a defect says otherwise) and its history. */
@@ -206,6 +227,31 @@ export const DEFECTS = {
     description: "Neumann and Robin data g enter the flux term with half their value",
     place: "the Neumann and Robin sides",
     discretization: { fluxDataScale: 0.5 },
+  },
+  "mixed-term-halved": {
+    description: "the mixed term m·u_xy enters with half its coefficient (the factor 2 of the " +
+      "four-corner difference 1/(4·hx·hy) counted twice)",
+    place: "the mixed-derivative term (m·u_xy)",
+    discretization: { mixedScale: 0.5 },
+  },
+  "face-arithmetic-mean": {
+    description: "conservative form: the conductivity at a face between two unknowns is the " +
+      "arithmetic mean of K at those two points instead of the face value (harmonic across a jump); " +
+      "invisible while K is smooth",
+    place: "the conductivity at the faces (arithmetic instead of harmonic averaging)",
+    discretization: { faceConductivity: "arithmetic" },
+  },
+  "cross-diffusion-sign": {
+    description: "conservative form: k12 enters the cross fluxes k12·u_y (x-faces) and k12·u_x " +
+      "(y-faces) with the wrong sign; invisible on isotropic and axis-aligned cases",
+    place: "the cross-diffusion terms (k12)",
+    discretization: { crossSign: -1 },
+  },
+  "neumann-gradient-data": {
+    description: "conservative form: Neumann data g is read as ∂u/∂n, so the flux through the " +
+      "side is taken as k·g instead of g (the conormal flux (K∇u)·n)",
+    place: "the Neumann sides (their data is the conormal flux)",
+    discretization: { neumannData: "gradient" },
   },
 } as const satisfies Record<string, Defect>;
 

@@ -4,7 +4,7 @@
  *
  * @module
  */
-import { type LinearSystem, residualNorm, SLOTS } from "./system.ts";
+import { type LinearSystem, residualNorm } from "./system.ts";
 
 /** Stopping rule of {@link gaussSeidel}. */
 export interface SweepStop {
@@ -40,7 +40,7 @@ export interface SweepResult {
  * ```
  */
 export function gaussSeidel(system: LinearSystem, stop: SweepStop): SweepResult {
-  const { n, cols, vals, rhs } = system;
+  const { n, cols, vals, rhs, slots } = system;
   const u = new Float64Array(n);
   const r0 = residualNorm(system, u);
   const history = [r0];
@@ -50,8 +50,8 @@ export function gaussSeidel(system: LinearSystem, stop: SweepStop): SweepResult 
     for (let i = 0; i < n; i++) {
       let s = rhs[i];
       let diag = 0;
-      const base = i * SLOTS;
-      for (let t = 0; t < SLOTS; t++) {
+      const base = i * slots;
+      for (let t = 0; t < slots; t++) {
         const c = cols[base + t];
         if (c === i) diag = vals[base + t];
         else if (c >= 0) s -= vals[base + t] * u[c];

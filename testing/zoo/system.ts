@@ -1,31 +1,34 @@
 /**
- * The zoo's linear system: at most five entries per row in fixed slots (x fastest ordering), with
- * its residual norm.
+ * The zoo's linear system: a fixed number of entries per row in slots (five for the five-point
+ * stencils, nine for stencils with cross terms; x fastest ordering), with its residual norm.
  *
  * @module
  */
 
-/** Entries per row: centre and four neighbours. */
+/** Default entries per row: centre and four neighbours. */
 export const SLOTS = 5;
 
 /**
- * A sparse system A·u = rhs with up to {@link SLOTS} entries per row; unused slots have column −1.
+ * A sparse system A·u = rhs with up to `slots` entries per row; unused slots have column −1.
  * `bandwidth` bounds |column − row| over all entries.
  */
 export interface LinearSystem {
   n: number;
+  /** Entries per row (row r owns slots r·slots … r·slots + slots − 1). */
+  slots: number;
   cols: Int32Array;
   vals: Float64Array;
   rhs: Float64Array;
   bandwidth: number;
 }
 
-/** An empty system of n rows with the given bandwidth. */
-export function emptySystem(n: number, bandwidth: number): LinearSystem {
+/** An empty system of n rows with the given bandwidth and entries per row (default {@link SLOTS}). */
+export function emptySystem(n: number, bandwidth: number, slots: number = SLOTS): LinearSystem {
   return {
     n,
-    cols: new Int32Array(n * SLOTS).fill(-1),
-    vals: new Float64Array(n * SLOTS),
+    slots,
+    cols: new Int32Array(n * slots).fill(-1),
+    vals: new Float64Array(n * slots),
     rhs: new Float64Array(n),
     bandwidth,
   };
@@ -34,11 +37,12 @@ export function emptySystem(n: number, bandwidth: number): LinearSystem {
 /**
  * Adds `value` to entry (row, col), merging with an entry already in that column.
  *
- * @throws {RangeError} when the row already holds five other columns (an assembly bug)
+ * @throws {RangeError} when the row already holds `slots` other columns (an assembly bug)
  */
 export function addEntry(system: LinearSystem, row: number, col: number, value: number): void {
-  const base = row * SLOTS;
-  for (let s = 0; s < SLOTS; s++) {
+  const { slots } = system;
+  const base = row * slots;
+  for (let s = 0; s < slots; s++) {
     const c = system.cols[base + s];
     if (c === col) {
       system.vals[base + s] += value;
@@ -66,12 +70,12 @@ export function addEntry(system: LinearSystem, row: number, col: number, value: 
  * ```
  */
 export function residualNorm(system: LinearSystem, u: Float64Array): number {
-  const { n, cols, vals, rhs } = system;
+  const { n, cols, vals, rhs, slots } = system;
   let sum = 0;
   for (let i = 0; i < n; i++) {
     let r = rhs[i];
-    const base = i * SLOTS;
-    for (let s = 0; s < SLOTS; s++) {
+    const base = i * slots;
+    for (let s = 0; s < slots; s++) {
       const c = cols[base + s];
       if (c >= 0) r -= vals[base + s] * u[c];
     }

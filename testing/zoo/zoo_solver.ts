@@ -1,7 +1,8 @@
 /**
  * The defect-zoo solver: an in-process {@link Solver} that assembles the case's operator itself
- * (second-order central differences on vertex or cell grids), optionally with one seeded defect,
- * and solves the system directly.
+ * (second-order central differences for the non-conservative form, finite volumes for the
+ * conservative form, on vertex or cell grids), optionally with one seeded defect, and solves the
+ * system directly.
  *
  * @module
  */
@@ -13,6 +14,11 @@ import {
   type SolveTask,
 } from "../../harness/solvers/mod.ts";
 import { assembleCell, assembleVertex } from "./assemble.ts";
+import {
+  assembleConservativeCell,
+  assembleConservativeVertex,
+  conservativeDeclines,
+} from "./assemble_conservative.ts";
 import { solveBanded } from "./banded.ts";
 import {
   CORRECT_DISCRETIZATION,
@@ -35,10 +41,12 @@ export interface ZooSolverOptions {
 }
 
 /**
- * Makes a zoo solver. Each solve assembles the five-point central scheme from the case's
+ * Makes a zoo solver. Each solve assembles the central scheme (non-conservative form) or the
+ * finite-volume scheme (conservative form, `assemble_conservative.ts`) from the case's
  * coefficients, source and boundary data (never its exact solution), solves it by banded Gaussian
  * elimination and reports the residual history [‖f‖, ‖f − A·u‖] with one iteration, unless the
- * defect rewrites the outcome. Upwind tasks are not applicable; a singular system is `failed`.
+ * defect rewrites the outcome. Upwind tasks, and conservative cases the finite-volume scheme
+ * declines (k12 ≠ 0 with a flux side), are not applicable; a singular system is `failed`.
  *
  * @param options layout, defect and name
  * @returns the solver
@@ -74,7 +82,9 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
   const disc: Discretization = { ...CORRECT_DISCRETIZATION, ...defect?.discretization };
   const name = options.name ?? ["zoo", layout, options.defect].filter(Boolean).join("-");
   const description = { solver: "zoo", layout, defect: options.defect ?? null };
-  const assemble = layout === "vertex" ? assembleVertex : assembleCell;
+  const vertex = layout === "vertex";
+  const assembleGeneral = vertex ? assembleVertex : assembleCell;
+  const assembleConservative = vertex ? assembleConservativeVertex : assembleConservativeCell;
   return {
     info: { name, kind: "external", layout, scheme: "central", description },
     solve(task: SolveTask): Promise<SolveOutcome> {
@@ -89,7 +99,16 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
           { seconds: seconds(), description },
         ));
       }
+      const conservative = task.case.form === "conservative";
+      const declined = conservative ? conservativeDeclines(task.case) : null;
+      if (declined !== null) {
+        return Promise.resolve(emptyOutcome("not-applicable", declined, grid, {
+          seconds: seconds(),
+          description,
+        }));
+      }
       try {
+        const assemble = conservative ? assembleConservative : assembleGeneral;
         const system = assemble(task.case, task.nx, task.ny, disc);
         const { u, pivoted } = solveBanded(system);
         const direct: Finished = {
@@ -101,7 +120,6 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
           iterations: 1,
           converged: true,
         };
-        const vertex = layout === "vertex";
         const finished = defect?.finish?.({
           system,
           direct,

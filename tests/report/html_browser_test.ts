@@ -1,11 +1,14 @@
 /**
  * Opens the HTML report in headless Chromium (Debian's `chromium`) over the DevTools protocol,
  * checks that it loads with no console message, exception or dialog, that every expected plot is
- * present, and that markup in the result stays text; saves screenshots to tests/artifacts/.
+ * present, that markup in the result stays text, that no table overflows at 1400 px and that the
+ * printed PDF holds every column header of the GCI audit; saves screenshots to tests/artifacts/.
  */
 import assert from "node:assert/strict";
 import { renderHtml, reportPlots } from "../../harness/report/mod.ts";
 import { HOSTILE_TEXT, makeFixtureResult } from "../../testdata/report/fixture.ts";
+import { GCI_HEADERS } from "../../harness/report/html.ts";
+import { pdfPageTexts } from "./_pdf_text.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
 const ARTIFACTS = new URL("../artifacts/", import.meta.url);
@@ -125,10 +128,26 @@ function timeout<T>(promise: Promise<T>, seconds: number, what: string): Promise
 interface PageReport {
   events: Event[];
   page: Record<string, unknown>;
+  /** The page printed to PDF (A4, the report's print style sheet), when asked for. */
+  pdf?: Uint8Array;
+}
+
+/** How to open a page: the window width, and whether to print it to PDF too. */
+interface OpenOptions {
+  /** Window width in CSS pixels. Default 1280. */
+  width?: number;
+  /** Also print the page to PDF. Default false. */
+  print?: boolean;
 }
 
 /** Loads a file in a fresh headless Chromium, evaluates `probe` and saves screenshots. */
-async function openInChromium(file: string, probe: string, shot?: string): Promise<PageReport> {
+async function openInChromium(
+  file: string,
+  probe: string,
+  shot?: string,
+  options: OpenOptions = {},
+): Promise<PageReport> {
+  const width = options.width ?? 1280;
   const profile = await Deno.makeTempDir({ prefix: "gridproof-chromium-" });
   const flags = [
     "--headless",
@@ -168,7 +187,7 @@ async function openInChromium(file: string, probe: string, shot?: string): Promi
     await devtools.send("Log.enable");
     await devtools.send("Page.enable");
     await devtools.send("Emulation.setDeviceMetricsOverride", {
-      width: 1280,
+      width,
       height: 1800,
       deviceScaleFactor: 1,
       mobile: false,
@@ -190,13 +209,24 @@ async function openInChromium(file: string, probe: string, shot?: string): Promi
       const full = await devtools.send("Page.captureScreenshot", {
         format: "png",
         captureBeyondViewport: true,
-        clip: { x: 0, y: 0, width: 1280, height: Math.ceil(size.height), scale: 1 },
+        clip: { x: 0, y: 0, width, height: Math.ceil(size.height), scale: 1 },
       });
       await Deno.writeFile(new URL(`${shot}-full.png`, ARTIFACTS), decode(full.data as string));
     }
+    let pdf: Uint8Array | undefined;
+    if (options.print) {
+      // the page's own @page rule sets A4; headers and footers off as `--format pdf` has them
+      const printed = await timeout(
+        devtools.send("Page.printToPDF", { preferCSSPageSize: true, displayHeaderFooter: false }),
+        60,
+        "the report to print",
+      );
+      pdf = decode(printed.data as string);
+      if (shot) await Deno.writeFile(new URL(`${shot}.pdf`, ARTIFACTS), pdf);
+    }
     devtools.session = undefined;
     await devtools.send("Browser.close").catch(() => undefined);
-    return { events: devtools.events, page: value };
+    return { events: devtools.events, page: value, ...(pdf ? { pdf } : {}) };
   } finally {
     await devtools.close();
     try {
@@ -262,7 +292,16 @@ Deno.test({
       }
       // labelled axes and legends
       const errors = plots.find((p) => p.kind === "errors")!;
-      for (const label of ["grid spacing h", "error", "solver", "norm", "expected order 2"]) {
+      for (
+        const label of [
+          "grid spacing h",
+          "error",
+          "solver (colour)",
+          "norm (line and mark)",
+          "slope 2 (expected)",
+          "slope 1",
+        ]
+      ) {
         assert.ok(errors.texts.includes(label), `error plot shows "${label}"`);
       }
       const cost = plots.find((p) => p.kind === "cost")!;
@@ -295,6 +334,66 @@ Deno.test({
       assert.equal(page.images, 0);
       assert.equal(page.heading, `poisson-sine — Poisson with a sine solution ${HOSTILE_TEXT}`);
       assert.equal((page.plots as unknown[]).length, 8, "a stray </svg> closed no plot early");
+    } finally {
+      await Deno.remove(dir, { recursive: true });
+    }
+  },
+});
+
+/** Every table wider than its box or than the window, and the page's own horizontal overflow. */
+const LAYOUT_PROBE = `(() => {
+  // the window less its vertical scroll bar
+  const view = document.documentElement.clientWidth;
+  const tables = [...document.querySelectorAll("table")];
+  return {
+    view,
+    window: window.innerWidth,
+    pageWidth: document.documentElement.scrollWidth,
+    tables: tables.length,
+    overflowing: tables
+      .filter((t) => t.scrollWidth > t.clientWidth + 1 || t.getBoundingClientRect().right > view + 1)
+      .map((t) => (t.querySelector("th")?.textContent ?? "?") + " (" + Math.round(t.scrollWidth) + " px)"),
+    scrolled: [...document.querySelectorAll("*")]
+      .filter((e) => e.scrollWidth > e.clientWidth + 1 && getComputedStyle(e).overflowX !== "visible")
+      .map((e) => e.tagName.toLowerCase() + "." + e.className),
+  };
+})()`;
+
+Deno.test({
+  name:
+    "at 1400 px no table overflows, and the printed PDF holds every GCI column header (skipped without chromium)",
+  ignore: !available,
+  sanitizeResources: false,
+  sanitizeOps: false,
+  async fn() {
+    const result = makeFixtureResult();
+    const dir = await Deno.makeTempDir();
+    try {
+      const file = `${dir}/report.html`;
+      await Deno.writeTextFile(file, await renderHtml(result));
+      const { events, page, pdf } = await openInChromium(file, LAYOUT_PROBE, "report-1400", {
+        width: 1400,
+        print: true,
+      });
+      assert.deepEqual(problems(events), []);
+      assert.equal(page.window, 1400);
+      assert.ok((page.tables as number) >= 8, `the report has its tables (${page.tables})`);
+      assert.deepEqual(page.overflowing, [], "every table fits its box at 1400 px");
+      assert.deepEqual(page.scrolled, [], "nothing hides content behind a scroll bar");
+      assert.ok(
+        (page.pageWidth as number) <= (page.view as number),
+        `the page is ${page.pageWidth} px wide in a ${page.view} px view`,
+      );
+      const pages = await pdfPageTexts(pdf!);
+      assert.ok(pages.length >= 2, `${pages.length} pages`);
+      // Chromium's fonts set "fi" as a ligature; NFKC turns it back into two letters
+      const text = pages.join("").normalize("NFKC").replace(/\s/g, "");
+      for (const header of GCI_HEADERS) {
+        assert.ok(
+          text.includes(header.replace(/\s/g, "")),
+          `the printed GCI audit shows "${header}"`,
+        );
+      }
     } finally {
       await Deno.remove(dir, { recursive: true });
     }

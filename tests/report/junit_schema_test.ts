@@ -91,7 +91,7 @@ Deno.test({
       const failing = r.studies.flatMap((s) => s.verdicts).find((v) => v.status === "fail")!;
       const got = await xmllint([
         "--xpath",
-        `string(//testsuite[@name="${failing.caseId} · ${failing.solver}"]/testcase[@name="${failing.criterion}"]/failure/@message)`,
+        `string(//testsuite[@name="${failing.caseId} · ${failing.solver}"]/testcase[@name="${failing.criterion} (max norm, all points)"]/failure/@message)`,
         file,
       ]);
       // xmllint ends its output with one newline of its own

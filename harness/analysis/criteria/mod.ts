@@ -24,6 +24,8 @@ export type {
   JudgeOptions,
   NormName,
   OrderExpectation,
+  RankComparison,
   Strictness,
   StudyInput,
 } from "./types.ts";
+export { RANK_ROUNDOFF, RANK_SAFETY } from "./rank_invariance.ts";

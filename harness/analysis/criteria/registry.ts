@@ -6,6 +6,7 @@ import { imposedData } from "./imposed_data.ts";
 import { iterativeError } from "./iterative_error.ts";
 import { order } from "./order.ts";
 import { pointOrder } from "./point_order.ts";
+import { rankInvariance } from "./rank_invariance.ts";
 import type { Criterion } from "./types.ts";
 
 /**
@@ -23,4 +24,5 @@ export const CRITERIA: readonly Criterion[] = [
   exactness,
   flatIterations,
   asymptoticRange,
+  rankInvariance,
 ];

@@ -2,6 +2,7 @@ import type {
   NormSet,
   OrderRecord,
   QuantityRecord,
+  RankComparison,
   Region,
   ScalingRecord,
   SideName,
@@ -41,6 +42,8 @@ export interface StudyInput {
   scaling: ScalingRecord;
   /** Per place: max error per grid and finest pairwise order. */
   places?: StudyRecord["places"];
+  /** Solutions of one grid at two rank counts, compared (solvers with a rank-count check). */
+  rankChecks?: RankComparison[];
 }
 
 /** How strictly an advisory criterion is judged. */
@@ -105,3 +108,5 @@ export interface Criterion {
   precondition?: boolean;
   judge(context: JudgeContext): Finding[];
 }
+
+export type { RankComparison };
