@@ -35,7 +35,7 @@ Deno.test("the npm script grants exactly the permissions the table explains", ()
   assert.deepEqual(CLI_PERMISSIONS.map((flag) => flag.slice("--allow-".length)).sort(), granted);
 });
 
-for (const command of ["cases show", "solve", "report", "probe", "check"]) {
+for (const command of ["cases show", "cases export", "solve", "report", "probe", "check"]) {
   Deno.test(`\`${command}\` keeps only ${COMMAND_NEEDS[command].join(", ")}`, async () => {
     const states = await statesAfter(command);
     for (const name of ALL) {
