@@ -92,9 +92,10 @@ function termEdits(kase: CompiledCase): Edit[] {
 }
 
 /**
- * The operator-term variants of the conservative form: advection or reaction switched off, and
- * (without interfaces, whose flux condition involves it) the off-diagonal k12 of K. Only terms
- * given at the top level and not overridden by a region are changed.
+ * The operator-term variants of the conservative form: advection or reaction switched off, the
+ * jumps across interfaces removed, and (without interfaces, whose flux condition involves it) the
+ * off-diagonal k12 of K. Advection and reaction change only where given at the top level and not
+ * overridden by a region.
  */
 function conservativeEdits(kase: CompiledCase): Edit[] {
   const out: Edit[] = [];
@@ -126,6 +127,30 @@ function conservativeEdits(kase: CompiledCase): Edit[] {
       place: "the reaction term (σ·u)",
       edit: (f) => {
         delete f.reaction;
+      },
+    });
+  }
+  if (regions.length > 1) {
+    // Every region takes the first region's conductivity and exact solution: the interfaces stay
+    // where they are (the same grids, the same face lines) but nothing jumps across them, and
+    // u and its flux are trivially continuous. A defect that restores its order here lives in
+    // how the solver treats a jump (face averaging, the source at interface nodes).
+    const first = regions[0];
+    out.push({
+      key: "no-jump",
+      change: "the jumps are removed: every region takes the first region's conductivity and " +
+        "exact solution",
+      place: "the treatment of material interfaces (how K is averaged at faces where it jumps)",
+      edit: (f) => {
+        const conductivity = first.conductivity ?? f.conductivity;
+        const exact = first.exact ?? f.exact;
+        f.regions = (f.regions ?? []).map((r) => ({
+          ...r,
+          ...(conductivity === undefined ? {} : { conductivity: structuredClone(conductivity) }),
+          ...(exact === undefined ? {} : { exact }),
+          ...(first.advection ? { advection: { ...first.advection } } : {}),
+          ...(first.reaction === undefined ? {} : { reaction: first.reaction }),
+        }));
       },
     });
   }

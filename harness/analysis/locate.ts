@@ -148,7 +148,8 @@ export function locateDefect(
   return {
     blamed: [],
     largest: top.place,
-    text: `every place converges at about the same low order (${table}): the defect is global — ` +
+    text: `every place holding a significant share of the error converges at about the same low ` +
+      `order (${table}): the defect is global — ` +
       `the interior stencil, a coefficient or the source, or a boundary closure whose error ` +
       `pollutes the whole domain${near}; ${hint}`,
   };
