@@ -33,8 +33,9 @@ export function measureOutcome(
 ): SolveRecord {
   const { x0, x1, y0, y1 } = kase.domain;
   const area = (x1 - x0) * (y1 - y0);
-  const cells = outcome.layout === "points"
-    ? Math.max(outcome.values.length, 1)
+  // a solve without values (not applicable, failed) on its own points: the grid asked for
+  const cells = outcome.layout === "points" && outcome.values.length > 0
+    ? outcome.values.length
     : outcome.nx * outcome.ny;
   const unknowns = outcome.layout === "vertex"
     ? (outcome.nx + 1) * (outcome.ny + 1)

@@ -267,6 +267,10 @@ const PROBE = `(() => ({
   images: document.images.length,
   heading: document.querySelector("section.case h2")?.textContent ?? "",
   caution: document.querySelector(".caution")?.textContent ?? "",
+  maths: document.querySelectorAll("math").length,
+  mathWidth: document.querySelector("math")?.getBoundingClientRect().width ?? 0,
+  firstSections: [...document.querySelectorAll("main > section, main > h2")].slice(0, 3)
+    .map((e) => e.id || e.textContent),
 }))()`;
 
 Deno.test({
@@ -311,6 +315,11 @@ Deno.test({
       assert.ok(plots.find((p) => p.kind === "residuals")!.texts.includes("residual norm ‖r‖"));
       assert.equal(page.scripts, 0);
       assert.match(page.caution as string, /does not validate the physical model/);
+      // the formulas are MathML, drawn by the browser itself (no script, no web font)
+      assert.ok((page.maths as number) > 10, `${page.maths} formulas typeset`);
+      assert.ok((page.mathWidth as number) > 10, `a formula is drawn ${page.mathWidth} px wide`);
+      // the first screen: the builds, then what was found, then the overview
+      assert.deepEqual(page.firstSections, ["builds", "found", "Overview"]);
     } finally {
       await Deno.remove(dir, { recursive: true });
     }
