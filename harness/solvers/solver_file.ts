@@ -50,6 +50,13 @@ function problemText(error: ErrorObject): string {
   }
 }
 
+/** Largest solver file read (1 MiB): a solver file is a few kilobytes of JSON. */
+export const MAX_SOLVER_FILE_BYTES = 1 << 20;
+
+const NOT_REGULAR = "is not a regular file (a device, pipe, socket or process file): solver " +
+  "files must be regular files; to pass one through a pipe, save it to a file first and give " +
+  "that file's path to --solvers";
+
 /**
  * Loads and validates a solver file.
  *
@@ -70,8 +77,28 @@ export async function loadSolverFile(
 ): Promise<(ExternalSolverSpec & { solverFileDir: string })[]> {
   let text: string;
   try {
+    // a pipe would hang and a device never end: a solver file is a regular file of some kilobytes
+    const info = await Deno.stat(path);
+    if (!info.isFile) {
+      throw new InputError(
+        info.isDirectory
+          ? "is a directory, expected a solver file (.json); check the path given to --solvers"
+          : NOT_REGULAR,
+        { where: path },
+      );
+    }
+    if (info.size > MAX_SOLVER_FILE_BYTES) {
+      throw new InputError(
+        `is ${info.size} bytes, more than the ${MAX_SOLVER_FILE_BYTES} a solver file may have; ` +
+          "check that this is a solver file",
+        { where: path },
+      );
+    }
     text = await Deno.readTextFile(path);
   } catch (error) {
+    if (error instanceof InputError) throw error;
+    // Deno refuses /dev/stdin, /dev/fd/N and /proc files to anything short of --allow-all
+    if (error instanceof Deno.errors.NotCapable) throw new InputError(NOT_REGULAR, { where: path });
     throw new InputError(
       `cannot read the solver file (${
         (error as Error).message

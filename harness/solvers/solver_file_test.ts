@@ -126,3 +126,14 @@ Deno.test("loadSolverFile() reads a file that starts with a UTF-8 byte-order mar
     assert.equal(spec.name, "a");
   });
 });
+
+Deno.test("loadSolverFile() refuses a pipe or device and a folder before reading (issue 12, item 15)", async () => {
+  // /dev/null is a character device: reading it would give an empty text, a pipe would hang
+  await assert.rejects(
+    () => loadSolverFile("/dev/null"),
+    /is not a regular file .* save it to a file first/,
+  );
+  const dir = await Deno.makeTempDir();
+  await assert.rejects(() => loadSolverFile(dir), /is a directory, expected a solver file/);
+  await Deno.remove(dir);
+});
