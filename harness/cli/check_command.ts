@@ -529,7 +529,7 @@ export function summaryText(result: CampaignResult, width = 100): string {
   const widths = head.map((h, k) => Math.max(h.length, ...rows.map((r) => r[k].length)));
   const fmt = (r: string[]) => r.map((c, k) => c.padEnd(widths[k])).join("  ").trimEnd();
   lines.push(fmt(head), widths.map((w) => "─".repeat(w)).join("  "), ...rows.map(fmt));
-  lines.push("", ...foundLines(result, { width }));
+  lines.push("", ...foundLines(result, { width, reasonLines: 4 }));
   const isolated = result.studies.filter((s) => s.isolation);
   if (isolated.length > 0) {
     lines.push("", "Isolation (variants of each failing case, one ingredient changed):");

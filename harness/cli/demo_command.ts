@@ -97,7 +97,7 @@ export function unmetExpectations(result: CampaignResult): string[] {
  * isolation finding, then warnings by criterion with their reasons), then studies per solver.
  */
 export function demoSummary(result: CampaignResult, width = 100): string {
-  const lines = ["", ...foundLines(result, { width, reasonsPerWarning: 3 })];
+  const lines = ["", ...foundLines(result, { width, reasonsPerWarning: 3, reasonLines: 3 })];
   lines.push("", "Studies per solver:");
   lines.push("  solver          passed  passed with warnings  failed  not applicable");
   for (const solver of result.solvers.map((s) => s.name)) {

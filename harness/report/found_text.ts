@@ -20,6 +20,11 @@ export interface FoundOptions {
   color?: boolean;
   /** At most this many reasons shown per warning criterion (the rest counted). Default 6. */
   reasonsPerWarning?: number;
+  /**
+   * At most this many lines of each failure's reason; a longer one ends with a pointer to the
+   * full report. Default: every line.
+   */
+  reasonLines?: number;
 }
 
 const ANSI: Partial<Record<VerdictStatus, string>> = {
@@ -78,14 +83,19 @@ function word(status: VerdictStatus, color: boolean): string {
   return color && ANSI[status] ? `${ANSI[status]}${w}\x1b[0m` : w;
 }
 
-function findingLines(f: Finding, width: number, color: boolean): string[] {
+function findingLines(f: Finding, width: number, color: boolean, most = Infinity): string[] {
   const measures = f.measures.length > 0 ? ` (${measuresPhrase(f.measures)})` : "";
   const head = `${f.caseId} × ${f.solver}  ${f.criterion}${measures}`;
   const body = f.isolation ? `isolated: ${f.isolation}` : f.reason;
-  return [
-    `  ${word(f.status, color)}  ${escapeTerminal(head)}`,
-    ...wrapWords(escapeTerminal(body), width, "        "),
-  ];
+  let lines = wrapWords(escapeTerminal(body), width, "        ");
+  if (lines.length > most) {
+    lines = wrapWords(
+      lines.slice(0, most).join(" ").replace(/\s+/g, " ").trim() + " … (in full in the report)",
+      width,
+      "        ",
+    ).slice(0, most + 1);
+  }
+  return [`  ${word(f.status, color)}  ${escapeTerminal(head)}`, ...lines];
 }
 
 /**
@@ -122,7 +132,9 @@ export function foundLines(result: CampaignResult, options: FoundOptions = {}): 
   if (found.failures.length > 0) {
     const verdicts = found.failures.reduce((n, f) => n + f.verdicts.length, 0);
     out.push("", `Failed (${found.failures.length}, from ${verdicts} failing verdicts):`);
-    for (const f of found.failures) out.push(...findingLines(f, width, color));
+    for (const f of found.failures) {
+      out.push(...findingLines(f, width, color, options.reasonLines));
+    }
   }
   if (found.undecided.length > 0) {
     out.push(
@@ -130,7 +142,9 @@ export function foundLines(result: CampaignResult, options: FoundOptions = {}): 
       `Undecided (${found.undecided.length}; the evidence does not decide — refine further or ` +
         `fix what blocks it):`,
     );
-    for (const f of found.undecided) out.push(...findingLines(f, width, color));
+    for (const f of found.undecided) {
+      out.push(...findingLines(f, width, color, options.reasonLines));
+    }
   }
   if (found.warnings.length > 0) {
     const total = found.warnings.reduce((n, g) => n + g.count, 0);

@@ -50,8 +50,8 @@ Deno.test("gridproof check refuses bad flags with exit code 2 and says what to f
     [["--jobz", "2"], /unknown option '--jobz'[\s\S]*Did you mean --jobs\?[\s\S]*--jobs <n>/],
     [["--solver", "nobody"], /unknown solver "nobody": valid names are reference/],
     [
-      ["--format", "pdf", "--cases", "quadratic-exact", "--grids", "8,16"],
-      /unknown report format "pdf"/,
+      ["--format", "docx", "--cases", "quadratic-exact", "--grids", "8,16"],
+      /unknown report format "docx"/,
     ],
     // issue 12, item 12: before, these ran and exited 1 with FAIL verdicts
     [
