@@ -59,9 +59,11 @@ Deno.test(
     assert.equal(result.studies.length, libraryIds().length * solvers.length);
     // the only studies not judged: a version-1 solver on a case it cannot be sent
     const skipped = result.studies.flatMap((
-      s: { caseId: string; solver: string; verdicts: { status: string }[] },
+      s: { caseId: string; solver: string; verdicts: { status: string; criterion: string }[] },
     ) =>
-      s.verdicts.some((v) => v.status === "not-applicable") ? [`${s.caseId} × ${s.solver}`] : []
+      s.verdicts.some((v) => v.criterion === "applicability" && v.status === "not-applicable")
+        ? [`${s.caseId} × ${s.solver}`]
+        : []
     );
     const expected = result.studies.flatMap((s: { caseId: string; solver: string }) =>
       VERSION_1.has(s.solver) && NEEDS_VERSION_2.has(s.caseId) ? [`${s.caseId} × ${s.solver}`] : []
