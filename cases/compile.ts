@@ -68,8 +68,11 @@ const CALLS: Readonly<Record<string, (args: string[]) => string>> = {
   hypot: (a) => `Math.hypot(${a.join(", ")})`,
 };
 
-/** Numeric versions of {@link CALLS}, for folding constant subtrees at compile time. */
-const NUMERIC: Readonly<Record<string, (a: number[]) => number>> = {
+/**
+ * Numeric versions of {@link CALLS}, for folding constant subtrees at compile time (the code
+ * exporters fold with the same table, so exported and compiled values agree).
+ */
+export const NUMERIC: Readonly<Record<string, (a: number[]) => number>> = {
   sin: (a) => Math.sin(a[0]),
   cos: (a) => Math.cos(a[0]),
   tan: (a) => Math.tan(a[0]),

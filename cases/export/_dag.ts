@@ -9,6 +9,7 @@
  * @module
  */
 import type { Expr } from "../expression.ts";
+import { NUMERIC } from "../compile.ts";
 
 /** How one language spells what the expression trees contain. */
 export interface Spelling {
@@ -37,35 +38,8 @@ interface Node {
   intPower: number;
 }
 
-/** The numeric meaning of each whitelisted function, as the engine's compiler folds it. */
-const FOLD: Readonly<Record<string, (a: number[]) => number>> = {
-  sin: (a) => Math.sin(a[0]),
-  cos: (a) => Math.cos(a[0]),
-  tan: (a) => Math.tan(a[0]),
-  sec: (a) => 1 / Math.cos(a[0]),
-  csc: (a) => 1 / Math.sin(a[0]),
-  cot: (a) => 1 / Math.tan(a[0]),
-  asin: (a) => Math.asin(a[0]),
-  acos: (a) => Math.acos(a[0]),
-  atan: (a) => Math.atan(a[0]),
-  atan2: (a) => Math.atan2(a[0], a[1]),
-  sinh: (a) => Math.sinh(a[0]),
-  cosh: (a) => Math.cosh(a[0]),
-  tanh: (a) => Math.tanh(a[0]),
-  sech: (a) => 1 / Math.cosh(a[0]),
-  csch: (a) => 1 / Math.sinh(a[0]),
-  coth: (a) => 1 / Math.tanh(a[0]),
-  exp: (a) => Math.exp(a[0]),
-  log: (a) => a.length === 1 ? Math.log(a[0]) : Math.log(a[0]) / Math.log(a[1]),
-  log10: (a) => Math.log10(a[0]),
-  sqrt: (a) => Math.sqrt(a[0]),
-  cbrt: (a) => Math.cbrt(a[0]),
-  abs: (a) => Math.abs(a[0]),
-  sign: (a) => Math.sign(a[0]),
-  min: (a) => Math.min(...a),
-  max: (a) => Math.max(...a),
-  hypot: (a) => Math.hypot(...a),
-};
+/** The numeric meaning of each whitelisted function: the engine's compiler's own folding table. */
+const FOLD = NUMERIC;
 
 /** Names of the functions an emitter must spell. */
 export const EXPORTED_FUNCTIONS: readonly string[] = Object.keys(FOLD);
