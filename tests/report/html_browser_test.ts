@@ -274,7 +274,9 @@ const PROBE = `(() => ({
 }))()`;
 
 Deno.test({
-  name: "the HTML report loads in headless Chromium with no console errors and every plot drawn",
+  name: `the HTML report loads in headless Chromium with no console errors and every plot drawn${
+    available ? "" : " (skipped: Debian chromium not installed)"
+  }`,
   ignore: !available,
   sanitizeResources: false,
   sanitizeOps: false,
@@ -327,7 +329,9 @@ Deno.test({
 });
 
 Deno.test({
-  name: "markup in case titles and solver notes stays text in the browser and never runs",
+  name: `markup in case titles and solver notes stays text in the browser and never runs${
+    available ? "" : " (skipped: Debian chromium not installed)"
+  }`,
   ignore: !available,
   sanitizeResources: false,
   sanitizeOps: false,

@@ -43,7 +43,9 @@ function result() {
 }
 
 Deno.test({
-  name: "renderJunit() output validates against the JUnit XML schema",
+  name: `renderJunit() output validates against the JUnit XML schema${
+    available ? "" : " (skipped: xmllint not found, Debian libxml2-utils)"
+  }`,
   ignore: !available,
   async fn() {
     const dir = await Deno.makeTempDir();
@@ -62,7 +64,9 @@ Deno.test({
 });
 
 Deno.test({
-  name: "an independent XML parser reads back the counts and the exact failure reason",
+  name: `an independent XML parser reads back the counts and the exact failure reason${
+    available ? "" : " (skipped: xmllint not found, Debian libxml2-utils)"
+  }`,
   ignore: !available,
   async fn() {
     const r = result();
