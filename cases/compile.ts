@@ -101,7 +101,8 @@ export const NUMERIC: Readonly<Record<string, (a: number[]) => number>> = {
   hypot: (a) => Math.hypot(...a),
 };
 
-function applyOperator(op: string, v: number[]): number {
+/** The value of one operator of an {@link Expr} on numbers (constant folding; the exporters fold with it too). */
+export function applyOperator(op: string, v: number[]): number {
   switch (op) {
     case "neg":
       return -v[0];

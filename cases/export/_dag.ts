@@ -9,7 +9,7 @@
  * @module
  */
 import type { Expr } from "../expression.ts";
-import { NUMERIC } from "../compile.ts";
+import { applyOperator, NUMERIC } from "../compile.ts";
 
 /** How one language spells what the expression trees contain. */
 export interface Spelling {
@@ -44,23 +44,6 @@ const FOLD = NUMERIC;
 /** Names of the functions an emitter must spell. */
 export const EXPORTED_FUNCTIONS: readonly string[] = Object.keys(FOLD);
 
-function operate(op: string, v: number[]): number {
-  switch (op) {
-    case "neg":
-      return -v[0];
-    case "+":
-      return v.reduce((p, q) => p + q);
-    case "-":
-      return v[0] - v[1];
-    case "*":
-      return v.reduce((p, q) => p * q);
-    case "/":
-      return v[0] / v[1];
-    default:
-      return Math.pow(v[0], v[1]);
-  }
-}
-
 class Dag {
   readonly nodes: Node[] = [];
   readonly #index = new Map<string, number>();
@@ -91,7 +74,7 @@ class Dag {
     const val = (k: number) => nodes[k].value;
     if (nodes.every((n) => n.kind === "number")) {
       const values = nodes.map((n) => n.value);
-      const v = kind === "call" ? FOLD[name](values) : operate(name, values);
+      const v = kind === "call" ? FOLD[name](values) : applyOperator(name, values);
       return Number.isFinite(v) ? this.#number(v) : undefined;
     }
     if (kind !== "operator") return undefined;
