@@ -12,8 +12,10 @@ export type ExpressionText = string | number;
 /** One side's condition as written in a case file. */
 export interface SideSpec {
   kind: BoundaryKind;
-  alpha?: number;
-  beta?: number;
+  /** Robin weight of u: a number, or an expression in x, y and the parameters (varies along the side). */
+  alpha?: ExpressionText;
+  /** Robin weight of ∂u/∂n (the conormal flux in the conservative form); like alpha. */
+  beta?: ExpressionText;
 }
 
 /** The conservative form's conductivity: one expression (K = k·I) or a symmetric tensor. */

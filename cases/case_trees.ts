@@ -10,7 +10,9 @@ import type { MathTools } from "./_mathjs.ts";
 import type { CaseFile, ConductivityText, ExpressionText } from "./case_file.ts";
 import { parseExpression, pointAt } from "./expression.ts";
 import type { OperatorForm, OperatorTrees } from "./operator.ts";
+import type { SideTrees } from "./operator.ts";
 import { type Interfaces, regionCount } from "./regions.ts";
+import { type Side, SIDES } from "../reference-solver/mod.ts";
 
 /** One expression problem: the JSON pointer and field of the text, and what is wrong. */
 export interface TreeProblem {
@@ -27,6 +29,8 @@ export interface CaseTrees {
   interfaces: Interfaces;
   /** Per region (west to east, then south to north). */
   regions: { op: OperatorTrees; exact: MathNode }[];
+  /** Each side's kind, with the Robin weights as trees (robin sides only). */
+  sides: Record<Side, SideTrees>;
   problems: TreeProblem[];
 }
 
@@ -114,5 +118,16 @@ export function caseTrees(math: MathTools, c: CaseFile, names: readonly string[]
     };
     regions.push({ op, exact });
   }
-  return { form, interfaces, regions, problems };
+  const sides = {} as Record<Side, SideTrees>;
+  for (const side of SIDES) {
+    const spec = c.boundary[side];
+    sides[side] = spec.kind === "robin"
+      ? {
+        kind: "robin",
+        alpha: parse(`/boundary/${side}/alpha`, spec.alpha ?? 0),
+        beta: parse(`/boundary/${side}/beta`, spec.beta ?? 0),
+      }
+      : { kind: spec.kind };
+  }
+  return { form, interfaces, regions, sides, problems };
 }

@@ -3,7 +3,8 @@ import { assertClose } from "../testing/mod.ts";
 import { loadMath, mathjsEvaluator } from "./_mathjs.ts";
 import { compileExpr, compileFused, compileRowSampler, pointSource } from "./compile.ts";
 import { checkTree, parseExpression, toExpr } from "./expression.ts";
-import { deriveTrees } from "./derive.ts";
+import { caseTrees } from "./case_trees.ts";
+import { deriveRegion } from "./operator.ts";
 import { libraryFiles } from "./load.ts";
 import { mulberry32 } from "../testing/mod.ts";
 
@@ -19,12 +20,13 @@ Deno.test("compiled functions agree with mathjs evaluate to round-off on every b
     await t.step(file.id, () => {
       const params = file.parameters ?? {};
       const names = Object.keys(params);
-      const trees: Record<string, ReturnType<typeof math.parse>> = {};
-      for (const k of ["a", "b", "c", "d", "e"] as const) {
-        trees[k] = parseExpression(math, String(file.coefficients![k]), names).node!;
-      }
-      trees.exact = parseExpression(math, String(file.exact), names).node!;
-      const derived = deriveTrees(math, trees as Parameters<typeof deriveTrees>[1], file.boundary);
+      const parsed = caseTrees(math, file, names);
+      assert.deepEqual(parsed.problems, []);
+      const { op, exact } = parsed.regions[0];
+      const derived = deriveRegion(math, op, exact, parsed.sides);
+      const trees = op.form === "non-conservative"
+        ? { a: op.a, b: op.b, c: op.c, d: op.d, e: op.e, m: op.m, exact }
+        : { exact };
       const all = {
         ...trees,
         source: derived.source,

@@ -8,22 +8,7 @@
  * @module
  */
 import type { MathNode } from "mathjs";
-import type { Side } from "../reference-solver/mod.ts";
 import type { MathTools } from "./_mathjs.ts";
-import type { SideSpec } from "./case_file.ts";
-
-/** Trees derived from a case. */
-export interface DerivedTrees {
-  ux: MathNode;
-  uy: MathNode;
-  uxx: MathNode;
-  uyy: MathNode;
-  source: MathNode;
-  /** Per side, the data of its condition. */
-  boundary: Record<Side, MathNode>;
-  /** Per side, ∂u/∂n with the outward normal. */
-  normal: Record<Side, MathNode>;
-}
 
 // deno-lint-ignore no-explicit-any
 type AnyNode = any;
@@ -90,73 +75,4 @@ function isZero(node: AnyNode): boolean {
 /** True when a tree is the constant 0 (after mathjs simplification). */
 export function isZeroTree(math: MathTools, node: MathNode): boolean {
   return isZero(math.simplify(node));
-}
-
-/**
- * Derives the source term and boundary data of a case.
- *
- * @param math the engine's mathjs tools
- * @param trees checked trees of the coefficients and the exact solution
- * @param boundary the kind (and Robin weights) of each side
- * @param options `simplify`: simplify every derived tree with mathjs (slow; for display). Default: false
- * @throws {RangeError} when the exact solution uses a function that cannot be differentiated
- */
-export function deriveTrees(
-  math: MathTools,
-  trees: { a: MathNode; b: MathNode; c: MathNode; d: MathNode; e: MathNode; exact: MathNode },
-  boundary: Record<Side, SideSpec>,
-  options: { simplify?: boolean } = {},
-): DerivedTrees {
-  const { OperatorNode, ConstantNode, ParenthesisNode } = math.nodes;
-  // mathjs's simplify costs 0.1–1 s per case; the compiler folds constants and shares
-  // subexpressions itself, so by default the raw derivatives are kept and only displays simplify.
-  const tidy = options.simplify ? (n: MathNode) => math.simplify(n) : (n: MathNode) => n;
-  const derivativeOptions = { simplify: options.simplify === true };
-  const u = differentiableForm(math, trees.exact);
-  const ux = math.derivative(u, "x", derivativeOptions);
-  const uy = math.derivative(u, "y", derivativeOptions);
-  const uxx = math.derivative(ux, "x", derivativeOptions);
-  const uyy = math.derivative(uy, "y", derivativeOptions);
-  const wrap = (n: MathNode) => new ParenthesisNode(n);
-  const terms: MathNode[] = [];
-  const pairs: [MathNode, MathNode][] = [
-    [trees.a, uxx],
-    [trees.b, ux],
-    [trees.c, uyy],
-    [trees.d, uy],
-    [trees.e, trees.exact],
-  ];
-  for (const [coefficient, derivative] of pairs) {
-    if (isZero(coefficient) || isZero(derivative)) continue;
-    terms.push(new OperatorNode("*", "multiply", [wrap(coefficient), wrap(derivative)]));
-  }
-  const source = terms.length === 0
-    ? new ConstantNode(0)
-    : tidy(terms.reduce((p, q) => new OperatorNode("+", "add", [p, q])));
-  const negate = (n: MathNode) => tidy(new OperatorNode("-", "unaryMinus", [wrap(n)]));
-  const normal: Record<Side, MathNode> = {
-    west: negate(ux),
-    east: ux,
-    south: negate(uy),
-    north: uy,
-  };
-  const data = {} as Record<Side, MathNode>;
-  for (const side of ["west", "east", "south", "north"] as const) {
-    const spec = boundary[side];
-    if (spec.kind === "dirichlet") data[side] = trees.exact;
-    else if (spec.kind === "neumann") data[side] = normal[side];
-    else {
-      const alpha = spec.alpha ?? 0;
-      const beta = spec.beta ?? 0;
-      const parts: MathNode[] = [];
-      if (alpha !== 0) {
-        parts.push(new OperatorNode("*", "multiply", [new ConstantNode(alpha), wrap(trees.exact)]));
-      }
-      if (beta !== 0) {
-        parts.push(new OperatorNode("*", "multiply", [new ConstantNode(beta), wrap(normal[side])]));
-      }
-      data[side] = tidy(parts.reduce((p, q) => new OperatorNode("+", "add", [p, q])));
-    }
-  }
-  return { ux, uy, uxx, uyy, source, boundary: data, normal };
 }

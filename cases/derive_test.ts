@@ -82,7 +82,7 @@ Deno.test("derived source terms and boundary data agree with finite differences 
             ? c.exact(x, y)
             : b.kind === "neumann"
             ? normal[side]
-            : (b.alpha ?? 0) * c.exact(x, y) + (b.beta ?? 0) * normal[side];
+            : b.alpha!(x, y) * c.exact(x, y) + b.beta!(x, y) * normal[side];
           assertClose(b.data(x, y), want, { abs: 1e-7 * (Math.abs(want) + 1) }, `${side} data`);
         }
       }

@@ -22,6 +22,7 @@ import { faceConductivity, gridMisses, piecewiseMean } from "./regions.ts";
 import type { DomainCheckOptions, LatticeFill } from "./domain_check.ts";
 import { type Expr, involvesNoPoint, toExpr } from "./expression.ts";
 import { checkOperator, type OperatorFault } from "./operator_check.ts";
+import { checkRobinWeights } from "./robin_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import type {
   CaseBoundary,
@@ -121,7 +122,7 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
   }
   let derived: DerivedRegion[];
   try {
-    derived = trees.regions.map((r) => deriveRegion(math, r.op, r.exact, caseFile.boundary));
+    derived = trees.regions.map((r) => deriveRegion(math, r.op, r.exact, trees.sides));
   } catch (error) {
     throw collected(file, [
       at(
@@ -132,8 +133,8 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
     ]);
   }
   const pureNeumann = SIDES.every((s) => {
-    const spec = caseFile.boundary[s];
-    return spec.kind === "neumann" || (spec.kind === "robin" && spec.alpha === 0);
+    const spec = trees.sides[s];
+    return spec.kind === "neumann" || (spec.kind === "robin" && isZeroTree(math, spec.alpha!));
   });
   if (pureNeumann && derived.every((d) => isZeroTree(math, d.expanded.e))) {
     const term = trees.form === "conservative" ? "reaction σ" : "coefficients.e";
@@ -165,6 +166,12 @@ function checkRegions(
 ): OperatorFault[] {
   const { compiled, regions, fill } = built;
   const faults: OperatorFault[] = [];
+  for (const side of SIDES) {
+    const b = regions[0].boundary[side];
+    if (b.kind === "robin") {
+      faults.push(...checkRobinWeights(compiled.domain, side, b.alpha!, b.beta!));
+    }
+  }
   const { x0, x1, y0, y1 } = compiled.domain;
   const xs = [x0, ...trees.interfaces.x, x1], ys = [y0, ...trees.interfaces.y, y1];
   const columns = xs.length - 1;
@@ -285,16 +292,33 @@ function assemble(
       }
       : {}),
     boundary: e.boundary,
+    robin: Object.fromEntries(
+      SIDES.flatMap((s) => {
+        const spec = trees.sides[s];
+        return spec.kind === "robin"
+          ? [[s, { alpha: expr(spec.alpha!), beta: expr(spec.beta!) }]]
+          : [];
+      }),
+    ),
   }));
   const regions: RegionFunctions[] = derived.map((d, r) => {
     const e = regionExprs[r];
     const [a, b, c, dd, ee, m] = e.coefficients.map(compileExpr);
     const boundary = {} as Record<Side, CaseBoundary>;
     for (const side of SIDES) {
-      const spec = caseFile.boundary[side];
+      const spec = trees.sides[side];
       const data = compileExpr(expr(d.boundary[side]));
       boundary[side] = spec.kind === "robin"
-        ? { kind: "robin", alpha: spec.alpha, beta: spec.beta, data }
+        ? {
+          kind: "robin",
+          alpha: compileExpr(expr(spec.alpha!)),
+          beta: compileExpr(expr(spec.beta!)),
+          weightsText: {
+            alpha: String(caseFile.boundary[side].alpha ?? 0),
+            beta: String(caseFile.boundary[side].beta ?? 0),
+          },
+          data,
+        }
         : { kind: spec.kind, data };
     }
     const mExpr = e.coefficients[5];
@@ -463,7 +487,7 @@ function assemble(
   const readable = () => {
     if (!shown) {
       const simple = trees.regions.map((r) =>
-        deriveRegion(math, r.op, r.exact, caseFile.boundary, { simplify: true })
+        deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })
       );
       shown = {
         text: formulasOf(simple, (n) => n.toString()),

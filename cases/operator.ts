@@ -19,13 +19,19 @@
  * @module
  */
 import type { MathNode } from "mathjs";
-import type { Side } from "../reference-solver/mod.ts";
+import type { BoundaryKind, Side } from "../reference-solver/mod.ts";
 import type { MathTools } from "./_mathjs.ts";
-import type { SideSpec } from "./case_file.ts";
 import { differentiableForm } from "./derive.ts";
 
 /** The operator forms, by their case-file names. */
 export type OperatorForm = "non-conservative" | "conservative";
+
+/** One side's kind, and for a Robin side its weights α and β as trees (constants or of x, y). */
+export interface SideTrees {
+  kind: BoundaryKind;
+  alpha?: MathNode;
+  beta?: MathNode;
+}
 
 /** The coefficients of the non-conservative form (`m` is the coefficient of u_xy). */
 export const GENERAL_TERMS = ["a", "b", "c", "d", "e", "m"] as const;
@@ -79,7 +85,7 @@ export function deriveRegion(
   math: MathTools,
   op: OperatorTrees,
   exact: MathNode,
-  boundary: Record<Side, SideSpec>,
+  boundary: Record<Side, SideTrees>,
   options: { simplify?: boolean } = {},
 ): DerivedRegion {
   const { OperatorNode, ConstantNode, ParenthesisNode } = math.nodes;
@@ -147,11 +153,9 @@ export function deriveRegion(
     if (spec.kind === "dirichlet") data[side] = exact;
     else if (spec.kind === "neumann") data[side] = normal[side];
     else {
-      const alpha = spec.alpha ?? 0;
-      const beta = spec.beta ?? 0;
       data[side] = tidy(sum([
-        alpha === 0 ? null : times(new ConstantNode(alpha), exact),
-        beta === 0 ? null : times(new ConstantNode(beta), normal[side]),
+        times(spec.alpha ?? new ConstantNode(0), exact),
+        times(spec.beta ?? new ConstantNode(0), normal[side]),
       ]));
     }
   }

@@ -3,12 +3,12 @@ import { loadMath } from "./_mathjs.ts";
 import { compileExpr } from "./compile.ts";
 import { parseExpression, toExpr } from "./expression.ts";
 import { deriveRegion, type OperatorTrees } from "./operator.ts";
-import type { SideSpec } from "./case_file.ts";
+import type { SideTrees } from "./operator.ts";
 
 const math = await loadMath();
 const tree = (text: string) => parseExpression(math, text, []).node!;
 const fn = (node: Parameters<typeof toExpr>[0]) => compileExpr(toExpr(node, {}));
-const dirichlet: SideSpec = { kind: "dirichlet" };
+const dirichlet: SideTrees = { kind: "dirichlet" };
 const allDirichlet = { west: dirichlet, east: dirichlet, south: dirichlet, north: dirichlet };
 const { PI, sin, cos } = Math;
 

@@ -91,7 +91,12 @@ function boundaryConditions(
     const b = spec.boundary[side];
     const values = sampleSide(b.data, side, spec.domain, nx, ny);
     out[side] = b.kind === "robin"
-      ? { kind: "robin", alpha: b.alpha ?? 0, beta: b.beta ?? 0, values }
+      ? {
+        kind: "robin",
+        alpha: sampleSide(b.alpha!, side, spec.domain, nx, ny),
+        beta: sampleSide(b.beta!, side, spec.domain, nx, ny),
+        values,
+      }
       : { kind: b.kind, values };
   }
   return out;

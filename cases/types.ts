@@ -68,10 +68,12 @@ export interface ExpectedOrder {
 /** One side's boundary condition of a compiled case, with its derived data as a point function. */
 export interface CaseBoundary {
   kind: BoundaryKind;
-  /** Robin α (only for robin). */
-  alpha?: number;
-  /** Robin β (only for robin). */
-  beta?: number;
+  /** Robin α(x, y) (only for robin): constant, or varying along the side. */
+  alpha?: PointFn;
+  /** Robin β(x, y) (only for robin); either 0 along the whole side or of one strict sign. */
+  beta?: PointFn;
+  /** α and β as the case file gives them (only for robin), for reports and messages. */
+  weightsText?: { alpha: string; beta: string };
   /** Boundary data g(x, y): u for dirichlet, ∂u/∂n for neumann, α·u + β·∂u/∂n for robin. */
   data: PointFn;
 }
@@ -133,6 +135,8 @@ export interface RegionExpressions {
   conservative?: Record<"k11" | "k12" | "k22" | "bx" | "by" | "sigma", Expr>;
   /** The boundary data of each side (u, the normal flux, or α·u + β·normal flux). */
   boundary: Record<Side, Expr>;
+  /** The Robin weights α and β of each Robin side (the same in every region). */
+  robin: Partial<Record<Side, { alpha: Expr; beta: Expr }>>;
 }
 
 /** A case ready to sample onto any grid. */

@@ -3,7 +3,13 @@
  *
  * @module
  */
-import type { BoundaryCondition, Domain, Problem, Side } from "./problem.ts";
+import {
+  type BoundaryCondition,
+  type Domain,
+  type Problem,
+  robinCondition,
+  type Side,
+} from "./problem.ts";
 
 /** A scalar function of (x, y). */
 export type Fn = (x: number, y: number) => number;
@@ -96,7 +102,7 @@ export function manufactured(
     }
     if (spec === "dirichlet") return { kind: "dirichlet", values };
     if (spec === "neumann") return { kind: "neumann", values };
-    return { kind: "robin", alpha: spec.alpha, beta: spec.beta, values };
+    return robinCondition(spec.alpha, spec.beta, values);
   };
   return {
     domain,

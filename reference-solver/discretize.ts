@@ -66,13 +66,24 @@ function allZero(v: Float64Array): boolean {
 }
 
 function dirichletValue(bc: BoundaryCondition, k: number): number {
-  return bc.kind === "robin" ? bc.values[k] / bc.alpha : bc.values[k];
+  return bc.kind === "robin" ? bc.values[k] / bc.alpha[k] : bc.values[k];
 }
 
-/** α/β and 1/β of a ghost side (Neumann: α = 0, β = 1). */
-function ghostData(bc: BoundaryCondition): { alpha: number; beta: number } {
-  return bc.kind === "robin" ? { alpha: bc.alpha, beta: bc.beta } : { alpha: 0, beta: 1 };
+const NO_WEIGHT = new Float64Array(0);
+
+/** α and β per node of a ghost side (Neumann: α = 0, β = 1 everywhere, `uniform` true). */
+function ghostData(
+  bc: BoundaryCondition,
+): { alpha: Float64Array; beta: Float64Array; uniform: boolean } {
+  return bc.kind === "robin"
+    ? { alpha: bc.alpha, beta: bc.beta, uniform: false }
+    : { alpha: NO_WEIGHT, beta: NO_WEIGHT, uniform: true };
 }
+
+/** α at position k of a ghost side. */
+const alphaAt = (g: ReturnType<typeof ghostData>, k: number) => g.uniform ? 0 : g.alpha[k];
+/** β at position k of a ghost side. */
+const betaAt = (g: ReturnType<typeof ghostData>, k: number) => g.uniform ? 1 : g.beta[k];
 
 /**
  * Builds the stencil arrays and right-hand side of a (validated) problem, per the module doc; a
@@ -156,18 +167,18 @@ export function discretize(problem: Problem, upwind = false): Discretization {
     let r = f[q];
     // Ghost elimination: u_ghost = u_opposite + (2h/β)·(g − α·u), coefficient K folded in.
     if (i === 0) {
-      const g = 2 * hx / gW.beta;
-      ea += w, cen -= w * g * gW.alpha, r -= w * g * west.values[j], w = 0;
+      const g = 2 * hx / betaAt(gW, j);
+      ea += w, cen -= w * g * alphaAt(gW, j), r -= w * g * west.values[j], w = 0;
     } else if (i === nx) {
-      const g = 2 * hx / gE.beta;
-      w += ea, cen -= ea * g * gE.alpha, r -= ea * g * east.values[j], ea = 0;
+      const g = 2 * hx / betaAt(gE, j);
+      w += ea, cen -= ea * g * alphaAt(gE, j), r -= ea * g * east.values[j], ea = 0;
     }
     if (j === 0) {
-      const g = 2 * hy / gS.beta;
-      n += s, cen -= s * g * gS.alpha, r -= s * g * south.values[i], s = 0;
+      const g = 2 * hy / betaAt(gS, i);
+      n += s, cen -= s * g * alphaAt(gS, i), r -= s * g * south.values[i], s = 0;
     } else if (j === ny) {
-      const g = 2 * hy / gN.beta;
-      s += n, cen -= n * g * gN.alpha, r -= n * g * north.values[i], n = 0;
+      const g = 2 * hy / betaAt(gN, i);
+      s += n, cen -= n * g * alphaAt(gN, i), r -= n * g * north.values[i], n = 0;
     }
     W[k] = w, E[k] = ea, S[k] = s, N[k] = n, C[k] = cen, invC[k] = 1 / cen;
     rhs[k] = r;
@@ -240,53 +251,47 @@ function mixedCorners(
     mirror: Float64Array,
     mk: number,
     neighbour: Float64Array,
-    g: number,
+    side: "west" | "east" | "south" | "north",
+    at: number,
     h2: number,
-    alpha: number,
-    beta: number,
   ) => {
+    const bc = boundary[side];
+    const alpha = bc.kind === "robin" ? bc.alpha[at] : 0,
+      beta = bc.kind === "robin" ? bc.beta[at] : 1;
     mirror[mk] += K;
     neighbour[k] -= K * h2 * alpha / beta;
-    rhs[k] -= K * h2 * g / beta;
-  };
-  const ab = (side: "west" | "east" | "south" | "north") => {
-    const bc = boundary[side];
-    return bc.kind === "robin" ? [bc.alpha, bc.beta] : [0, 1];
+    rhs[k] -= K * h2 * bc.values[at] / beta;
   };
   if (!isDirichletLike(boundary.west)) {
-    const [al, be] = ab("west"), g = boundary.west.values;
     for (let j = 0; j <= ny; j++) {
       const k = (j + 1) * s + 1;
       if (isDir[k]) continue;
-      if (NW[k] !== 0) fold(k, NW[k], NE, k, N, g[j + 1], 2 * hx, al, be), NW[k] = 0;
-      if (SW[k] !== 0) fold(k, SW[k], SE, k, S, g[j - 1], 2 * hx, al, be), SW[k] = 0;
+      if (NW[k] !== 0) fold(k, NW[k], NE, k, N, "west", j + 1, 2 * hx), NW[k] = 0;
+      if (SW[k] !== 0) fold(k, SW[k], SE, k, S, "west", j - 1, 2 * hx), SW[k] = 0;
     }
   }
   if (!isDirichletLike(boundary.east)) {
-    const [al, be] = ab("east"), g = boundary.east.values;
     for (let j = 0; j <= ny; j++) {
       const k = (j + 1) * s + nx + 1;
       if (isDir[k]) continue;
-      if (NE[k] !== 0) fold(k, NE[k], NW, k, N, g[j + 1], 2 * hx, al, be), NE[k] = 0;
-      if (SE[k] !== 0) fold(k, SE[k], SW, k, S, g[j - 1], 2 * hx, al, be), SE[k] = 0;
+      if (NE[k] !== 0) fold(k, NE[k], NW, k, N, "east", j + 1, 2 * hx), NE[k] = 0;
+      if (SE[k] !== 0) fold(k, SE[k], SW, k, S, "east", j - 1, 2 * hx), SE[k] = 0;
     }
   }
   if (!isDirichletLike(boundary.south)) {
-    const [al, be] = ab("south"), g = boundary.south.values;
     for (let i = 0; i <= nx; i++) {
       const k = s + i + 1;
       if (isDir[k]) continue;
-      if (SW[k] !== 0) fold(k, SW[k], NW, k, W, g[i - 1], 2 * hy, al, be), SW[k] = 0;
-      if (SE[k] !== 0) fold(k, SE[k], NE, k, E, g[i + 1], 2 * hy, al, be), SE[k] = 0;
+      if (SW[k] !== 0) fold(k, SW[k], NW, k, W, "south", i - 1, 2 * hy), SW[k] = 0;
+      if (SE[k] !== 0) fold(k, SE[k], NE, k, E, "south", i + 1, 2 * hy), SE[k] = 0;
     }
   }
   if (!isDirichletLike(boundary.north)) {
-    const [al, be] = ab("north"), g = boundary.north.values;
     for (let i = 0; i <= nx; i++) {
       const k = (ny + 1) * s + i + 1;
       if (isDir[k]) continue;
-      if (NW[k] !== 0) fold(k, NW[k], SW, k, W, g[i - 1], 2 * hy, al, be), NW[k] = 0;
-      if (NE[k] !== 0) fold(k, NE[k], SE, k, E, g[i + 1], 2 * hy, al, be), NE[k] = 0;
+      if (NW[k] !== 0) fold(k, NW[k], SW, k, W, "north", i - 1, 2 * hy), NW[k] = 0;
+      if (NE[k] !== 0) fold(k, NE[k], SE, k, E, "north", i + 1, 2 * hy), NE[k] = 0;
     }
   }
   return { SW, SE, NW, NE };

@@ -192,7 +192,7 @@ export function discretizeConservative(problem: Problem, upwind = false): Discre
         : boundary.north;
       const pos = bc === boundary.west || bc === boundary.east ? j : i;
       C[k] = 1;
-      rhs[k] = bc.kind === "robin" ? bc.values[pos] / bc.alpha : bc.values[pos];
+      rhs[k] = bc.kind === "robin" ? bc.values[pos] / bc.alpha[pos] : bc.values[pos];
       dirichlet.push(k);
       return;
     }
@@ -204,8 +204,8 @@ export function discretizeConservative(problem: Problem, upwind = false): Discre
     const face = (side: "west" | "east" | "south" | "north", pos: number, w: number) => {
       const bc = boundary[side];
       if (bc.kind === "robin") {
-        st[4] -= bc.alpha / (bc.beta * w);
-        r -= bc.values[pos] / (bc.beta * w);
+        st[4] -= bc.alpha[pos] / (bc.beta[pos] * w);
+        r -= bc.values[pos] / (bc.beta[pos] * w);
       } else r -= bc.values[pos] / w;
     };
     if (i < nx) xFace(i, i, j, 1 / wx);

@@ -3,7 +3,7 @@ import { assertClose } from "../testing/mod.ts";
 import { galerkinOperator } from "./galerkin.ts";
 import { buildLevel } from "./hierarchy.ts";
 import type { LevelOperator } from "./level.ts";
-import type { Problem, Side } from "./problem.ts";
+import { type Problem, robinCondition, type Side } from "./problem.ts";
 
 const KINDS = ["dirichlet", "neumann", "robin"] as const;
 
@@ -16,7 +16,7 @@ function conservative(
   const n = (nx + 1) * (ny + 1), hx = 1 / nx, hy = 1 / ny;
   const side = (kind: (typeof KINDS)[number], len: number) =>
     kind === "robin"
-      ? { kind, alpha: 1.5, beta: 0.5, values: new Float64Array(len + 1) }
+      ? robinCondition(1.5, 0.5, new Float64Array(len + 1))
       : { kind, values: new Float64Array(len + 1) };
   const along = (len: number, fn: (q: number) => number) =>
     Float64Array.from({ length: len }, (_, q) => fn(q));

@@ -64,7 +64,7 @@ export type {
   Problem,
   Side,
 } from "./problem.ts";
-export { nodeCount, SIDES } from "./problem.ts";
+export { nodeCount, robinCondition, SIDES } from "./problem.ts";
 export type {
   CoarseOperatorName,
   CycleName,

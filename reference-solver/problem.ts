@@ -30,12 +30,40 @@ export type BoundaryKind = "dirichlet" | "neumann" | "robin";
  *
  * - dirichlet: u = values
  * - neumann: ∂u/∂n = values, n the outward unit normal
- * - robin: alpha·u + beta·∂u/∂n = values (n outward)
+ * - robin: alpha·u + beta·∂u/∂n = values (n outward), with alpha and beta given per node like
+ *   values (they may vary along the side). On one side beta is either 0 at every node (the side
+ *   fixes u = values/alpha) or non-zero at every node (a flux condition); alpha and beta are never
+ *   both 0 at a node. {@link robinCondition} builds a side with constant weights.
  */
 export type BoundaryCondition =
   | { kind: "dirichlet"; values: Float64Array }
   | { kind: "neumann"; values: Float64Array }
-  | { kind: "robin"; alpha: number; beta: number; values: Float64Array };
+  | { kind: "robin"; alpha: Float64Array; beta: Float64Array; values: Float64Array };
+
+/**
+ * A Robin side α·u + β·∂u/∂n = values whose weights are constants or per-node arrays.
+ *
+ * @param alpha α: one number for the whole side, or one value per node
+ * @param beta β: one number, or one value per node
+ * @param values the data g, one value per node along the side
+ * @returns the condition, with α and β as arrays of the length of `values`
+ *
+ * @example
+ * ```ts
+ * import { robinCondition } from "./problem.ts";
+ * const east = robinCondition(2, 0.5, new Float64Array(9));
+ * east.alpha.length; // 9
+ * ```
+ */
+export function robinCondition(
+  alpha: number | Float64Array,
+  beta: number | Float64Array,
+  values: Float64Array,
+): Extract<BoundaryCondition, { kind: "robin" }> {
+  const spread = (w: number | Float64Array) =>
+    typeof w === "number" ? new Float64Array(values.length).fill(w) : w;
+  return { kind: "robin", alpha: spread(alpha), beta: spread(beta), values };
+}
 
 /** The rectangle. */
 export interface Domain {

@@ -3,14 +3,14 @@
  *
  * @module
  */
-import { type BoundaryCondition, type Problem, SIDES } from "./problem.ts";
+import { type BoundaryCondition, type Problem, type Side, SIDES } from "./problem.ts";
 import { validateForms } from "./validate_forms.ts";
 
 const COEFFICIENTS = ["a", "b", "c", "d", "e", "f"] as const;
 
 /** Whether a side's condition fixes u itself (Dirichlet, or Robin with β = 0: u = g/α). */
 export function isDirichletLike(bc: BoundaryCondition): boolean {
-  return bc.kind === "dirichlet" || (bc.kind === "robin" && bc.beta === 0);
+  return bc.kind === "dirichlet" || (bc.kind === "robin" && bc.beta.every((v) => v === 0));
 }
 
 /**
@@ -21,11 +21,70 @@ export function isSingular(problem: Problem): boolean {
   for (const side of SIDES) {
     const bc = problem.boundary[side];
     if (bc.kind === "dirichlet") return false;
-    if (bc.kind === "robin" && bc.alpha !== 0) return false;
+    if (bc.kind === "robin" && bc.alpha.some((v) => v !== 0)) return false;
   }
   const e = problem.e;
   for (let k = 0; k < e.length; k++) if (e[k] !== 0) return false;
   return true;
+}
+
+/** The node (i, j) of position k along a side. */
+function sideNode(problem: Problem, side: Side, k: number): [number, number] {
+  return side === "west"
+    ? [0, k]
+    : side === "east"
+    ? [problem.nx, k]
+    : side === "south"
+    ? [k, 0]
+    : [k, problem.ny];
+}
+
+/** α and β of a Robin side: arrays of the side's length, finite, not both 0, β ≡ 0 or β ≠ 0. */
+function validateRobin(
+  problem: Problem,
+  side: Side,
+  bc: Extract<BoundaryCondition, { kind: "robin" }>,
+  len: number,
+): void {
+  const path = `problem.boundary.${side}`;
+  for (const name of ["alpha", "beta"] as const) {
+    const w = bc[name];
+    if (!(w instanceof Float64Array) || w.length !== len) {
+      throw new RangeError(
+        `Invalid ${path}.${name}: expected a Float64Array of ${len} values (one per node along the side, like values), got ${
+          w instanceof Float64Array ? `length ${w.length}` : typeof w
+        }; build constant weights with robinCondition(alpha, beta, values)`,
+      );
+    }
+  }
+  let zeros = 0;
+  for (let k = 0; k < len; k++) {
+    const [i, j] = sideNode(problem, side, k);
+    if (!Number.isFinite(bc.alpha[k]) || !Number.isFinite(bc.beta[k])) {
+      throw new RangeError(
+        `Invalid ${path} at ${
+          where(problem, i, j)
+        }: Robin alpha and beta must be finite, got alpha = ${bc.alpha[k]}, beta = ${bc.beta[k]}`,
+      );
+    }
+    if (bc.alpha[k] === 0 && bc.beta[k] === 0) {
+      throw new RangeError(
+        `Invalid ${path} at ${
+          where(problem, i, j)
+        }: Robin condition with alpha = 0 and beta = 0 says nothing about u; give alpha or beta a non-zero value`,
+      );
+    }
+    if (bc.beta[k] === 0) zeros++;
+  }
+  if (zeros !== 0 && zeros !== len) {
+    const k = bc.beta.findIndex((v) => v === 0);
+    const [i, j] = sideNode(problem, side, k);
+    throw new RangeError(
+      `Invalid ${path}.beta: 0 at ${zeros} of ${len} nodes (first ${
+        where(problem, i, j)
+      }) and non-zero elsewhere; a side either fixes u (beta = 0 everywhere) or gives a flux condition (beta ≠ 0 everywhere): split the condition or keep beta away from 0`,
+    );
+  }
 }
 
 function where(problem: Problem, i: number, j: number): string {
@@ -145,18 +204,7 @@ export function validateProblem(
         );
       }
     }
-    if (bc.kind === "robin") {
-      if (!Number.isFinite(bc.alpha) || !Number.isFinite(bc.beta)) {
-        throw new RangeError(
-          `Invalid ${path}: Robin alpha and beta must be finite, got alpha = ${bc.alpha}, beta = ${bc.beta}`,
-        );
-      }
-      if (bc.alpha === 0 && bc.beta === 0) {
-        throw new RangeError(
-          `Invalid ${path}: Robin condition with alpha = 0 and beta = 0 says nothing about u; give alpha or beta a non-zero value`,
-        );
-      }
-    }
+    if (bc.kind === "robin") validateRobin(problem, side, bc, len);
   }
   validateForms(problem);
   const singular = isSingular(problem);

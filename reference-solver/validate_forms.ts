@@ -24,7 +24,7 @@ import type { BoundaryCondition, Problem } from "./problem.ts";
 // The same rule as `isDirichletLike` in validate.ts, repeated here so the two modules do not
 // import each other.
 function fixesU(bc: BoundaryCondition): boolean {
-  return bc.kind === "dirichlet" || (bc.kind === "robin" && bc.beta === 0);
+  return bc.kind === "dirichlet" || (bc.kind === "robin" && bc.beta.every((v) => v === 0));
 }
 
 function node(problem: Problem, i: number, j: number): string {

@@ -2,7 +2,7 @@ import assert from "node:assert/strict";
 import { validateProblem } from "./validate.ts";
 import { solve } from "./solve.ts";
 import { ALL_DIRICHLET, LAPLACE, manufactured, SMOOTH, VARIABLE } from "./_test_problems.ts";
-import type { Problem } from "./problem.ts";
+import { type Problem, robinCondition } from "./problem.ts";
 
 const base = (): Problem => manufactured(VARIABLE, SMOOTH, { nx: 4, ny: 3 }, ALL_DIRICHLET);
 
@@ -48,8 +48,18 @@ Deno.test("validateProblem() names the field, node, coordinates and value of bad
   });
   await t.step("Robin with alpha = beta = 0", () => {
     const p = base();
-    p.boundary.east = { kind: "robin", alpha: 0, beta: 0, values: new Float64Array(4) };
-    refuses(p, /boundary\.east: Robin condition with alpha = 0 and beta = 0/);
+    p.boundary.east = robinCondition(0, 0, new Float64Array(4));
+    refuses(p, /boundary\.east at node \(4, 0\) .*Robin condition with alpha = 0 and beta = 0/);
+  });
+  await t.step("Robin beta 0 at some nodes of a side only", () => {
+    const p = base();
+    p.boundary.east = robinCondition(1, new Float64Array([0.5, 0.5, 0, 0.5]), new Float64Array(4));
+    refuses(p, /boundary\.east\.beta: 0 at 1 of 4 nodes \(first node \(4, 2\)/);
+  });
+  await t.step("Robin weights of the wrong length", () => {
+    const p = base();
+    p.boundary.east = { ...robinCondition(1, 1, new Float64Array(4)), alpha: new Float64Array(3) };
+    refuses(p, /boundary\.east\.alpha: expected a Float64Array of 4 values/);
   });
 });
 

@@ -110,13 +110,23 @@ export function caseQuantities(c: CompiledCase): CaseQuantity[] {
       ? "u"
       : b.kind === "neumann"
       ? flux
-      : `${b.alpha}*u + ${b.beta}*${flux}`;
+      : `alpha*u + beta*${flux} with alpha = robin_alpha_${side}, beta = robin_beta_${side}`;
     out.push({
       name: `boundary_${side}`,
       summary: `${b.kind} data on the ${side} side ${SIDE_TEXT[side](c)}: ${what}`,
       exprs: pick((r) => r.boundary[side]),
       harness: b.data,
     });
+    if (b.kind === "robin") {
+      for (const w of ["alpha", "beta"] as const) {
+        out.push({
+          name: `robin_${w}_${side}`,
+          summary: `Robin weight ${w} on the ${side} side (case file: ${b.weightsText![w]})`,
+          exprs: pick((r) => r.robin[side]![w]),
+          harness: b[w]!,
+        });
+      }
+    }
   }
   return out;
 }
@@ -172,7 +182,7 @@ function header(c: CompiledCase, language: Language, parts: FileParts, version: 
     "Boundary: " + (["west", "east", "south", "north"] as const).map((s) => {
       const b = c.boundary[s];
       return b.kind === "robin"
-        ? `${s} robin (alpha = ${b.alpha}, beta = ${b.beta})`
+        ? `${s} robin (alpha = ${b.weightsText!.alpha}, beta = ${b.weightsText!.beta})`
         : `${s} ${b.kind}`;
     }).join(", ") + ". Every function is defined on the whole plane; boundary_SIDE is meant on " +
     "its side.",

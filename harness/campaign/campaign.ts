@@ -95,7 +95,9 @@ export function fingerprint(
 export function caseInfo(kase: CompiledCase): CaseInfo {
   const boundaryKinds: Record<string, string> = {};
   for (const [side, b] of Object.entries(kase.boundary)) {
-    boundaryKinds[side] = b.kind === "robin" ? `robin(α=${b.alpha}, β=${b.beta})` : b.kind;
+    boundaryKinds[side] = b.kind === "robin"
+      ? `robin(α=${b.weightsText!.alpha}, β=${b.weightsText!.beta})`
+      : b.kind;
   }
   return {
     id: kase.id,

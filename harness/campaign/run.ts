@@ -64,7 +64,7 @@ export interface RunOptions {
  */
 export function plannedInputs(p: PlannedSolve, tolerance: number): string {
   const { kase, solver } = p;
-  const sides = Object.entries(kase.boundary).map(([side, b]) => [side, b.kind, b.alpha, b.beta]);
+  const sides = Object.entries(kase.boundary).map(([side, b]) => [side, b.kind, b.weightsText]);
   return solveInputs([
     kase.id,
     kase.origin,

@@ -159,7 +159,7 @@ export function showCase(c: CompiledCase, tex: boolean): string {
       ? "u"
       : b.kind === "neumann"
       ? flux
-      : `${b.alpha}·u + ${b.beta}·${flux}`;
+      : `(${b.weightsText!.alpha})·u + (${b.weightsText!.beta})·${flux}`;
     lines.push(`  ${side} (${SIDE_PLACE[side](c)}), ${b.kind}: ${what} = ${f.boundary[side]}`);
   }
   const params = Object.entries(c.parameters);

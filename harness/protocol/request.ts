@@ -25,6 +25,7 @@ import {
   type SideName,
   type SolutionExtras,
   type SolveRequestMessage,
+  uniformWeight,
   type WireArray,
 } from "./types.ts";
 
@@ -169,6 +170,13 @@ function hasMixedTerm(m: Float64Array | undefined): boolean {
 export function version1Misses(problem: SampledProblem): string | undefined {
   if (problem.form === "conservative") return "protocol 1 has no conservative form";
   if (hasMixedTerm(problem.m)) return "protocol 1 has no mixed term (u_xy)";
+  for (const side of SIDE_NAMES) {
+    const b = problem.boundary[side];
+    if (b.kind !== "robin") continue;
+    if (uniformWeight(b.alpha!) === undefined || uniformWeight(b.beta!) === undefined) {
+      return `protocol 1 has no Robin weights that vary along a side (${side})`;
+    }
+  }
   return undefined;
 }
 
@@ -191,12 +199,14 @@ function assembleRequest<A>(
   }
   const boundary = {} as Record<
     SideName,
-    { kind: SampledSide["kind"]; alpha?: number; beta?: number; values: A }
+    { kind: SampledSide["kind"]; alpha?: number | A; beta?: number | A; values: A }
   >;
+  // a Robin weight that is one value along the side goes as a number (the only shape of version 1)
+  const weight = (w: Float64Array) => uniformWeight(w) ?? enc(w);
   for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];
     boundary[side] = b.kind === "robin"
-      ? { kind: b.kind, alpha: b.alpha, beta: b.beta, values: enc(b.values) }
+      ? { kind: b.kind, alpha: weight(b.alpha!), beta: weight(b.beta!), values: enc(b.values) }
       : { kind: b.kind, values: enc(b.values) };
   }
   const c = problem.coefficients;
@@ -339,8 +349,12 @@ export function readSolveRequest(
     const along = side === "west" || side === "east" ? ny : nx;
     const length = layout === "vertex" ? along + 1 : along;
     const values = read(b.values, `/boundary/${side}/values`, length);
+    const weight = (w: number | WireArray | undefined, name: string) =>
+      typeof w === "number"
+        ? new Float64Array(length).fill(w)
+        : read(w!, `/boundary/${side}/${name}`, length);
     boundary[side] = b.kind === "robin"
-      ? { kind: "robin", alpha: b.alpha, beta: b.beta, values }
+      ? { kind: "robin", alpha: weight(b.alpha, "alpha"), beta: weight(b.beta, "beta"), values }
       : { kind: b.kind, values };
   }
   const problem: SampledProblem = {

@@ -71,11 +71,21 @@ export interface Rectangle {
 /** One side's boundary data, sampled at the side's points of the layout. */
 export interface SampledSide {
   kind: BoundaryKindName;
-  /** Robin α (robin only). */
-  alpha?: number;
-  /** Robin β (robin only). */
-  beta?: number;
+  /**
+   * Robin α at the same points as `values` (robin only). On the wire a number when it is one value
+   * along the whole side (always, in version 1), an array when it varies (version 2).
+   */
+  alpha?: Float64Array;
+  /** Robin β at the same points as `values` (robin only); on the wire like `alpha`. */
+  beta?: Float64Array;
   values: Float64Array;
+}
+
+/** The one value of a side's Robin weight, or undefined when it varies along the side. */
+export function uniformWeight(w: Float64Array): number | undefined {
+  const first = w[0];
+  for (let k = 1; k < w.length; k++) if (w[k] !== first) return undefined;
+  return first;
 }
 
 /**
@@ -204,7 +214,12 @@ export interface SolveRequestMessage {
   source: WireArray;
   boundary: Record<
     SideName,
-    { kind: BoundaryKindName; alpha?: number; beta?: number; values: WireArray }
+    {
+      kind: BoundaryKindName;
+      alpha?: number | WireArray;
+      beta?: number | WireArray;
+      values: WireArray;
+    }
   >;
   expressions: ExpressionTexts;
   scheme: SchemeHint;

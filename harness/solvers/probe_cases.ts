@@ -19,7 +19,13 @@ const NORMAL_TEXT: Record<Side, string> = { west: "-1", east: "1", south: "-0.5"
 function boundaryFor(kind: "dirichlet" | "neumann" | "robin", side: Side): CaseBoundary {
   if (kind === "dirichlet") return { kind, data: u };
   if (kind === "neumann") return { kind, data: (x, y) => NORMAL[side] * u(x, y) };
-  return { kind, alpha: 1, beta: 0.5, data: (x, y) => (1 + 0.5 * NORMAL[side]) * u(x, y) };
+  return {
+    kind,
+    alpha: () => 1,
+    beta: () => 0.5,
+    weightsText: { alpha: "1", beta: "0.5" },
+    data: (x, y) => (1 + 0.5 * NORMAL[side]) * u(x, y),
+  };
 }
 
 function boundaryText(kind: "dirichlet" | "neumann" | "robin", side: Side): string {
@@ -92,7 +98,12 @@ export function probeCase(set: ProbeBoundarySet): CompiledCase {
       const bc = boundary[side];
       const values = sampleSide(bc.data, side, domain, nx, ny);
       bcs[side] = bc.kind === "robin"
-        ? { kind: "robin", alpha: bc.alpha ?? 1, beta: bc.beta ?? 0, values }
+        ? {
+          kind: "robin",
+          alpha: sampleSide(bc.alpha!, side, domain, nx, ny),
+          beta: sampleSide(bc.beta!, side, domain, nx, ny),
+          values,
+        }
         : { kind: bc.kind, values };
     }
     return {

@@ -305,7 +305,9 @@ function cellBoundary(
     const bc = compiled.boundary[side];
     const vertical = side === "west" || side === "east";
     const count = vertical ? ny : nx;
+    const robin = bc.kind === "robin";
     const values = new Float64Array(count);
+    const alpha = new Float64Array(robin ? count : 0), beta = new Float64Array(robin ? count : 0);
     for (let m = 0; m < count; m++) {
       const x = vertical ? (side === "west" ? x0 : x1) : x0 + (m + 0.5) * hx;
       const y = vertical ? y0 + (m + 0.5) * hy : (side === "south" ? y0 : y1);
@@ -316,10 +318,9 @@ function cellBoundary(
         );
       }
       values[m] = v;
+      if (robin) alpha[m] = bc.alpha!(x, y), beta[m] = bc.beta!(x, y);
     }
-    boundary[side] = bc.kind === "robin"
-      ? { kind: "robin", alpha: bc.alpha, beta: bc.beta, values }
-      : { kind: bc.kind, values };
+    boundary[side] = robin ? { kind: "robin", alpha, beta, values } : { kind: bc.kind, values };
   }
   return boundary;
 }

@@ -114,8 +114,8 @@ export function assembleVertex(
           fixed[j * mx + i] = bc.data(x + shift[0] * hx, y + shift[1] * hy);
           break;
         }
-        if (bc.kind === "robin" && bc.beta === 0) {
-          fixed[j * mx + i] = bc.data(x, y) / bc.alpha!;
+        if (bc.kind === "robin" && bc.beta!(x, y) === 0) {
+          fixed[j * mx + i] = bc.data(x, y) / bc.alpha!(x, y);
           break;
         }
       }
@@ -167,8 +167,8 @@ export function assembleVertex(
         }
         const bc = c.boundary[dir.side];
         const robin = bc.kind === "robin";
-        const alpha = robin ? bc.alpha! : 0;
-        const beta = robin ? disc.robinBetaSign * bc.beta! : 1;
+        const alpha = robin ? bc.alpha!(x, y) : 0;
+        const beta = robin ? disc.robinBetaSign * bc.beta!(x, y) : 1;
         const g = disc.fluxDataScale * bc.data(x, y);
         const h = dir.di !== 0 ? hx : hy;
         add(k - dir.di - dir.dj * mx, w);
@@ -213,11 +213,12 @@ function vertexMixed(
   // ∂u/∂n = s·(u_x or u_y), s = +1 on east and north
   const s = side === "east" || side === "north" ? 1 : -1;
   const normalDerivative = (ii: number, jj: number): Combination => {
-    const g = disc.fluxDataScale * bc.data(x0 + ii * hx, y0 + jj * hy);
+    const px = x0 + ii * hx, py = y0 + jj * hy;
+    const g = disc.fluxDataScale * bc.data(px, py);
     if (bc.kind === "neumann") return known(s * g);
     // Robin: g = α·u + β·∂u/∂n
-    const beta = disc.robinBetaSign * bc.beta!;
-    return combine([known(g), node(ii, jj)], [s / beta, -s * bc.alpha! / beta]);
+    const beta = disc.robinBetaSign * bc.beta!(px, py);
+    return combine([known(g), node(ii, jj)], [s / beta, -s * bc.alpha!(px, py) / beta]);
   };
   return side === "south" || side === "north"
     ? combine([normalDerivative(i + 1, j), normalDerivative(i - 1, j)], [
@@ -250,8 +251,8 @@ function cellGhost(
     const factor = disc.neumann === "one-sided" ? 2 : 1;
     return [1, factor * h * disc.fluxDataScale * bc.data(fx, fy)];
   }
-  const alpha = bc.alpha!;
-  const beta = disc.robinBetaSign * bc.beta!;
+  const alpha = bc.alpha!(fx, fy);
+  const beta = disc.robinBetaSign * bc.beta!(fx, fy);
   const den = alpha / 2 + beta / h;
   return [-(alpha / 2 - beta / h) / den, disc.fluxDataScale * bc.data(fx, fy) / den];
 }

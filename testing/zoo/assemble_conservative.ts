@@ -177,8 +177,8 @@ export function assembleConservativeCell(
       flux = known(disc.neumannData === "gradient" ? knn * g : g);
     } else {
       // α·u_f + β·q = g and q = k·(u_f − u₁)/(h/2), solved for q
-      const alpha = bc.alpha!;
-      const a = (2 * knn / h) / (alpha + 2 * bc.beta! * knn / h);
+      const alpha = bc.alpha!(fx, fy);
+      const a = (2 * knn / h) / (alpha + 2 * bc.beta!(fx, fy) * knn / h);
       flux = combine([known(g), u1], [a, -a * alpha]);
     }
     return { flux, value: combine([u1, flux], [1, h / (2 * knn)]) };
@@ -262,8 +262,8 @@ export function assembleConservativeVertex(
           fixed[j * mx + i] = bc.data(xn(i), yn(j));
           break;
         }
-        if (bc.kind === "robin" && bc.beta === 0) {
-          fixed[j * mx + i] = bc.data(xn(i), yn(j)) / bc.alpha!;
+        if (bc.kind === "robin" && bc.beta!(xn(i), yn(j)) === 0) {
+          fixed[j * mx + i] = bc.data(xn(i), yn(j)) / bc.alpha!(xn(i), yn(j));
           break;
         }
       }
@@ -301,7 +301,8 @@ export function assembleConservativeVertex(
       return known(disc.neumannData === "gradient" ? knn(xn(i), yn(j)) * g : g);
     }
     // Robin α·u + β·q = g
-    return combine([known(g), node(i, j)], [1 / bc.beta!, -bc.alpha! / bc.beta!]);
+    const alpha = bc.alpha!(xn(i), yn(j)), beta = bc.beta!(xn(i), yn(j));
+    return combine([known(g), node(i, j)], [1 / beta, -alpha / beta]);
   };
   for (let j = 0; j <= ny; j++) {
     for (let i = 0; i <= nx; i++) {

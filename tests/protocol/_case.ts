@@ -30,7 +30,13 @@ export function testCase(options: { allDirichlet?: boolean; id?: string } = {}):
     : {
       west: { kind: "dirichlet", data: u },
       east: { kind: "neumann", data: u },
-      south: { kind: "robin", alpha: 1, beta: 0.5, data: (x, y) => 0.75 * u(x, y) },
+      south: {
+        kind: "robin",
+        alpha: () => 1,
+        beta: () => 0.5,
+        weightsText: { alpha: "1", beta: "0.5" },
+        data: (x, y) => 0.75 * u(x, y),
+      },
       north: { kind: "dirichlet", data: u },
     };
   const coefficients = {
@@ -109,7 +115,12 @@ export function testCase(options: { allDirichlet?: boolean; id?: string } = {}):
         const bc = boundary[side];
         const values = sampleSide(bc.data, side, domain, nx, ny);
         bcs[side] = bc.kind === "robin"
-          ? { kind: "robin", alpha: bc.alpha!, beta: bc.beta!, values }
+          ? {
+            kind: "robin",
+            alpha: sampleSide(bc.alpha!, side, domain, nx, ny),
+            beta: sampleSide(bc.beta!, side, domain, nx, ny),
+            values,
+          }
           : { kind: bc.kind, values };
       }
       const [aa, bb, cc, dd, ee, ff] = arrays;

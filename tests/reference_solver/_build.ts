@@ -5,7 +5,13 @@
  *
  * @module
  */
-import type { BoundaryCondition, Domain, Problem, Side } from "../../reference-solver/mod.ts";
+import {
+  type BoundaryCondition,
+  type Domain,
+  type Problem,
+  robinCondition,
+  type Side,
+} from "../../reference-solver/mod.ts";
 import { type Coefficients, type Field, sourceOf } from "./_manufactured.ts";
 
 /** What kind of condition to put on a side; its data comes from the exact solution. */
@@ -103,7 +109,7 @@ function sideData(field: Field, side: Side, spec: SideSpec, grid: GridSpec): Bou
     else if (spec.kind === "neumann") values[k] = dn;
     else values[k] = spec.alpha * field.u(x, y) + spec.beta * dn;
   }
-  if (spec.kind === "robin") return { kind: "robin", alpha: spec.alpha, beta: spec.beta, values };
+  if (spec.kind === "robin") return robinCondition(spec.alpha, spec.beta, values);
   return { kind: spec.kind, values };
 }
 

@@ -12,7 +12,13 @@
  *
  * @module
  */
-import type { BoundaryCondition, Domain, Problem, Side } from "../../reference-solver/mod.ts";
+import {
+  type BoundaryCondition,
+  type Domain,
+  type Problem,
+  robinCondition,
+  type Side,
+} from "../../reference-solver/mod.ts";
 import { nodeX, nodeY, sample, type SideSpecs } from "./_build.ts";
 import { type Fn, sampleConductivity } from "./_conductivity.ts";
 
@@ -99,7 +105,7 @@ function condition(
   const dn = values(true);
   if (spec.kind === "neumann") return { kind: "neumann", values: dn };
   const g = dn.map((v, k) => spec.alpha * u[k] + spec.beta * v);
-  return { kind: "robin", alpha: spec.alpha, beta: spec.beta, values: g };
+  return robinCondition(spec.alpha, spec.beta, g);
 }
 
 /**

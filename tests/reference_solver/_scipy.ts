@@ -20,7 +20,12 @@ export async function scipySolve(
     Object.entries(problem.boundary).map(([side, bc]) => [
       side,
       bc.kind === "robin"
-        ? { kind: bc.kind, alpha: bc.alpha, beta: bc.beta, values: Array.from(bc.values) }
+        ? {
+          kind: bc.kind,
+          alpha: Array.from(bc.alpha),
+          beta: Array.from(bc.beta),
+          values: Array.from(bc.values),
+        }
         : { kind: bc.kind, values: Array.from(bc.values) },
     ]),
   );

@@ -4,7 +4,8 @@
 Reads one JSON object on stdin:
   {"domain": {"x0", "x1", "y0", "y1"}, "nx", "ny", "a", "b", "c", "d", "e", "f" (node arrays,
    x fastest), "m"?: node array, "conductivity"?: {"alongX": {"k11", "k12"?},
-   "alongY": {"k12"?, "k22"}}, "boundary": {side: {"kind", "values", "alpha"?, "beta"?}},
+   "alongY": {"k12"?, "k22"}}, "boundary": {side: {"kind", "values", "alpha"?, "beta"?}} (Robin weights one
+   number or one per node),
    "upwind"?: bool}
 and writes {"solution": [...], "scipy": version} on stdout.
 
@@ -45,6 +46,12 @@ import scipy.sparse as sparse
 import scipy.sparse.linalg as linalg
 
 
+
+def robin_weight(s, name, pos):
+    """A Robin weight at a position along its side: one number for the side, or one per node."""
+    w = s[name]
+    return float(w[pos]) if isinstance(w, list) else float(w)
+
 class Grid:
     def __init__(self, p):
         self.nx, self.ny = int(p["nx"]), int(p["ny"])
@@ -60,8 +67,8 @@ class Grid:
         s = self.bc[side]
         if s["kind"] == "dirichlet":
             return s["values"][pos]
-        if s["kind"] == "robin" and float(s["beta"]) == 0:
-            return s["values"][pos] / float(s["alpha"])
+        if s["kind"] == "robin" and robin_weight(s, "beta", pos) == 0:
+            return s["values"][pos] / robin_weight(s, "alpha", pos)
         return None
 
     def dirichlet_value(self, i, j):
@@ -77,10 +84,10 @@ class Grid:
                     return g
         return None
 
-    def alpha_beta(self, side):
+    def alpha_beta(self, side, pos):
         s = self.bc[side]
         if s["kind"] == "robin":
-            return float(s["alpha"]), float(s["beta"])
+            return robin_weight(s, "alpha", pos), robin_weight(s, "beta", pos)
         return 0.0, 1.0
 
 
@@ -112,7 +119,7 @@ def nonconservative(p):
             side, mirror, on, h, pos = (
                 ("south", (i, 1), (i, 0), hy, i) if j < 0 else ("north", (i, ny - 1), (i, ny), hy, i)
             )
-        alpha, beta = g.alpha_beta(side)
+        alpha, beta = g.alpha_beta(side, pos)
         gv = g.bc[side]["values"][pos]
         terms = {g.idx(*mirror): 1.0}
         if alpha != 0:
@@ -247,7 +254,7 @@ def conservative(p):
             def boundary_face(side, pos, w):
                 nonlocal const
                 s = g.bc[side]
-                alpha, beta = g.alpha_beta(side)
+                alpha, beta = g.alpha_beta(side, pos)
                 # the face adds phi / w, phi = (g - alpha u) / beta
                 const += s["values"][pos] / (beta * w)
                 row[(i, j)] = row.get((i, j), 0.0) - alpha / (beta * w)

@@ -18,6 +18,7 @@ import {
   type Side,
   solve,
 } from "../../reference-solver/mod.ts";
+import { robinCondition } from "../../reference-solver/mod.ts";
 import { findScipyPython, runWithInput } from "../../testing/mod.ts";
 import { nodeX, nodeY, sample } from "./_build.ts";
 import { sampleConductivity } from "./_conductivity.ts";
@@ -53,7 +54,12 @@ async function scipySolve(problem: Problem, upwind: boolean): Promise<Float64Arr
     boundary: Object.fromEntries(
       Object.entries(problem.boundary).map((
         [side, bc],
-      ) => [side, { ...bc, values: arr(bc.values) }]),
+      ) => [
+        side,
+        bc.kind === "robin"
+          ? { ...bc, alpha: arr(bc.alpha), beta: arr(bc.beta), values: arr(bc.values) }
+          : { ...bc, values: arr(bc.values) },
+      ]),
     ),
     upwind,
   });
@@ -64,7 +70,9 @@ async function scipySolve(problem: Problem, upwind: boolean): Promise<Float64Arr
 
 const DOMAIN = { x0: -0.3, x1: 1.1, y0: 0.2, y1: 1.0 };
 
-type Kind = "dirichlet" | "neumann" | { alpha: number; beta: number };
+/** A Robin weight: one number, or a function of the coordinate along the side (varying). */
+type Weight = number | ((s: number) => number);
+type Kind = "dirichlet" | "neumann" | { alpha: Weight; beta: Weight };
 
 /** Boundary data that is not taken from any exact solution (corner values disagree on purpose). */
 function sides(nx: number, ny: number, kinds: Record<Side, Kind>): Record<Side, BoundaryCondition> {
@@ -78,14 +86,15 @@ function sides(nx: number, ny: number, kinds: Record<Side, Kind>): Record<Side, 
   for (const side of ["west", "east", "south", "north"] as const) {
     const vertical = side === "west" || side === "east";
     const n = vertical ? ny : nx;
-    const values = new Float64Array(n + 1);
-    for (let k = 0; k <= n; k++) {
-      values[k] = data[side](vertical ? nodeY(DOMAIN, ny, k) : nodeX(DOMAIN, nx, k));
-    }
+    const at = (k: number) => vertical ? nodeY(DOMAIN, ny, k) : nodeX(DOMAIN, nx, k);
+    const along = (fn: (s: number) => number) =>
+      Float64Array.from({ length: n + 1 }, (_, k) => fn(at(k)));
+    const values = along(data[side]);
     const kind = kinds[side];
+    const weight = (w: Weight) => typeof w === "number" ? w : along(w);
     out[side] = kind === "dirichlet" || kind === "neumann"
       ? { kind, values }
-      : { kind: "robin", alpha: kind.alpha, beta: kind.beta, values };
+      : robinCondition(weight(kind.alpha), weight(kind.beta), values);
   }
   return out;
 }
@@ -176,6 +185,29 @@ const CASES: [string, Problem][] = [
       { west: N, north: N, south: { alpha: 0.9, beta: 1.6 }, east: { alpha: 2, beta: 0.5 } },
       "tensor",
     ),
+  ],
+  [
+    "conservative, variable tensor K, 40×24, Robin weights varying along east and south",
+    conservativeCase(
+      40,
+      24,
+      {
+        west: D,
+        north: N,
+        south: { alpha: (x) => 1 + x * x, beta: (x) => 0.5 + 0.25 * Math.cos(3 * x) },
+        east: { alpha: (y) => 2 - y, beta: 0.5 },
+      },
+      "tensor",
+    ),
+  ],
+  [
+    "mixed term, 40×24, Robin weights varying along east, Neumann west",
+    mixedCase(40, 24, {
+      west: N,
+      east: { alpha: (y) => 0.5 + y, beta: (y) => 0.3 + 0.2 * y * y },
+      south: D,
+      north: D,
+    }),
   ],
   [
     "conservative, tensor K jumping by 100 across two grid lines, 40×24, Dirichlet sides",

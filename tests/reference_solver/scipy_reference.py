@@ -4,7 +4,8 @@
 Reads one JSON object on stdin:
   {"domain": {"x0", "x1", "y0", "y1"}, "nx", "ny", "a", "b", "c", "d", "e", "f" (node arrays,
    x fastest, length (nx+1)(ny+1)), "boundary": {"west"|"east"|"south"|"north":
-   {"kind": "dirichlet"|"neumann"|"robin", "values": [...], "alpha"?, "beta"?}},
+   {"kind": "dirichlet"|"neumann"|"robin", "values": [...], "alpha"?, "beta"?}}
+   (alpha and beta one number per side or one per node along it),
    "upwind"?: bool}
 and writes {"solution": [...], "scipy": version} on stdout.
 
@@ -33,6 +34,12 @@ import scipy
 import scipy.sparse as sparse
 import scipy.sparse.linalg as linalg
 
+
+
+def robin_weight(s, name, pos):
+    """A Robin weight at a position along its side: one number for the side, or one per node."""
+    w = s[name]
+    return float(w[pos]) if isinstance(w, list) else float(w)
 
 def assemble(p):
     nx, ny = int(p["nx"]), int(p["ny"])
@@ -66,8 +73,8 @@ def assemble(p):
         s = bc[side]
         if s["kind"] == "dirichlet":
             return s["values"][pos]
-        if s["kind"] == "robin" and float(s["beta"]) == 0:
-            return s["values"][pos] / float(s["alpha"])
+        if s["kind"] == "robin" and robin_weight(s, "beta", pos) == 0:
+            return s["values"][pos] / robin_weight(s, "alpha", pos)
         return None
 
     def dirichlet_value(i, j):
@@ -99,7 +106,7 @@ def assemble(p):
         if s["kind"] == "neumann":
             rhs[k] -= weight * 2 * h * g
         elif s["kind"] == "robin":
-            alpha, beta = float(s["alpha"]), float(s["beta"])
+            alpha, beta = robin_weight(s, "alpha", pos), robin_weight(s, "beta", pos)
             add(k, node, -weight * 2 * h * alpha / beta)
             rhs[k] -= weight * 2 * h * g / beta
         else:

@@ -13,6 +13,7 @@ import {
   residualNorm,
   solve,
 } from "../../reference-solver/mod.ts";
+import { robinCondition } from "../../reference-solver/mod.ts";
 import { findScipyPython } from "../../testing/mod.ts";
 import { errorNorms, manufacturedProblem, MIXED, nodeX, nodeY, sample } from "./_build.ts";
 import { QUADRATIC, VARIABLE } from "./_manufactured.ts";
@@ -70,37 +71,27 @@ function caseProblem(
 const MIXED_SIDES = (along: Along) => ({
   west: { kind: "dirichlet" as const, values: along("west", (y) => 1 + 0.5 * Math.sin(2 * y)) },
   south: { kind: "dirichlet" as const, values: along("south", (x) => Math.cos(x) - 0.3) },
-  east: {
-    kind: "robin" as const,
-    alpha: 1.3,
-    beta: 0.4,
-    values: along("east", (y) => 0.7 - y * y),
-  },
+  east: robinCondition(1.3, 0.4, along("east", (y) => 0.7 - y * y)),
   north: { kind: "neumann" as const, values: along("north", (x) => 0.2 * Math.sin(5 * x)) },
 });
 
 const DERIVATIVE_SIDES = (along: Along) => ({
   west: { kind: "neumann" as const, values: along("west", (y) => 0.3 * y - 0.1) },
-  south: {
-    kind: "robin" as const,
-    alpha: 0.9,
-    beta: 1.6,
-    values: along("south", (x) => Math.exp(-x)),
-  },
-  east: {
-    kind: "robin" as const,
-    alpha: 2.0,
-    beta: 0.5,
-    values: along("east", (y) => Math.cos(3 * y)),
-  },
+  south: robinCondition(0.9, 1.6, along("south", (x) => Math.exp(-x))),
+  east: robinCondition(2.0, 0.5, along("east", (y) => Math.cos(3 * y))),
   north: { kind: "neumann" as const, values: along("north", (x) => x * x - 0.4) },
 });
 
 const ROBIN_WEST_NORTH = (along: Along) => ({
-  west: { kind: "robin" as const, alpha: 1.1, beta: 0.8, values: along("west", (y) => y - 0.2) },
+  west: robinCondition(1.1, 0.8, along("west", (y) => y - 0.2)),
   south: { kind: "dirichlet" as const, values: along("south", (x) => 0.5 * x) },
   east: { kind: "neumann" as const, values: along("east", (y) => Math.sin(4 * y)) },
-  north: { kind: "robin" as const, alpha: 0.6, beta: 1.4, values: along("north", (x) => 1 - x) },
+  // weights that vary along the side (α from 0.6 to 1.5 over x, β from 1.4 down to about 1)
+  north: robinCondition(
+    along("north", (x) => 0.6 + 0.4 * (x + 0.3) * (x + 0.3)),
+    along("north", (x) => 1.4 - 0.3 * Math.sin(x + 0.3)),
+    along("north", (x) => 1 - x),
+  ),
 });
 
 const CASES: [string, Problem][] = [
@@ -117,7 +108,7 @@ const CASES: [string, Problem][] = [
     caseProblem(36, 27, MIXED_SIDES),
   ],
   [
-    "32×20, Robin west and north, Dirichlet south, Neumann east",
+    "32×20, Robin west and north (weights varying along north), Dirichlet south, Neumann east",
     caseProblem(32, 20, ROBIN_WEST_NORTH),
   ],
 ];
