@@ -317,6 +317,7 @@ function assemble(
             alpha: String(caseFile.boundary[side].alpha ?? 0),
             beta: String(caseFile.boundary[side].beta ?? 0),
           },
+          weightsVary: !involvesNoPoint(expr(spec.alpha!)) || !involvesNoPoint(expr(spec.beta!)),
           data,
         }
         : { kind: spec.kind, data };

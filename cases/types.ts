@@ -74,6 +74,8 @@ export interface CaseBoundary {
   beta?: PointFn;
   /** α and β as the case file gives them (only for robin), for reports and messages. */
   weightsText?: { alpha: string; beta: string };
+  /** true when α or β depends on the point (only for robin): protocol 1 cannot carry it. */
+  weightsVary?: boolean;
   /** Boundary data g(x, y): u for dirichlet, ∂u/∂n for neumann, α·u + β·∂u/∂n for robin. */
   data: PointFn;
 }

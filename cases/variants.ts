@@ -175,6 +175,52 @@ function conservativeEdits(kase: CompiledCase): Edit[] {
   return out;
 }
 
+/**
+ * The Robin weights frozen along a side: each side whose α or β varies gets them at the side's
+ * midpoint, one side at a time and (with two or more such sides) all at once. A defect that
+ * restores its order here lives in where the solver takes the weights along the side.
+ */
+function robinWeightEdits(kase: CompiledCase): Edit[] {
+  const { x0, x1, y0, y1 } = kase.domain;
+  const middle: Record<Side, [number, number]> = {
+    west: [x0, (y0 + y1) / 2],
+    east: [x1, (y0 + y1) / 2],
+    south: [(x0 + x1) / 2, y0],
+    north: [(x0 + x1) / 2, y1],
+  };
+  const varying = SIDES.filter((s) => kase.boundary[s].weightsVary === true);
+  const frozen = (s: Side) => {
+    const b = kase.boundary[s];
+    const round = (v: number) => Number(v.toPrecision(15));
+    return { alpha: round(b.alpha!(...middle[s])), beta: round(b.beta!(...middle[s])) };
+  };
+  const out: Edit[] = varying.map((s) => {
+    const w = frozen(s);
+    return {
+      key: `robin-constant:${s}`,
+      change: `the Robin weights on the ${s} side are frozen to their values at its midpoint ` +
+        `(α = ${w.alpha}, β = ${w.beta})`,
+      place: `the Robin weights along the ${s} side (where α and β are taken along it)`,
+      edit: (f: CaseFile) => {
+        f.boundary[s] = { kind: "robin", ...w };
+      },
+    };
+  });
+  if (varying.length >= 2) {
+    out.push({
+      key: "robin-constant:all",
+      change: `the Robin weights on every side where they vary (${
+        varying.join(", ")
+      }) are frozen to their values at the side's midpoint`,
+      place: "the Robin weights along the sides (where α and β are taken along a side)",
+      edit: (f: CaseFile) => {
+        for (const s of varying) f.boundary[s] = { kind: "robin", ...frozen(s) };
+      },
+    });
+  }
+  return out;
+}
+
 /** The changes that make sense for a case, as edits of its file (without building them). */
 export function variantEdits(
   kase: CompiledCase,
@@ -233,6 +279,7 @@ export function variantEdits(
       },
     });
   }
+  out.push(...robinWeightEdits(kase));
   if (kase.form === "conservative") out.push(...conservativeEdits(kase));
   else out.push(...termEdits(kase));
   const { x0, x1, y0, y1 } = kase.domain;

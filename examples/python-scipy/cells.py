@@ -29,13 +29,13 @@ from vertex import csr_from_stencil, stencil
 
 
 def _face_relation(bcside):
-    """(alpha, beta) of a side's face relation."""
+    """(alpha, beta) of a side's face relation, per face along the side for Robin."""
     kind = bcside["kind"]
     if kind == "dirichlet":
         return 1.0, 0.0
     if kind == "neumann":
         return 0.0, 1.0
-    return float(bcside["alpha"]), float(bcside["beta"])
+    return np.asarray(bcside["alpha"], dtype=float), np.asarray(bcside["beta"], dtype=float)
 
 
 def assemble(problem, upwind=False):
@@ -57,7 +57,7 @@ def assemble(problem, upwind=False):
     ):
         alpha, beta = _face_relation(bc[side])
         den = alpha / 2 + beta / h
-        if den == 0.0:
+        if np.any(den == 0.0):
             raise ValueError(
                 f"side {side}: the face relation alpha/2 + beta/h vanishes "
                 f"(alpha = {alpha}, beta = {beta}, h = {h}); refine the grid or change alpha, beta"

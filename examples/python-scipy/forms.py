@@ -59,14 +59,14 @@ class Rows:
         return sp.csr_matrix((self.vals, (self.rows, self.cols)), shape=(n, n))
 
 
-def _relation(side, k_nn):
-    """(alpha, beta) of a side's face relation alpha*u + beta*k_nn*du/dn = g."""
+def _relation(side, k_nn, m):
+    """(alpha, beta) of a side's face relation alpha*u + beta*k_nn*du/dn = g at its face m."""
     kind = side["kind"]
     if kind == "dirichlet":
         return 1.0, 0.0
     if kind == "neumann":
         return 0.0, k_nn
-    return float(side["alpha"]), float(side["beta"]) * k_nn
+    return float(side["alpha"][m]), float(side["beta"][m]) * k_nn
 
 
 def cell_resolver(problem, conservative):
@@ -106,7 +106,7 @@ def cell_resolver(problem, conservative):
         else:
             side, m, h = ("south" if j < 0 else "north"), i, hy
             inside = (i, 0 if j < 0 else ny - 1)
-        alpha, beta = _relation(bc[side], k_nn(side, m))
+        alpha, beta = _relation(bc[side], k_nn(side, m), m)
         den = alpha / 2 + beta / h
         if den == 0.0:
             raise ValueError(f"side {side}: the face relation alpha/2 + beta/h vanishes")
@@ -147,7 +147,9 @@ def vertex_resolver(problem):
         s = bc[side]
         if dirichlet_like(s):
             raise ValueError(f"a ghost node beyond the Dirichlet side {side} was asked for")
-        alpha, beta = (0.0, 1.0) if s["kind"] == "neumann" else (float(s["alpha"]), float(s["beta"]))
+        alpha, beta = (
+            (0.0, 1.0) if s["kind"] == "neumann" else (float(s["alpha"][m]), float(s["beta"][m]))
+        )
         rows.add(row, mirror[0], mirror[1], w)
         rows.add(row, edge[0], edge[1], -w * 2 * h * alpha / beta)
         rows.const(row, w * 2 * h * s["values"][m] / beta)
@@ -306,9 +308,9 @@ def assemble_conservative_vertex(problem, upwind=False):
         if s["kind"] == "neumann":
             rows.const(row, scale * g)
         else:
-            beta = float(s["beta"])
+            beta = float(s["beta"][m])
             rows.const(row, scale * g / beta)
-            rows.add(row, i, j, -scale * float(s["alpha"]) / beta)
+            rows.add(row, i, j, -scale * float(s["alpha"][m]) / beta)
 
     def x_edge(row, i, j, scale):
         """scale * F through the x-edge (i + 1/2, j)."""

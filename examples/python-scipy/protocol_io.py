@@ -101,7 +101,13 @@ def read_problem(req):
             "values": decode_array(s.get("values"), f"boundary.{side}.values", n),
         }
         if s["kind"] == "robin":
-            entry["alpha"], entry["beta"] = float(s["alpha"]), float(s["beta"])
+            # one number for the side, or (version 2) one value per point along it
+            for w in ("alpha", "beta"):
+                v = s.get(w)
+                if isinstance(v, (int, float)) and not isinstance(v, bool):
+                    entry[w] = np.full(n, float(v))
+                else:
+                    entry[w] = decode_array(v, f"boundary.{side}.{w}", n)
         problem["boundary"][side] = entry
     return problem
 

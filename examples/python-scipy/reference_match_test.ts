@@ -3,6 +3,7 @@ import { findScipyPython } from "../../testing/mod.ts";
 import {
   type BoundaryCondition,
   type Problem,
+  robinCondition,
   type Side,
   solve,
 } from "../../reference-solver/mod.ts";
@@ -30,7 +31,7 @@ function toProblem(req: Record<string, unknown>): Problem {
   for (const side of ["west", "east", "south", "north"] as const) {
     const s = r.boundary[side];
     boundary[side] = s.kind === "robin"
-      ? { kind: "robin", alpha: s.alpha, beta: s.beta, values: arr(s.values) }
+      ? robinCondition(s.alpha, s.beta, arr(s.values))
       : { kind: s.kind, values: arr(s.values) };
   }
   const c = r.coefficients;

@@ -37,13 +37,13 @@ def upwind_forward(coef_first, coef_second):
 def dirichlet_like(bcside):
     """True for a Dirichlet side or a Robin side with beta = 0."""
     return bcside["kind"] == "dirichlet" or (
-        bcside["kind"] == "robin" and float(bcside["beta"]) == 0.0
+        bcside["kind"] == "robin" and bool(np.all(np.asarray(bcside["beta"]) == 0.0))
     )
 
 
 def _dirichlet_data(bcside):
     g = np.asarray(bcside["values"], dtype=float)
-    return g / float(bcside["alpha"]) if bcside["kind"] == "robin" else g
+    return g / np.asarray(bcside["alpha"], dtype=float) if bcside["kind"] == "robin" else g
 
 
 def dirichlet_values(problem):
@@ -115,10 +115,10 @@ def csr_from_stencil(cc, cw, ce, cs, cn):
 
 
 def _robin(bcside):
-    """(alpha, beta) of a Neumann or Robin side (Neumann is alpha = 0, beta = 1)."""
+    """(alpha, beta) of a Neumann or Robin side, per point along it (Neumann is alpha = 0, beta = 1)."""
     if bcside["kind"] == "neumann":
         return 0.0, 1.0
-    return float(bcside["alpha"]), float(bcside["beta"])
+    return np.asarray(bcside["alpha"], dtype=float), np.asarray(bcside["beta"], dtype=float)
 
 
 def assemble(problem, upwind=False, defect=None):
@@ -189,6 +189,6 @@ def is_singular(problem):
     bc = problem["boundary"]
     if any(bc[s]["kind"] == "dirichlet" for s in SIDES):
         return False
-    if any(bc[s]["kind"] == "robin" and float(bc[s]["alpha"]) != 0.0 for s in SIDES):
+    if any(bc[s]["kind"] == "robin" and bool(np.any(np.asarray(bc[s]["alpha"]) != 0.0)) for s in SIDES):
         return False
     return bool(np.all(problem["e"] == 0.0))

@@ -39,6 +39,9 @@ export function ingredients(kase: CompiledCase): Ingredient[] {
       out.push({ key: `${kind}:${s}`, words: `the ${KIND_WORD[kind]} condition on the ${s} side` });
     }
   }
+  if (SIDES.some((s) => kase.boundary[s].weightsVary === true)) {
+    out.push({ key: "robin-varying", words: "Robin weights that vary along a side (α, β)" });
+  }
   const constant = kase.constantCoefficients;
   const present = (k: "b" | "d" | "e") => constant[k] !== 0;
   if (present("b")) out.push({ key: "b", words: "the first-derivative term in x (b·u_x)" });

@@ -13,11 +13,21 @@ import { type ProbeFormCase, probeFormCase } from "./probe_cases_v2.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import type { ExternalSolverSpec, SolveOutcome } from "./types.ts";
 
+/** What a failing version 2 probe points at. */
+const VERSION_2_FIELDS: Record<ProbeFormCase, string> = {
+  conservative: "conservative.faces, the conormal flux on Neumann sides",
+  mixed: "coefficients.m",
+  "robin-varying": "Robin alpha and beta as arrays at the side's points",
+};
+
 /** One probe request and what came of it. */
 export interface ProbeCheck {
   mode: "once" | "session";
   encoding: ArrayEncoding;
-  /** The boundary set of the plain probe case, or the version 2 probe ("conservative", "mixed"). */
+  /**
+   * The boundary set of the plain probe case, or the version 2 probe ("conservative", "mixed",
+   * "robin-varying").
+   */
   boundary: ProbeBoundarySet | ProbeFormCase;
   /** false for the encoding the solver file does not declare: a failure there is only noted. */
   required: boolean;
@@ -99,6 +109,7 @@ export async function probeSolver(
         if (spec.protocol === 2) {
           probes.push(["conservative", await probeFormCase("conservative")]);
           probes.push(["mixed", await probeFormCase("mixed")]);
+          probes.push(["robin-varying", await probeFormCase("robin-varying")]);
         }
         for (const [boundary, c] of probes) {
           const o = await solver.solve({
@@ -127,13 +138,8 @@ export async function probeSolver(
                   check.relativeError.toPrecision(3)
                 } > ${PROBE_ERROR_LIMIT} on an 8×16 grid): check ` +
                 `the point order (x fastest), the layout and the boundary conventions in docs/protocol.md` +
-                (typeof boundary === "string" &&
-                    (boundary === "conservative" || boundary === "mixed")
-                  ? `, and the version 2 fields (${
-                    boundary === "mixed"
-                      ? "coefficients.m"
-                      : "conservative.faces, the conormal flux on Neumann sides"
-                  })`
+                (boundary in VERSION_2_FIELDS
+                  ? `, and the version 2 fields (${VERSION_2_FIELDS[boundary as ProbeFormCase]})`
                   : "");
             }
           }

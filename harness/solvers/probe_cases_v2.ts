@@ -14,7 +14,7 @@
 import { buildCase, type CaseFile, type CompiledCase, validateCaseText } from "../../cases/mod.ts";
 
 /** The version 2 probe cases. */
-export type ProbeFormCase = "conservative" | "mixed";
+export type ProbeFormCase = "conservative" | "mixed" | "robin-varying";
 
 const COMMON = {
   domain: { x0: 0, x1: 1, y0: 0, y1: 2 },
@@ -57,6 +57,21 @@ const FILES: Record<ProbeFormCase, Record<string, unknown>> = {
       east: { kind: "neumann" },
       south: { kind: "dirichlet" },
       north: { kind: "dirichlet" },
+    },
+  },
+  "robin-varying": {
+    id: "probe-robin-varying",
+    title: "probe: Robin weights varying along the east and north sides",
+    motivation: "a tiny version 2 request whose Robin alpha and beta are arrays",
+    manufactured: "u = exp(x + y/2), every derivative non-zero; α and β vary along their sides",
+    ...COMMON,
+    coefficients: { a: "1", b: "0", c: "1", d: "0", e: "0" },
+    exact: "exp(x + y/2)",
+    boundary: {
+      west: { kind: "dirichlet" },
+      east: { kind: "robin", alpha: "1 + y", beta: "0.5 + 0.25*y" },
+      south: { kind: "dirichlet" },
+      north: { kind: "robin", alpha: "2 - x", beta: 1 },
     },
   },
 };

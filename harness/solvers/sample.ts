@@ -69,11 +69,14 @@ export function sampleCase(
  * @returns the reason, naming the way out, or undefined
  */
 export function version1Refusal(compiled: CompiledCase): string | undefined {
+  const varying = SIDES.find((s) => compiled.boundary[s].weightsVary === true);
   const missing = compiled.form === "conservative"
     ? "no conservative form"
-    : noMixedTerm(compiled)
-    ? undefined
-    : "no mixed term (u_xy)";
+    : !noMixedTerm(compiled)
+    ? "no mixed term (u_xy)"
+    : varying !== undefined
+    ? `no Robin weights that vary along a side (${varying})`
+    : undefined;
   if (missing === undefined) return undefined;
   return `the solver speaks protocol 1, which has ${missing}; see docs/protocol.md, ` +
     `"Moving to version 2"`;

@@ -53,6 +53,11 @@ export interface Discretization {
    * derivative ∂u/∂n, so the flux through the face is taken as k·g ("gradient").
    */
   neumannData: "conormal" | "gradient";
+  /**
+   * Robin weights α and β taken where the condition is imposed ("point") or once per side, at
+   * the side's midpoint ("side-midpoint": a code that keeps one film coefficient per edge).
+   */
+  robinWeights: "point" | "side-midpoint";
 }
 
 /** The second-order central scheme the brief asks for. */
@@ -72,6 +77,7 @@ export const CORRECT_DISCRETIZATION: Discretization = {
   crossSign: 1,
   faceConductivity: "face",
   neumannData: "conormal",
+  robinWeights: "point",
 };
 
 /** What a solve reports: values (x fastest unless a defect says otherwise) and its history. */
@@ -252,6 +258,12 @@ export const DEFECTS = {
       "side is taken as k·g instead of g (the conormal flux (K∇u)·n)",
     place: "the Neumann sides (their data is the conormal flux)",
     discretization: { neumannData: "gradient" },
+  },
+  "robin-weights-per-side": {
+    description: "Robin weights α and β are read once per side, at its midpoint, and used along " +
+      "the whole side; invisible while they are constant",
+    place: "the Robin sides (their weights vary along the side)",
+    discretization: { robinWeights: "side-midpoint" },
   },
 } as const satisfies Record<string, Defect>;
 

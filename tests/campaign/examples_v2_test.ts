@@ -17,11 +17,12 @@ const CASES = [
   "mixed-derivative",
   "layered-jump-100",
   "layered-jump-10000",
+  "variable-robin-edge",
 ];
 
 Deno.test({
   name:
-    `gridproof check: the SciPy example passes the five new cases on both layouts; a version 1 solver gets them as not applicable${SKIP}`,
+    `gridproof check: the SciPy example passes the six new cases on both layouts; a version 1 solver gets them as not applicable${SKIP}`,
   ignore: !SCIPY,
   fn: async () => {
     const dir = await Deno.makeTempDir();
@@ -65,7 +66,10 @@ Deno.test({
     assert.equal(declined.length, CASES.length * 3);
     for (const s of declined) {
       assert.equal(s.status, "not-applicable");
-      assert.match(s.reason, /speaks protocol 1, which has no (conservative form|mixed term)/);
+      assert.match(
+        s.reason,
+        /speaks protocol 1, which has no (conservative form|mixed term|Robin weights that vary)/,
+      );
     }
     await Deno.remove(dir, { recursive: true });
   },

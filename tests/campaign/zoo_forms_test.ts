@@ -31,6 +31,7 @@ const NEW_CASES = [
   "mixed-derivative",
   "layered-jump-100",
   "layered-jump-10000",
+  "variable-robin-edge",
 ];
 
 // Passing cases are chosen so that the cross-case diagnosis can single out the ingredient: for the
@@ -93,6 +94,19 @@ const ROWS: Row[] = [
     passes: ["conservative-smooth"],
     isolates: /the mixed-derivative term \(m·u_xy\) is switched off \(m = 0\)/,
   },
+  // robin-all has Robin sides everywhere (constant weights) and conservative-smooth a constant
+  // Robin side on the conservative form: only the variation along a side is left to blame
+  ...(["vertex", "cell"] as const).map((layout): Row => ({
+    defect: "robin-weights-per-side",
+    layout,
+    fails: {
+      caseId: "variable-robin-edge",
+      criterion: "order",
+      says: /Robin weights that vary along a side/,
+    },
+    passes: ["conservative-smooth", "robin-all"],
+    isolates: /Robin weights on every side where they vary \(east, south\) are frozen/,
+  })),
 ];
 
 const GRIDS = [16, 32, 64];

@@ -226,9 +226,9 @@ Deno.test("probe sends a version 2 solver a conservative and a mixed-term reques
   };
   const report = await probeSolver(spec, { solverFileDir: "." });
   const forms = report.checks.filter((c) =>
-    c.boundary === "conservative" || c.boundary === "mixed"
+    c.boundary === "conservative" || c.boundary === "mixed" || c.boundary === "robin-varying"
   );
-  assert.equal(forms.length, 4, JSON.stringify(report.checks));
+  assert.equal(forms.length, 6, JSON.stringify(report.checks));
   for (const c of forms) {
     assert.equal(c.status, "pass", JSON.stringify(c));
     assert.ok(c.relativeError! < PROBE_ERROR_LIMIT);
