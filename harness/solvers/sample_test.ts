@@ -14,7 +14,10 @@ Deno.test("sampleCase() puts cell values at centres and boundary data at face ce
   assert.equal(p.boundary.east.values[1], Math.exp(1 + 0.375 / 2));
   assert.equal(p.boundary.south.values[3], 0.75 * Math.exp(0.875));
   assert.equal(p.boundary.south.kind, "robin");
-  assert.equal(p.boundary.south.alpha, 1);
+  // the Robin weights come at the same face centres as the data (one value each here)
+  const faces = p.boundary.south.values.length;
+  assert.deepEqual(p.boundary.south.alpha, new Float64Array(faces).fill(1));
+  assert.deepEqual(p.boundary.south.beta, new Float64Array(faces).fill(0.5));
 });
 
 Deno.test("sampleCase() takes vertex samples from the case itself", () => {

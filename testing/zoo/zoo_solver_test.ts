@@ -193,6 +193,7 @@ Deno.test("every seeded defect changes the outcome measurably on a library case"
     ["face-arithmetic-mean", "layered-jump-100"],
     ["cross-diffusion-sign", "rotated-anisotropy"],
     ["neumann-gradient-data", "conservative-smooth"],
+    ["robin-weights-per-side", "variable-robin-edge"],
   ];
   assert.deepEqual(rows.map((r) => r[0]).sort(), Object.keys(DEFECTS).sort());
   for (const [defect, id] of rows) {
