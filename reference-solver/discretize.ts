@@ -47,7 +47,7 @@
  *
  * @module
  */
-import type { BoundaryCondition, Problem } from "./problem.ts";
+import type { Problem, Side, ValuedCondition } from "./problem.ts";
 import { levelLayout, type LevelOperator } from "./level.ts";
 import { isDirichletLike, isSingular } from "./validate.ts";
 import { discretizeConservative } from "./discretize_conservative.ts";
@@ -65,12 +65,12 @@ function allZero(v: Float64Array): boolean {
   return true;
 }
 
-function dirichletValue(bc: BoundaryCondition, k: number): number {
+function dirichletValue(bc: ValuedCondition, k: number): number {
   return bc.kind === "robin" ? bc.values[k] / bc.alpha : bc.values[k];
 }
 
 /** α/β and 1/β of a ghost side (Neumann: α = 0, β = 1). */
-function ghostData(bc: BoundaryCondition): { alpha: number; beta: number } {
+function ghostData(bc: ValuedCondition): { alpha: number; beta: number } {
   return bc.kind === "robin" ? { alpha: bc.alpha, beta: bc.beta } : { alpha: 0, beta: 1 };
 }
 
@@ -111,7 +111,8 @@ export function discretize(problem: Problem, upwind = false): Discretization {
   const C = new Float64Array(length), invC = new Float64Array(length).fill(1);
   const rhs = new Float64Array(length);
   const dirichlet: number[] = [];
-  const west = boundary.west, east = boundary.east, south = boundary.south, north = boundary.north;
+  // Periodic sides never reach here (`solve` sends them to `stretched_solve.ts`).
+  const { west, east, south, north } = boundary as Record<Side, ValuedCondition>;
   const dW = isDirichletLike(west), dE = isDirichletLike(east);
   const dS = isDirichletLike(south), dN = isDirichletLike(north);
   const gW = ghostData(west), gE = ghostData(east), gS = ghostData(south), gN = ghostData(north);
@@ -254,7 +255,7 @@ function mixedCorners(
     return bc.kind === "robin" ? [bc.alpha, bc.beta] : [0, 1];
   };
   if (!isDirichletLike(boundary.west)) {
-    const [al, be] = ab("west"), g = boundary.west.values;
+    const [al, be] = ab("west"), g = (boundary.west as ValuedCondition).values;
     for (let j = 0; j <= ny; j++) {
       const k = (j + 1) * s + 1;
       if (isDir[k]) continue;
@@ -263,7 +264,7 @@ function mixedCorners(
     }
   }
   if (!isDirichletLike(boundary.east)) {
-    const [al, be] = ab("east"), g = boundary.east.values;
+    const [al, be] = ab("east"), g = (boundary.east as ValuedCondition).values;
     for (let j = 0; j <= ny; j++) {
       const k = (j + 1) * s + nx + 1;
       if (isDir[k]) continue;
@@ -272,7 +273,7 @@ function mixedCorners(
     }
   }
   if (!isDirichletLike(boundary.south)) {
-    const [al, be] = ab("south"), g = boundary.south.values;
+    const [al, be] = ab("south"), g = (boundary.south as ValuedCondition).values;
     for (let i = 0; i <= nx; i++) {
       const k = s + i + 1;
       if (isDir[k]) continue;
@@ -281,7 +282,7 @@ function mixedCorners(
     }
   }
   if (!isDirichletLike(boundary.north)) {
-    const [al, be] = ab("north"), g = boundary.north.values;
+    const [al, be] = ab("north"), g = (boundary.north as ValuedCondition).values;
     for (let i = 0; i <= nx; i++) {
       const k = (ny + 1) * s + i + 1;
       if (isDir[k]) continue;

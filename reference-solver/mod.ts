@@ -61,8 +61,10 @@ export type {
   BoundaryKind,
   Conductivity,
   Domain,
+  NodeCoordinates,
   Problem,
   Side,
+  ValuedCondition,
 } from "./problem.ts";
 export { nodeCount, SIDES } from "./problem.ts";
 export type {

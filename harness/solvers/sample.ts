@@ -89,7 +89,7 @@ function noMixedTerm(compiled: CompiledCase): boolean {
 function sampleVertex(compiled: CompiledCase, nx: number, ny: number): SampledProblem {
   const p = compiled.sample(nx, ny);
   const boundary = {} as Record<SideName, SampledSide>;
-  for (const side of SIDES) boundary[side] = { ...p.boundary[side] };
+  for (const side of SIDES) boundary[side] = { ...p.boundary[side] } as SampledSide;
   const problem: SampledProblem = {
     domain: { ...p.domain },
     nx: p.nx,
@@ -319,7 +319,7 @@ function cellBoundary(
     }
     boundary[side] = bc.kind === "robin"
       ? { kind: "robin", alpha: bc.alpha, beta: bc.beta, values }
-      : { kind: bc.kind, values };
+      : { kind: bc.kind as SampledSide["kind"], values };
   }
   return boundary;
 }

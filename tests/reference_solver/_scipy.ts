@@ -21,6 +21,8 @@ export async function scipySolve(
       side,
       bc.kind === "robin"
         ? { kind: bc.kind, alpha: bc.alpha, beta: bc.beta, values: Array.from(bc.values) }
+        : bc.kind === "periodic"
+        ? { kind: bc.kind }
         : { kind: bc.kind, values: Array.from(bc.values) },
     ]),
   );

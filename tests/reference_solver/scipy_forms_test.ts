@@ -53,7 +53,7 @@ async function scipySolve(problem: Problem, upwind: boolean): Promise<Float64Arr
     boundary: Object.fromEntries(
       Object.entries(problem.boundary).map((
         [side, bc],
-      ) => [side, { ...bc, values: arr(bc.values) }]),
+      ) => [side, { ...bc, values: arr((bc as { values: Float64Array }).values) }]),
     ),
     upwind,
   });
