@@ -21,8 +21,14 @@ Deno.test("sample() lays nodes out x fastest with boundary values ordered by inc
   assert.equal(p.a[1 * 5 + 2], 1 + 1.5);
   assert.equal(p.e[2 * 5 + 4], 2 * 1);
   assert.equal(p.b[0], -1);
-  assert.deepEqual([...p.boundary.west.values], [1 - 10, 1, 1 + 10]);
-  assert.deepEqual([...p.boundary.north.values], [11, 11.25, 11.5, 11.75, 12]);
+  assert.deepEqual([...(p.boundary.west as { values: Float64Array }).values], [1 - 10, 1, 1 + 10]);
+  assert.deepEqual([...(p.boundary.north as { values: Float64Array }).values], [
+    11,
+    11.25,
+    11.5,
+    11.75,
+    12,
+  ]);
   assert.deepEqual([...c.sampleExact(4, 2)].slice(5, 10), [1, 1.25, 1.5, 1.75, 2]);
 });
 

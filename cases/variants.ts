@@ -25,7 +25,12 @@ export interface CaseVariant {
 }
 
 const SIDES: readonly Side[] = ["west", "east", "south", "north"];
-const KIND_WORD = { dirichlet: "Dirichlet", neumann: "Neumann", robin: "Robin" } as const;
+const KIND_WORD = {
+  dirichlet: "Dirichlet",
+  neumann: "Neumann",
+  robin: "Robin",
+  periodic: "periodic",
+} as const;
 const TERMS = [
   { k: "b", words: "the first-derivative term in x (b·u_x)" },
   { k: "d", words: "the first-derivative term in y (d·u_y)" },

@@ -47,7 +47,7 @@
  *
  * @module
  */
-import type { BoundaryCondition, Problem } from "./problem.ts";
+import type { Problem, Side, ValuedCondition } from "./problem.ts";
 import { levelLayout, type LevelOperator } from "./level.ts";
 import { isDirichletLike, isSingular } from "./validate.ts";
 import { discretizeConservative } from "./discretize_conservative.ts";
@@ -65,7 +65,7 @@ function allZero(v: Float64Array): boolean {
   return true;
 }
 
-function dirichletValue(bc: BoundaryCondition, k: number): number {
+function dirichletValue(bc: ValuedCondition, k: number): number {
   return bc.kind === "robin" ? bc.values[k] / bc.alpha[k] : bc.values[k];
 }
 
@@ -73,7 +73,7 @@ const NO_WEIGHT = new Float64Array(0);
 
 /** α and β per node of a ghost side (Neumann: α = 0, β = 1 everywhere, `uniform` true). */
 function ghostData(
-  bc: BoundaryCondition,
+  bc: ValuedCondition,
 ): { alpha: Float64Array; beta: Float64Array; uniform: boolean } {
   return bc.kind === "robin"
     ? { alpha: bc.alpha, beta: bc.beta, uniform: false }
@@ -122,7 +122,8 @@ export function discretize(problem: Problem, upwind = false): Discretization {
   const C = new Float64Array(length), invC = new Float64Array(length).fill(1);
   const rhs = new Float64Array(length);
   const dirichlet: number[] = [];
-  const west = boundary.west, east = boundary.east, south = boundary.south, north = boundary.north;
+  // Periodic sides never reach here (`solve` sends them to `stretched_solve.ts`).
+  const { west, east, south, north } = boundary as Record<Side, ValuedCondition>;
   const dW = isDirichletLike(west), dE = isDirichletLike(east);
   const dS = isDirichletLike(south), dN = isDirichletLike(north);
   const gW = ghostData(west), gE = ghostData(east), gS = ghostData(south), gN = ghostData(north);
@@ -260,7 +261,7 @@ function mixedCorners(
       beta = bc.kind === "robin" ? bc.beta[at] : 1;
     mirror[mk] += K;
     neighbour[k] -= K * h2 * alpha / beta;
-    rhs[k] -= K * h2 * bc.values[at] / beta;
+    rhs[k] -= K * h2 * (bc as ValuedCondition).values[at] / beta;
   };
   if (!isDirichletLike(boundary.west)) {
     for (let j = 0; j <= ny; j++) {

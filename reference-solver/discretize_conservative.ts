@@ -87,7 +87,7 @@
  *
  * @module
  */
-import type { Problem } from "./problem.ts";
+import type { Problem, ValuedCondition } from "./problem.ts";
 import { levelLayout, type LevelOperator } from "./level.ts";
 import { isDirichletLike, isSingular } from "./validate.ts";
 import type { Discretization } from "./discretize.ts";
@@ -192,7 +192,8 @@ export function discretizeConservative(problem: Problem, upwind = false): Discre
         : boundary.north;
       const pos = bc === boundary.west || bc === boundary.east ? j : i;
       C[k] = 1;
-      rhs[k] = bc.kind === "robin" ? bc.values[pos] / bc.alpha[pos] : bc.values[pos];
+      const values = (bc as ValuedCondition).values;
+      rhs[k] = bc.kind === "robin" ? values[pos] / bc.alpha[pos] : values[pos];
       dirichlet.push(k);
       return;
     }
@@ -202,7 +203,7 @@ export function discretizeConservative(problem: Problem, upwind = false): Discre
     const wy = (j > 0 ? hy / 2 : 0) + (j < ny ? hy / 2 : 0);
     // Boundary face with outward conormal flux φ: adds φ/w to the row.
     const face = (side: "west" | "east" | "south" | "north", pos: number, w: number) => {
-      const bc = boundary[side];
+      const bc = boundary[side] as ValuedCondition;
       if (bc.kind === "robin") {
         st[4] -= bc.alpha[pos] / (bc.beta[pos] * w);
         r -= bc.values[pos] / (bc.beta[pos] * w);

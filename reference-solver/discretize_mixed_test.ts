@@ -1,7 +1,7 @@
 import assert from "node:assert/strict";
 import { assertClose } from "../testing/mod.ts";
 import { discretize } from "./discretize.ts";
-import type { Problem } from "./problem.ts";
+import type { Problem, ValuedCondition } from "./problem.ts";
 
 function problem(nx: number, ny: number, m: ((q: number) => number) | undefined): Problem {
   const n = (nx + 1) * (ny + 1);
@@ -55,7 +55,7 @@ Deno.test("discretize() folds the corner ghosts of a Neumann side into the mirro
   assert.equal(op.SW![k], 0);
   assertClose(op.NE![k], 0, { abs: 1e-12 });
   assertClose(op.SE![k], 0, { abs: 1e-12 });
-  const g = p.boundary.west.values;
+  const g = (p.boundary.west as ValuedCondition).values;
   assertClose(rhs[k] - plain[k], v * 2 * hx * g[j + 1] - v * 2 * hx * g[j - 1], { rel: 1e-12 });
 });
 

@@ -12,7 +12,7 @@ import {
   SMOOTH,
   VARIABLE,
 } from "./_test_problems.ts";
-import type { Side } from "./problem.ts";
+import type { Side, ValuedCondition } from "./problem.ts";
 
 // Derived (docs/check-values.md, "Exact facts of central differences"): central first and second
 // differences and the ghost-node treatment of Neumann/Robin sides are exact for quadratics.
@@ -123,12 +123,12 @@ Deno.test("discretize() with upwinding converges at first order, central at seco
 
 Deno.test("discretize() makes Dirichlet rows identity rows and takes a Dirichlet corner from west/east", () => {
   const p = manufactured(LAPLACE, QUADRATIC, { nx: 4, ny: 4 }, ALL_DIRICHLET);
-  p.boundary.south.values[0] = 123; // disagrees with the west side at the corner (0, 0)
+  (p.boundary.south as ValuedCondition).values[0] = 123; // disagrees with the west side at the corner (0, 0)
   const { op, rhs } = discretize(p);
   const k = op.index(0, 0);
   assert.equal(op.C[k], 1);
   assert.equal(op.W[k] + op.E[k] + op.S[k] + op.N[k], 0);
-  assert.equal(rhs[k], p.boundary.west.values[0]);
+  assert.equal(rhs[k], (p.boundary.west as ValuedCondition).values[0]);
   assert.equal(op.dirichlet.length, 16);
 });
 

@@ -25,7 +25,7 @@
  *
  * @module
  */
-import type { Conductivity, Domain, Problem } from "./problem.ts";
+import type { Conductivity, Domain, Problem, Side, ValuedCondition } from "./problem.ts";
 import type { LevelOperator } from "./level.ts";
 import { discretize } from "./discretize.ts";
 import { createSmoother, type Smoother } from "./smoothers.ts";
@@ -226,7 +226,7 @@ export function coarsenProblem(p: Problem, cx: 1 | 2, cy: 1 | 2): Problem {
   };
   const side = (v: Float64Array, c: 1 | 2, n: number) =>
     Float64Array.from({ length: n + 1 }, (_, k) => v[c * k]);
-  const b = p.boundary;
+  const b = p.boundary as Record<Side, ValuedCondition>;
   return {
     domain: p.domain,
     nx,

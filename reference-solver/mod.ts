@@ -19,6 +19,13 @@
  *   corners) and `discretize_conservative.ts` (flux form with the tensor K, half and quarter
  *   control volumes on Neumann/Robin sides, conormal flux data).
  * - `describeLevels({ nx, ny, domain? }, options?)`: the levels a solve would use, finest first.
+ * - Stretched grids (`problem.coordinates`) and periodic sides take their own path:
+ *   `discretize_stretched.ts` (non-uniform 3-point differences and the flux form, every formula in
+ *   its module doc) and `stretched_solve.ts` (multigrid on the hierarchy that keeps every other
+ *   node, linear interpolation in physical coordinates, line smoothers chosen by local couplings,
+ *   singular problems with the volume-weighted mean fixed). `volumeWeights(problem)` gives the
+ *   trapezoid volume of every node; `discreteResidual(problem, v)` the residual A·v − rhs of a
+ *   field (the truncation error when v is the exact solution).
  *
  * Coarse operators and transfers: rediscretized from injected coefficients (a conductivity is
  * combined edge by edge) or Galerkin products R·A·P (`galerkin.ts`), nine-point on coarse levels;
@@ -61,8 +68,10 @@ export type {
   BoundaryKind,
   Conductivity,
   Domain,
+  NodeCoordinates,
   Problem,
   Side,
+  ValuedCondition,
 } from "./problem.ts";
 export { nodeCount, robinCondition, SIDES } from "./problem.ts";
 export type {
@@ -87,6 +96,12 @@ export {
 } from "./resolve_options.ts";
 export { type AssembledSystem, assembleMatrix, residualNorm } from "./assemble.ts";
 export { isSingular, validateProblem } from "./validate.ts";
+export { isStretched } from "./validate_stretched.ts";
+export { nodeCoordinates, volumeWeights } from "./stretched_grid.ts";
+export { discreteResidual } from "./truncation.ts";
+export { discretizeStretched, type StretchedOperator } from "./discretize_stretched.ts";
+export { LINE_THRESHOLD, lineChoice } from "./stretched_smoothers.ts";
+export { solveStretched } from "./stretched_solve.ts";
 export { type Discretization, discretize } from "./discretize.ts";
 export { discretizeConservative } from "./discretize_conservative.ts";
 export { isNinePoint, levelLayout, type LevelOperator, type NinePointOperator } from "./level.ts";

@@ -4,7 +4,10 @@
  *
  * Grid: the rectangle [x0, x1] × [y0, y1] split into nx × ny equal intervals, hx = (x1 − x0)/nx,
  * hy = (y1 − y0)/ny (hx may differ from hy). Node (i, j), 0 ≤ i ≤ nx, 0 ≤ j ≤ ny, sits at
- * (x0 + i·hx, y0 + j·hy) and is stored at index `j·(nx + 1) + i` (x fastest).
+ * (x0 + i·hx, y0 + j·hy) and is stored at index `j·(nx + 1) + i` (x fastest). A stretched grid
+ * gives its node coordinates instead ({@link NodeCoordinates}): node (i, j) at (x[i], y[j]), same
+ * storage. Edge midpoints (where a {@link Conductivity} is sampled) are then the physical
+ * midpoints ((x[i] + x[i+1])/2, y[j]) and (x[i], (y[j] + y[j+1])/2).
  *
  * Operator, non-conservative form: a·u_xx + m·u_xy + c·u_yy + b·u_x + d·u_y + e·u = f, elliptic
  * where a·c > 0 and, with m, 4ac − m² > 0 (`discretize.ts`). Conservative form, when a
@@ -20,8 +23,8 @@ export type Side = "west" | "east" | "south" | "north";
 /** All sides, in the order used everywhere (reports, loops, messages). */
 export const SIDES: readonly Side[] = ["west", "east", "south", "north"] as const;
 
-/** The three kinds of boundary condition. */
-export type BoundaryKind = "dirichlet" | "neumann" | "robin";
+/** The four kinds of boundary condition. */
+export type BoundaryKind = "dirichlet" | "neumann" | "robin" | "periodic";
 
 /**
  * A boundary condition on one side. `values` holds one number per node along the side, ordered by
@@ -34,11 +37,21 @@ export type BoundaryKind = "dirichlet" | "neumann" | "robin";
  *   values (they may vary along the side). On one side beta is either 0 at every node (the side
  *   fixes u = values/alpha) or non-zero at every node (a flux condition); alpha and beta are never
  *   both 0 at a node. {@link robinCondition} builds a side with constant weights.
+ * - periodic: no values. Periodic sides come in pairs, west+east or south+north (a lone periodic
+ *   side is refused). Nodes stay (nx + 1) × (ny + 1); with west+east periodic, node i = nx is the
+ *   image of node i = 0: every input array must agree there (validated, naming the node) and the
+ *   solution returned has equal values there. The grid is periodic with period x1 − x0: across
+ *   the seam the spacing is x[1] − x[0] on one side and x[nx] − x[nx−1] on the other, so the west
+ *   neighbour of node 0 is node nx − 1 at distance x[nx] − x[nx−1]. South+north alike in y.
  */
 export type BoundaryCondition =
   | { kind: "dirichlet"; values: Float64Array }
   | { kind: "neumann"; values: Float64Array }
-  | { kind: "robin"; alpha: Float64Array; beta: Float64Array; values: Float64Array };
+  | { kind: "robin"; alpha: Float64Array; beta: Float64Array; values: Float64Array }
+  | { kind: "periodic" };
+
+/** A condition that carries values (every kind but periodic). */
+export type ValuedCondition = Exclude<BoundaryCondition, { kind: "periodic" }>;
 
 /**
  * A Robin side α·u + β·∂u/∂n = values whose weights are constants or per-node arrays.
@@ -63,6 +76,17 @@ export function robinCondition(
   const spread = (w: number | Float64Array) =>
     typeof w === "number" ? new Float64Array(values.length).fill(w) : w;
   return { kind: "robin", alpha: spread(alpha), beta: spread(beta), values };
+}
+
+/**
+ * Node coordinates of a non-uniform grid: x.length = nx + 1, y.length = ny + 1, strictly
+ * increasing, x[0] = domain.x0, x[nx] = domain.x1 (same for y).
+ */
+export interface NodeCoordinates {
+  /** The nx + 1 node abscissae, strictly increasing, from domain.x0 to domain.x1. */
+  x: Float64Array;
+  /** The ny + 1 node ordinates, strictly increasing, from domain.y0 to domain.y1. */
+  y: Float64Array;
 }
 
 /** The rectangle. */
@@ -111,6 +135,14 @@ export interface Problem {
    * Neumann (K∇u)·n = g, Robin α·u + β·(K∇u)·n = g.
    */
   conductivity?: Conductivity;
+  /**
+   * Node coordinates of a non-uniform (stretched) grid; absent: uniform, node (i, j) at
+   * (x0 + i·hx, y0 + j·hy). With coordinates, node (i, j) sits at (x[i], y[j]) and the problem is
+   * discretized by `discretize_stretched.ts` (non-uniform 3-point differences, flux form with K
+   * at the physical edge midpoints) and solved by the multigrid of `stretched_solve.ts`. Periodic
+   * sides take the same path, with or without coordinates.
+   */
+  coordinates?: NodeCoordinates;
 }
 
 /**

@@ -7,6 +7,8 @@
 import type { Problem } from "./problem.ts";
 import type { SolveOptions, SolverDescription, SolveResult, StopReason } from "./options.ts";
 import { validateProblem } from "./validate.ts";
+import { isStretched } from "./validate_stretched.ts";
+import { solveStretched } from "./stretched_solve.ts";
 import { type ResolvedSolveOptions, resolveOptions } from "./resolve_options.ts";
 import { buildHierarchy, type Hierarchy } from "./hierarchy.ts";
 import { type CycleParams, CYCLES } from "./cycle.ts";
@@ -69,6 +71,10 @@ function describe(h: Hierarchy, o: ResolvedSolveOptions): SolverDescription {
  * `compatibilityShift` (close to zero for data compatible up to truncation error); residual norms
  * are those of the shifted system.
  *
+ * Problems with node coordinates (stretched grids) or periodic sides are solved by the multigrid
+ * of `stretched_solve.ts` (same options and result; the singular case there fixes the
+ * volume-weighted mean, which on a uniform grid is the trapezoid mean above).
+ *
  * @param problem The discrete problem (validated here).
  * @param options Solve options; defaults in `resolveOptions`.
  * @returns The solution and convergence record. Never throws for non-convergence.
@@ -107,6 +113,8 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
       }
     }
   }
+  // Node coordinates or periodic sides: the stretched path (`stretched_solve.ts`).
+  if (isStretched(problem)) return solveStretched(problem, o, singular);
   const t0 = performance.now();
   const h = buildHierarchy(problem, o);
   const setupSeconds = (performance.now() - t0) / 1000;

@@ -5,6 +5,7 @@
  */
 import { type BoundaryCondition, type Problem, type Side, SIDES } from "./problem.ts";
 import { validateForms } from "./validate_forms.ts";
+import { validatePeriodic } from "./validate_stretched.ts";
 
 const COEFFICIENTS = ["a", "b", "c", "d", "e", "f"] as const;
 
@@ -14,8 +15,8 @@ export function isDirichletLike(bc: BoundaryCondition): boolean {
 }
 
 /**
- * Whether the problem is singular: no side fixes u or weighs it (only Neumann sides, Robin with
- * α = 0 counting as Neumann) and e ≡ 0, so constants solve the homogeneous problem.
+ * Whether the problem is singular: no side fixes u or weighs it (only Neumann and periodic sides,
+ * Robin with α = 0 counting as Neumann) and e ≡ 0, so constants solve the homogeneous problem.
  */
 export function isSingular(problem: Problem): boolean {
   for (const side of SIDES) {
@@ -174,13 +175,14 @@ export function validateProblem(
   for (const side of SIDES) {
     const bc = problem.boundary[side];
     const path = `problem.boundary.${side}`;
-    if (bc === undefined || !["dirichlet", "neumann", "robin"].includes(bc.kind)) {
+    if (bc === undefined || !["dirichlet", "neumann", "robin", "periodic"].includes(bc.kind)) {
       throw new RangeError(
-        `Invalid ${path}: kind must be one of dirichlet, neumann, robin, got ${
+        `Invalid ${path}: kind must be one of dirichlet, neumann, robin, periodic, got ${
           JSON.stringify(bc?.kind)
         }`,
       );
     }
+    if (bc.kind === "periodic") continue; // checked in pairs by validatePeriodic
     const len = side === "west" || side === "east" ? ny + 1 : nx + 1;
     if (!(bc.values instanceof Float64Array) || bc.values.length !== len) {
       const got = bc.values instanceof Float64Array ? `length ${bc.values.length}` : "no array";
@@ -206,11 +208,12 @@ export function validateProblem(
     }
     if (bc.kind === "robin") validateRobin(problem, side, bc, len);
   }
+  validatePeriodic(problem);
   validateForms(problem);
   const singular = isSingular(problem);
   if (singular && (options.singular ?? "refuse") === "refuse") {
     throw new RangeError(
-      "Problem is singular: every side is Neumann (or Robin with alpha = 0) and e ≡ 0, so any constant can be added to a solution; " +
+      "Problem is singular: every side is Neumann, periodic or Robin with alpha = 0, and e ≡ 0, so any constant can be added to a solution; " +
         'make one side Dirichlet or Robin with alpha ≠ 0, or pass the option singular: "mean-zero"',
     );
   }

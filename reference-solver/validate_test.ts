@@ -2,7 +2,7 @@ import assert from "node:assert/strict";
 import { validateProblem } from "./validate.ts";
 import { solve } from "./solve.ts";
 import { ALL_DIRICHLET, LAPLACE, manufactured, SMOOTH, VARIABLE } from "./_test_problems.ts";
-import { type Problem, robinCondition } from "./problem.ts";
+import { type Problem, robinCondition, type ValuedCondition } from "./problem.ts";
 
 const base = (): Problem => manufactured(VARIABLE, SMOOTH, { nx: 4, ny: 3 }, ALL_DIRICHLET);
 
@@ -43,7 +43,7 @@ Deno.test("validateProblem() names the field, node, coordinates and value of bad
   });
   await t.step("non-finite boundary value", () => {
     const p = base();
-    p.boundary.north.values[2] = Infinity;
+    (p.boundary.north as ValuedCondition).values[2] = Infinity;
     refuses(p, /boundary\.north\.values\[2\] at node \(2, 3\).*Infinity/);
   });
   await t.step("Robin with alpha = beta = 0", () => {

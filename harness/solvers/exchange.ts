@@ -49,7 +49,7 @@ function unsupported(
   if (caps.boundaryKinds) {
     for (const side of SIDES) {
       const kind = task.case.boundary[side].kind;
-      if (!caps.boundaryKinds.includes(kind)) {
+      if (!(caps.boundaryKinds as string[]).includes(kind)) {
         return `the solver declares boundary kinds ${
           caps.boundaryKinds.join(", ")
         }; the case has ${kind} on ${side}`;

@@ -92,7 +92,7 @@ function noMixedTerm(compiled: CompiledCase): boolean {
 function sampleVertex(compiled: CompiledCase, nx: number, ny: number): SampledProblem {
   const p = compiled.sample(nx, ny);
   const boundary = {} as Record<SideName, SampledSide>;
-  for (const side of SIDES) boundary[side] = { ...p.boundary[side] };
+  for (const side of SIDES) boundary[side] = { ...p.boundary[side] } as SampledSide;
   const problem: SampledProblem = {
     domain: { ...p.domain },
     nx: p.nx,
@@ -323,7 +323,9 @@ function cellBoundary(
       values[m] = v;
       if (robin) alpha[m] = bc.alpha!(x, y), beta[m] = bc.beta!(x, y);
     }
-    boundary[side] = robin ? { kind: "robin", alpha, beta, values } : { kind: bc.kind, values };
+    boundary[side] = robin
+      ? { kind: "robin", alpha, beta, values }
+      : { kind: bc.kind as SampledSide["kind"], values };
   }
   return boundary;
 }

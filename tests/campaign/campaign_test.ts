@@ -28,7 +28,7 @@ function defectiveSolver(): Solver {
           const p = kase.sample(nx, ny);
           const hx = (p.domain.x1 - p.domain.x0) / nx;
           const hy = (p.domain.y1 - p.domain.y0) / ny;
-          const east = p.boundary.east;
+          const east = p.boundary.east as { values: Float64Array };
           for (let j = 0; j <= ny; j++) {
             east.values[j] = kase.exact(p.domain.x1 - hx / 2, p.domain.y0 + j * hy);
           }

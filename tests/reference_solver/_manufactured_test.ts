@@ -7,6 +7,7 @@ import assert from "node:assert/strict";
 import { assertClose } from "../../testing/mod.ts";
 import { CUBIC, expSinCos, type Field, QUADRATIC, SMOOTH, VARIABLE } from "./_manufactured.ts";
 import { manufacturedProblem, MIXED } from "./_build.ts";
+import type { ValuedCondition } from "../../reference-solver/mod.ts";
 
 /** A small deterministic generator (LCG) so failures are reproducible. */
 function randomPoints(count: number, seed: number): [number, number][] {
@@ -70,13 +71,13 @@ Deno.test("boundary data of a manufactured problem use the outward normal on eve
   for (let j = 0; j <= grid.ny; j++) {
     const y = domain.y0 + j * (domain.y1 - domain.y0) / grid.ny;
     assertClose(
-      p.boundary.west.values[j],
+      (p.boundary.west as ValuedCondition).values[j],
       u(domain.x0, y),
       { abs: 1e-14 },
       `west Dirichlet, j=${j}`,
     );
     assertClose(
-      p.boundary.east.values[j],
+      (p.boundary.east as ValuedCondition).values[j],
       dOut(domain.x1, y, 1, 0),
       { abs: 1e-6 },
       `east Neumann, j=${j}`,
@@ -87,9 +88,14 @@ Deno.test("boundary data of a manufactured problem use the outward normal on eve
   for (let i = 0; i <= grid.nx; i++) {
     const x = domain.x0 + i * (domain.x1 - domain.x0) / grid.nx;
     const robin = south.alpha * u(x, domain.y0) + south.beta * dOut(x, domain.y0, 0, -1);
-    assertClose(p.boundary.south.values[i], robin, { abs: 1e-6 }, `south Robin, i=${i}`);
     assertClose(
-      p.boundary.north.values[i],
+      (p.boundary.south as ValuedCondition).values[i],
+      robin,
+      { abs: 1e-6 },
+      `south Robin, i=${i}`,
+    );
+    assertClose(
+      (p.boundary.north as ValuedCondition).values[i],
       dOut(x, domain.y1, 0, 1),
       { abs: 1e-6 },
       `north Neumann, i=${i}`,

@@ -26,6 +26,8 @@ export async function scipySolve(
           beta: Array.from(bc.beta),
           values: Array.from(bc.values),
         }
+        : bc.kind === "periodic"
+        ? { kind: bc.kind }
         : { kind: bc.kind, values: Array.from(bc.values) },
     ]),
   );

@@ -58,6 +58,8 @@ async function scipySolve(problem: Problem, upwind: boolean): Promise<Float64Arr
         side,
         bc.kind === "robin"
           ? { ...bc, alpha: arr(bc.alpha), beta: arr(bc.beta), values: arr(bc.values) }
+          : bc.kind === "periodic"
+          ? { ...bc }
           : { ...bc, values: arr(bc.values) },
       ]),
     ),
