@@ -6,13 +6,28 @@
  * @module
  */
 import type { SolveOptions } from "../../reference-solver/mod.ts";
+import { type Derivation, derivationOf } from "../../cases/mod.ts";
+import type { CaseFile } from "../../cases/case_file.ts";
+import type { CompiledCase } from "../../cases/types.ts";
 import { emptyOutcome, type SolveOutcome, type Solver, type SolveTask } from "../solvers/mod.ts";
 import type { SolverInfo } from "../result/mod.ts";
 
-/** A task sent to a worker: the case by reference (the worker compiles it itself). */
+/**
+ * A task sent to a worker. A case built from a file travels as its derivation, once per worker
+ * (`built`, then only its `key`); the worker compiles it without mathjs. A case made in code travels
+ * by reference and the worker loads it itself.
+ */
 export interface WorkerRequest {
   id: number;
-  case: { id: string; origin: string; parameters: Record<string, number> };
+  case: {
+    id: string;
+    origin: string;
+    parameters: Record<string, number>;
+    /** The pool's name for a case sent with its derivation. */
+    key?: string;
+    /** The case's file and derivation, on the first task of this case for this worker. */
+    built?: { file: CaseFile; derivation: Derivation };
+  };
   task: Omit<SolveTask, "case">;
 }
 
@@ -60,6 +75,29 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
   const pending = new Map<number, (reply: WorkerReply) => void>();
   let nextId = 0;
   let closed = false;
+  // the pool's name for each case, and the names each worker has compiled
+  const caseKeys = new WeakMap<CompiledCase, string>();
+  const known = new Map<Worker, Set<string>>();
+  const caseRef = (worker: Worker, kase: CompiledCase): WorkerRequest["case"] => {
+    const ref: WorkerRequest["case"] = {
+      id: kase.id,
+      origin: kase.origin,
+      parameters: kase.parameters,
+    };
+    const derivation = derivationOf(kase);
+    if (derivation === undefined || kase.file === undefined) return ref;
+    let key = caseKeys.get(kase);
+    if (key === undefined) caseKeys.set(kase, key = `case ${nextCase++}`);
+    ref.key = key;
+    const seen = known.get(worker) ?? new Set<string>();
+    known.set(worker, seen);
+    if (!seen.has(key)) {
+      seen.add(key);
+      ref.built = { file: kase.file, derivation };
+    }
+    return ref;
+  };
+  let nextCase = 0;
 
   for (let k = 0; k < count; k++) {
     const worker = new Worker(new URL("./reference_worker.ts", import.meta.url), {
@@ -109,7 +147,7 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
           worker.postMessage(
             {
               id,
-              case: { id: kase.id, origin: kase.origin, parameters: kase.parameters },
+              case: caseRef(worker, kase),
               task: rest,
             } satisfies WorkerRequest,
           );

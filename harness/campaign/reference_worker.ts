@@ -1,11 +1,13 @@
 /**
- * Worker script of the pooled reference solver: loads cases (cached) and runs the in-process
- * reference solver on the tasks it is sent, posting back the outcome with its arrays transferred.
+ * Worker script of the pooled reference solver: compiles the cases it is sent from their
+ * derivations (no mathjs; cases made in code are loaded by reference), keeps them, and runs the
+ * in-process reference solver on the tasks it is sent, posting back the outcome with its arrays
+ * transferred.
  *
  * @module
  */
 /// <reference lib="deno.worker" />
-import { loadCase } from "../../cases/mod.ts";
+import { compileDerivation, loadCase } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { createReferenceSolver } from "../solvers/mod.ts";
 import type { SolveOptions } from "../../reference-solver/mod.ts";
@@ -15,12 +17,17 @@ const cases = new Map<string, Promise<CompiledCase>>();
 let solver: ReturnType<typeof createReferenceSolver> | undefined;
 
 function caseFor(ref: WorkerRequest["case"]): Promise<CompiledCase> {
-  const key = JSON.stringify(ref);
+  const key = ref.key ?? JSON.stringify(ref);
   let found = cases.get(key);
   if (!found) {
-    found = loadCase(ref.origin === "library" ? ref.id : ref.origin, {
-      parameters: ref.parameters,
-    });
+    found = ref.built
+      ? Promise.resolve(
+        compileDerivation(ref.built.file, ref.built.derivation, {
+          origin: ref.origin,
+          parameters: ref.parameters,
+        }),
+      )
+      : loadCase(ref.origin === "library" ? ref.id : ref.origin, { parameters: ref.parameters });
     cases.set(key, found);
   }
   return found;

@@ -5,6 +5,7 @@
  *
  * @module
  */
+import { derivationCacheDir } from "./cache_dir.ts";
 import type { Command } from "commander";
 import { escapeTerminal } from "../report/mod.ts";
 import {
@@ -246,7 +247,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     )
     .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {
       const parameters = parseParameterFlags(opts.param);
-      const c = await loadCase(id, { parameters });
+      const c = await loadCase(id, { parameters, cacheDir: derivationCacheDir() });
       console.log(terminalSafe(showCase(c, opts.tex === true)));
     });
   cases
@@ -300,7 +301,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
         }
         const parameters = parseParameterFlags(opts.param);
         if (opts.out !== undefined) await checkOutPath(opts.out, opts.force === true);
-        const c = await loadCase(id, { parameters });
+        const c = await loadCase(id, { parameters, cacheDir: derivationCacheDir() });
         const text = exportCase(c, opts.lang, { version: VERSION });
         if (opts.out === undefined) {
           console.log(text.replace(/\n$/, ""));
