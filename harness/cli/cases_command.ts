@@ -5,7 +5,6 @@
  *
  * @module
  */
-import { derivationCacheDir } from "./cache_dir.ts";
 import type { Command } from "commander";
 import { escapeTerminal } from "../report/mod.ts";
 import {
@@ -247,7 +246,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     )
     .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {
       const parameters = parseParameterFlags(opts.param);
-      const c = await loadCase(id, { parameters, cacheDir: derivationCacheDir() });
+      const c = await loadCase(id, { parameters });
       console.log(terminalSafe(showCase(c, opts.tex === true)));
     });
   cases
@@ -301,7 +300,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
         }
         const parameters = parseParameterFlags(opts.param);
         if (opts.out !== undefined) await checkOutPath(opts.out, opts.force === true);
-        const c = await loadCase(id, { parameters, cacheDir: derivationCacheDir() });
+        const c = await loadCase(id, { parameters });
         const text = exportCase(c, opts.lang, { version: VERSION });
         if (opts.out === undefined) {
           console.log(text.replace(/\n$/, ""));

@@ -7,7 +7,6 @@
  */
 import type { Command } from "commander";
 import { type CompiledCase, loadCase } from "../../cases/mod.ts";
-import { derivationCacheDir } from "./cache_dir.ts";
 import {
   CYCLE_NAMES,
   type CycleName,
@@ -155,10 +154,7 @@ export async function runSolve(flags: SolveFlags): Promise<SolveReport> {
   if (!flags.case) {
     throw bad("--case", "is required: give a built-in case id (see `gridproof cases`) or a file");
   }
-  const c = await loadCase(flags.case, {
-    parameters: parseParameterFlags(flags.param ?? []),
-    cacheDir: derivationCacheDir(),
-  });
+  const c = await loadCase(flags.case, { parameters: parseParameterFlags(flags.param ?? []) });
   const n = integerFlag("--n", flags.n, 2) ?? c.grids[c.grids.length - 1];
   const options = solveOptionsFromFlags(flags, c);
   const { nx, ny } = c.gridFor(n);
