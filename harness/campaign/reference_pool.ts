@@ -10,7 +10,7 @@ import { type Derivation, derivationOf } from "../../cases/mod.ts";
 import type { CaseFile } from "../../cases/case_file.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { emptyOutcome, type SolveOutcome, type Solver, type SolveTask } from "../solvers/mod.ts";
-import type { SolverInfo } from "../result/mod.ts";
+import type { SolveRecord, SolverInfo } from "../result/mod.ts";
 
 /**
  * A task sent to a worker. A case built from a file travels as its derivation, once per worker
@@ -29,13 +29,29 @@ export interface WorkerRequest {
     built?: { file: CaseFile; derivation: Derivation };
   };
   task: Omit<SolveTask, "case">;
+  /** Measure the outcome in the worker too (`measureOutcome`), under this solver name. */
+  measure?: { solver: string; tolerance: number };
 }
 
 /** A worker's answer. */
 export interface WorkerReply {
   id: number;
   outcome?: SolveOutcome;
+  /** The outcome's record, when the request asked for it. */
+  record?: SolveRecord;
   error?: string;
+}
+
+/**
+ * A solver that can also measure its outcome where it solved it (in a worker), so the campaign's
+ * main thread does not: `record` is what `measureOutcome(task.case, info.name, outcome,
+ * tolerance)` gives, computed by the same code on the same inputs.
+ */
+export interface MeasuringSolver extends Solver {
+  solveMeasured(
+    task: SolveTask,
+    tolerance: number,
+  ): Promise<{ outcome: SolveOutcome; record?: SolveRecord }>;
 }
 
 /** Options of {@link createPooledReferenceSolver}. */
@@ -58,7 +74,9 @@ export interface PooledReferenceOptions {
  * await solver.close();
  * ```
  */
-export function createPooledReferenceSolver(options: PooledReferenceOptions = {}): Solver {
+export function createPooledReferenceSolver(
+  options: PooledReferenceOptions = {},
+): MeasuringSolver {
   const count = Math.max(1, options.workers ?? 2);
   const info: SolverInfo = {
     name: options.name ?? "reference",
@@ -126,41 +144,56 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
     waiting.shift()?.();
   }
 
+  async function run(
+    task: SolveTask,
+    measure?: WorkerRequest["measure"],
+  ): Promise<{ outcome: SolveOutcome; record?: SolveRecord }> {
+    const started = performance.now();
+    const stopped = () =>
+      emptyOutcome("failed", "the reference solver pool was stopped before this solve ended", {
+        layout: "vertex",
+        nx: task.nx,
+        ny: task.ny,
+      }, { seconds: (performance.now() - started) / 1000 });
+    const worker = await acquire();
+    // closed while this solve waited for its turn: the worker is gone
+    if (worker === undefined || closed) return { outcome: stopped() };
+    try {
+      const id = nextId++;
+      const reply = await new Promise<WorkerReply>((resolve) => {
+        pending.set(id, resolve);
+        const { case: kase, ...rest } = task;
+        worker.postMessage(
+          {
+            id,
+            case: caseRef(worker, kase),
+            task: rest,
+            ...(measure ? { measure } : {}),
+          } satisfies WorkerRequest,
+        );
+      });
+      if (reply.outcome) {
+        return { outcome: reply.outcome, ...(reply.record ? { record: reply.record } : {}) };
+      }
+      return {
+        outcome: emptyOutcome("failed", `the reference solver failed: ${reply.error}`, {
+          layout: "vertex",
+          nx: task.nx,
+          ny: task.ny,
+        }, { seconds: (performance.now() - started) / 1000 }),
+      };
+    } finally {
+      release(worker);
+    }
+  }
+
   return {
     info,
     async solve(task: SolveTask): Promise<SolveOutcome> {
-      const started = performance.now();
-      const stopped = () =>
-        emptyOutcome("failed", "the reference solver pool was stopped before this solve ended", {
-          layout: "vertex",
-          nx: task.nx,
-          ny: task.ny,
-        }, { seconds: (performance.now() - started) / 1000 });
-      const worker = await acquire();
-      // closed while this solve waited for its turn: the worker is gone
-      if (worker === undefined || closed) return stopped();
-      try {
-        const id = nextId++;
-        const reply = await new Promise<WorkerReply>((resolve) => {
-          pending.set(id, resolve);
-          const { case: kase, ...rest } = task;
-          worker.postMessage(
-            {
-              id,
-              case: caseRef(worker, kase),
-              task: rest,
-            } satisfies WorkerRequest,
-          );
-        });
-        if (reply.outcome) return reply.outcome;
-        return emptyOutcome("failed", `the reference solver failed: ${reply.error}`, {
-          layout: "vertex",
-          nx: task.nx,
-          ny: task.ny,
-        }, { seconds: (performance.now() - started) / 1000 });
-      } finally {
-        release(worker);
-      }
+      return (await run(task)).outcome;
+    },
+    solveMeasured(task: SolveTask, tolerance: number) {
+      return run(task, { solver: info.name, tolerance });
     },
     close(): Promise<void> {
       if (!closed) {

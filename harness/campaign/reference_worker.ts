@@ -12,6 +12,7 @@ import type { CompiledCase } from "../../cases/types.ts";
 import { createReferenceSolver } from "../solvers/mod.ts";
 import type { SolveOptions } from "../../reference-solver/mod.ts";
 import type { WorkerReply, WorkerRequest } from "./reference_pool.ts";
+import { measureOutcome } from "./measure.ts";
 
 const cases = new Map<string, Promise<CompiledCase>>();
 let solver: ReturnType<typeof createReferenceSolver> | undefined;
@@ -45,6 +46,15 @@ self.onmessage = async (event: MessageEvent<WorkerRequest | { setup: SolveOption
     solver ??= createReferenceSolver();
     const outcome = await solver.solve({ ...message.task, case: kase });
     reply = { id: message.id, outcome };
+    // measured here, off the campaign's main thread, before the arrays are transferred away
+    if (message.measure) {
+      reply.record = measureOutcome(
+        kase,
+        message.measure.solver,
+        outcome,
+        message.measure.tolerance,
+      );
+    }
   } catch (error) {
     reply = { id: message.id, error: error instanceof Error ? error.message : String(error) };
   }
