@@ -20,7 +20,14 @@ import { checkInterfaceConditions } from "./continuity.ts";
 import { CONSERVATIVE_TERMS, type DerivedRegion, deriveRegion, GENERAL_TERMS } from "./operator.ts";
 import { faceConductivity, gridMisses, piecewiseMean } from "./regions.ts";
 import type { DomainCheckOptions, LatticeFill } from "./domain_check.ts";
-import { type Expr, involvesNoPoint, toExpr } from "./expression.ts";
+import { type Expr, involvesNoPoint } from "./expression.ts";
+import {
+  type Derivation,
+  type ReadableFormulas,
+  rememberDerivation,
+  toDerivation,
+} from "./derivation.ts";
+import { derivationKey, readCacheEntry, writeCacheEntry } from "./derive_cache.ts";
 import { checkOperator, type OperatorFault } from "./operator_check.ts";
 import { checkRobinWeights } from "./robin_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
@@ -49,6 +56,11 @@ export interface BuildOptions {
    * intervals per direction, 8 refinements per function and kind.
    */
   operatorCheck?: Pick<DomainCheckOptions, "intervals" | "refinements">;
+  /**
+   * The derivation cache folder (`derive_cache.ts`): a case found there is compiled without mathjs,
+   * a case derived anew is stored there with its readable formulas. Default: no cache.
+   */
+  cacheDir?: string;
 }
 
 const SIDES: readonly Side[] = ["west", "east", "south", "north"];
@@ -110,6 +122,31 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
   const defaults = caseFile.parameters ?? {};
   const parameters = mergeParameters(defaults, options.parameters, label);
   const names = Object.keys(defaults);
+  const key = options.cacheDir === undefined
+    ? undefined
+    : await derivationKey(caseFile, parameters);
+  const hit = key === undefined ? undefined : await readCacheEntry(options.cacheDir!, key);
+  if (hit) {
+    const built = assemble(
+      caseFile,
+      options.origin,
+      parameters,
+      hit.derivation,
+      () => hit.formulas,
+    );
+    // the entry was written after the default checks passed on this very derivation
+    if (options.operatorCheck) {
+      const faults = checkRegions(built, hit.derivation, caseFile, options);
+      if (faults.length) {
+        throw collected(
+          file,
+          faults.map((f) => problemAt(file, options.located, f.pointer, f.field, f.message)),
+        );
+      }
+    }
+    rememberDerivation(built.compiled, hit.derivation);
+    return built.compiled;
+  }
   const math = await loadMath();
   const at = (pointer: string, field: string, message: string, column?: number) =>
     problemAt(file, options.located, pointer, field, message, column);
@@ -149,18 +186,27 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       ),
     ]);
   }
-  const built = assemble(math, caseFile, options.origin, parameters, trees, derived);
-  const faults = checkRegions(built, trees, caseFile, options);
+  const derivation = toDerivation(math, trees, derived, parameters);
+  // readable formulas need mathjs's simplify (slow): computed on first use only, or at once when
+  // they go into the cache
+  let shown: ReadableFormulas | undefined;
+  const readable = () => shown ??= readableFormulas(math, trees, caseFile);
+  const built = assemble(caseFile, options.origin, parameters, derivation, readable);
+  const faults = checkRegions(built, derivation, caseFile, options);
   if (faults.length) {
     throw collected(file, faults.map((f) => at(f.pointer, f.field, f.message)));
   }
+  if (key !== undefined && !options.operatorCheck) {
+    await writeCacheEntry(options.cacheDir!, key, { derivation, formulas: readable() });
+  }
+  rememberDerivation(built.compiled, derivation);
   return built.compiled;
 }
 
 /** The operator check of every region, and the interface conditions between them. */
 function checkRegions(
   built: Assembled,
-  trees: CaseTrees,
+  trees: Pick<Derivation, "interfaces" | "form">,
   caseFile: CaseFile,
   options: BuildOptions,
 ): OperatorFault[] {
@@ -253,29 +299,21 @@ interface Assembled {
   fill?: LatticeFill;
 }
 
+/**
+ * Compiles a derivation into a case (no mathjs: the readable formulas come from `readable`, called
+ * on first use of `formulas` or `tex`).
+ */
 function assemble(
-  math: MathTools,
   caseFile: CaseFile,
   origin: string,
   parameters: Record<string, number>,
-  trees: CaseTrees,
-  derived: DerivedRegion[],
+  derivation: Derivation,
+  readable: () => ReadableFormulas,
 ): Assembled {
-  const expr = (node: MathNode): Expr => toExpr(node, parameters);
   const domain = { ...caseFile.domain };
-  const { interfaces, form } = trees;
+  const { interfaces, form } = derivation;
   const conservative = form === "conservative";
-  const regionExprs = derived.map((d, r) => ({
-    coefficients: GENERAL_TERMS.map((k) => expr(d.expanded[k])),
-    conservative: conservative
-      ? CONSERVATIVE_TERMS.map((k) => expr((trees.regions[r].op as Record<string, MathNode>)[k]))
-      : [],
-    source: expr(d.source),
-    exact: expr(trees.regions[r].exact),
-    ux: expr(d.ux),
-    uy: expr(d.uy),
-    boundary: Object.fromEntries(SIDES.map((s) => [s, expr(d.boundary[s])])) as Record<Side, Expr>,
-  }));
+  const regionExprs = derivation.regions;
   const expressions: RegionExpressions[] = regionExprs.map((e) => ({
     exact: e.exact,
     ux: e.ux,
@@ -292,32 +330,22 @@ function assemble(
       }
       : {}),
     boundary: e.boundary,
-    robin: Object.fromEntries(
-      SIDES.flatMap((s) => {
-        const spec = trees.sides[s];
-        return spec.kind === "robin"
-          ? [[s, { alpha: expr(spec.alpha!), beta: expr(spec.beta!) }]]
-          : [];
-      }),
-    ),
+    robin: derivation.robin,
   }));
-  const regions: RegionFunctions[] = derived.map((d, r) => {
-    const e = regionExprs[r];
+  const regions: RegionFunctions[] = regionExprs.map((e) => {
     const [a, b, c, dd, ee, m] = e.coefficients.map(compileExpr);
     const boundary = {} as Record<Side, CaseBoundary>;
     for (const side of SIDES) {
-      const spec = trees.sides[side];
-      const data = compileExpr(expr(d.boundary[side]));
-      boundary[side] = spec.kind === "robin"
+      const spec = caseFile.boundary[side];
+      const data = compileExpr(e.boundary[side]);
+      const weights = derivation.robin[side];
+      boundary[side] = spec.kind === "robin" && weights
         ? {
           kind: "robin",
-          alpha: compileExpr(expr(spec.alpha!)),
-          beta: compileExpr(expr(spec.beta!)),
-          weightsText: {
-            alpha: String(caseFile.boundary[side].alpha ?? 0),
-            beta: String(caseFile.boundary[side].beta ?? 0),
-          },
-          weightsVary: !involvesNoPoint(expr(spec.alpha!)) || !involvesNoPoint(expr(spec.beta!)),
+          alpha: compileExpr(weights.alpha),
+          beta: compileExpr(weights.beta),
+          weightsText: { alpha: String(spec.alpha ?? 0), beta: String(spec.beta ?? 0) },
+          weightsVary: !involvesNoPoint(weights.alpha) || !involvesNoPoint(weights.beta),
           data,
         }
         : { kind: spec.kind, data };
@@ -328,10 +356,10 @@ function assemble(
       mixedZero: involvesNoPoint(mExpr) && m(0, 0) === 0,
       source: compileExpr(e.source),
       exact: compileExpr(e.exact),
-      ux: compileExpr(expr(d.ux)),
-      uy: compileExpr(expr(d.uy)),
-      fluxX: compileExpr(expr(d.flux.x)),
-      fluxY: compileExpr(expr(d.flux.y)),
+      ux: compileExpr(e.ux),
+      uy: compileExpr(e.uy),
+      fluxX: compileExpr(e.fluxX),
+      fluxY: compileExpr(e.fluxY),
       boundary,
     };
     if (conservative) {
@@ -440,71 +468,10 @@ function assemble(
     boundary,
   };
   if (spec.mixed === undefined) delete spec.mixed;
-  const formulasOf = (simple: DerivedRegion[], render: (n: MathNode) => string): CaseFormulas => {
-    const d0 = simple[0];
-    const out: CaseFormulas = {
-      a: render(d0.expanded.a),
-      b: render(d0.expanded.b),
-      c: render(d0.expanded.c),
-      d: render(d0.expanded.d),
-      e: render(d0.expanded.e),
-      exact: render(trees.regions[0].exact),
-      source: render(d0.source),
-      boundary: {
-        west: render(d0.boundary.west),
-        east: render(d0.boundary.east),
-        south: render(d0.boundary.south),
-        north: render(d0.boundary.north),
-      },
-    };
-    if (!isZeroTree(math, d0.expanded.m)) out.m = render(d0.expanded.m);
-    const op0 = trees.regions[0].op;
-    if (op0.form === "conservative") {
-      out.conservative = {
-        k11: render(op0.k11),
-        k12: render(op0.k12),
-        k22: render(op0.k22),
-        bx: render(op0.bx),
-        by: render(op0.by),
-        sigma: render(op0.sigma),
-      };
-    }
-    if (simple.length > 1) {
-      out.regions = simple.map((d, r) => {
-        const op = trees.regions[r].op;
-        return {
-          exact: render(trees.regions[r].exact),
-          source: render(d.source),
-          ...(op.form === "conservative"
-            ? { k11: render(op.k11), k12: render(op.k12), k22: render(op.k22) }
-            : {}),
-        };
-      });
-    }
-    return out;
-  };
-  // readable formulas need mathjs's simplify (slow): computed on first use only
-  let shown: { text: CaseFormulas; tex: CaseFormulas } | undefined;
-  const readable = () => {
-    if (!shown) {
-      const simple = trees.regions.map((r) =>
-        deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })
-      );
-      shown = {
-        text: formulasOf(simple, (n) => n.toString()),
-        tex: formulasOf(simple, (n) => n.toTex()),
-      };
-    }
-    return shown;
-  };
   const aspect = caseFile.aspect ?? 1;
   // Without convection (b ≡ d ≡ 0) upwinding changes nothing: the upwind scheme is the central
   // scheme, so it is expected to behave exactly like it (exact identity of the stencils).
-  const noConvection = conservative
-    ? trees.regions.every((r) =>
-      r.op.form === "conservative" && isZeroTree(math, r.op.bx) && isZeroTree(math, r.op.by)
-    )
-    : isZeroTree(math, derived[0].expanded.b) && isZeroTree(math, derived[0].expanded.d);
+  const noConvection = derivation.noConvection;
   const expected: Record<"central" | "upwind", ExpectedOrder> = {
     central: caseFile.expected.central,
     upwind: noConvection
@@ -568,4 +535,87 @@ function assemble(
     exactSampler.run(x0, hx, nx, y0, hy, 0, ny + 1, [outputs[6]]);
   };
   return { compiled, regions, fill };
+}
+
+function formulasOf(
+  math: MathTools,
+  trees: CaseTrees,
+  simple: DerivedRegion[],
+  render: (n: MathNode) => string,
+): CaseFormulas {
+  const d0 = simple[0];
+  const out: CaseFormulas = {
+    a: render(d0.expanded.a),
+    b: render(d0.expanded.b),
+    c: render(d0.expanded.c),
+    d: render(d0.expanded.d),
+    e: render(d0.expanded.e),
+    exact: render(trees.regions[0].exact),
+    source: render(d0.source),
+    boundary: {
+      west: render(d0.boundary.west),
+      east: render(d0.boundary.east),
+      south: render(d0.boundary.south),
+      north: render(d0.boundary.north),
+    },
+  };
+  if (!isZeroTree(math, d0.expanded.m)) out.m = render(d0.expanded.m);
+  const op0 = trees.regions[0].op;
+  if (op0.form === "conservative") {
+    out.conservative = {
+      k11: render(op0.k11),
+      k12: render(op0.k12),
+      k22: render(op0.k22),
+      bx: render(op0.bx),
+      by: render(op0.by),
+      sigma: render(op0.sigma),
+    };
+  }
+  if (simple.length > 1) {
+    out.regions = simple.map((d, r) => {
+      const op = trees.regions[r].op;
+      return {
+        exact: render(trees.regions[r].exact),
+        source: render(d.source),
+        ...(op.form === "conservative"
+          ? { k11: render(op.k11), k12: render(op.k12), k22: render(op.k22) }
+          : {}),
+      };
+    });
+  }
+  return out;
+}
+
+/** The readable formulas of a case: its trees derived again and simplified by mathjs (slow). */
+function readableFormulas(math: MathTools, trees: CaseTrees, caseFile: CaseFile): ReadableFormulas {
+  const simple = trees.regions.map((r) =>
+    deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })
+  );
+  return {
+    text: formulasOf(math, trees, simple, (n) => n.toString()),
+    tex: formulasOf(math, trees, simple, (n) => n.toTex()),
+  };
+}
+
+/**
+ * Compiles a case from a derivation made (and checked) by {@link buildCase} in another thread,
+ * without mathjs and without checking again: the pool workers' way to a case. The readable
+ * formulas are not available there (asking for them throws an Error).
+ *
+ * @param caseFile the case's validated file (`CompiledCase.file`)
+ * @param derivation the case's derivation (`derivationOf` of the built case)
+ * @param options the case's origin and its merged parameter values (`CompiledCase.parameters`)
+ */
+export function compileDerivation(
+  caseFile: CaseFile,
+  derivation: Derivation,
+  options: { origin: string; parameters: Record<string, number> },
+): CompiledCase {
+  const { compiled } = assemble(caseFile, options.origin, options.parameters, derivation, () => {
+    throw new Error(
+      `the readable formulas of case "${caseFile.id}" are made in the main thread, not in a worker`,
+    );
+  });
+  rememberDerivation(compiled, derivation);
+  return compiled;
 }

@@ -18,6 +18,11 @@ const LIBRARY = new URL("./library/", import.meta.url);
 export interface LoadOptions {
   /** Parameter values overriding the case's defaults, e.g. `{ width: 0.1 }`. Default: none. */
   parameters?: Record<string, number>;
+  /**
+   * The derivation cache folder (`derive_cache.ts`); the CLI passes its default from
+   * `harness/cli/cache_dir.ts`. Default: no cache.
+   */
+  cacheDir?: string;
 }
 
 /**
@@ -105,6 +110,7 @@ async function loadFile(
     file: label,
     ...(located ? { located } : {}),
     ...(options.parameters ? { parameters: options.parameters } : {}),
+    ...(options.cacheDir !== undefined ? { cacheDir: options.cacheDir } : {}),
   });
   return built;
 }
@@ -167,10 +173,12 @@ export async function libraryFiles(): Promise<CaseFile[]> {
  *
  * @throws {InputError} if a library file is broken or its id does not match its file name
  */
-export async function loadLibrary(): Promise<CompiledCase[]> {
+export async function loadLibrary(
+  options: Pick<LoadOptions, "cacheDir"> = {},
+): Promise<CompiledCase[]> {
   const cases: CompiledCase[] = [];
   for (const id of libraryIds()) {
-    const c = await loadCase(id);
+    const c = await loadCase(id, options);
     if (c.id !== id) {
       throw new InputError(`the id "${c.id}" differs from the file name; rename one`, {
         where: `cases/library/${id}.json`,
@@ -187,12 +195,15 @@ export async function loadLibrary(): Promise<CompiledCase[]> {
  *
  * @throws {InputError} for the first broken file, or a duplicate id
  */
-export async function loadCaseFiles(paths: readonly string[]): Promise<CompiledCase[]> {
+export async function loadCaseFiles(
+  paths: readonly string[],
+  options: Pick<LoadOptions, "cacheDir"> = {},
+): Promise<CompiledCase[]> {
   const cases: CompiledCase[] = [];
   const seen = new Map<string, string>();
   for (const id of libraryIds()) seen.set(id, `cases/library/${id}.json`);
   for (const path of paths) {
-    const c = await loadFile(path, path, path, {});
+    const c = await loadFile(path, path, path, options);
     const other = seen.get(c.id);
     if (other !== undefined) {
       throw new InputError(

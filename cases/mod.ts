@@ -71,7 +71,8 @@ export {
   type LoadOptions,
 } from "./load.ts";
 export { type CaseValidation, validateCaseText } from "./validate.ts";
-export { buildCase, type BuildOptions } from "./engine.ts";
+export { buildCase, type BuildOptions, compileDerivation } from "./engine.ts";
+export { type Derivation, derivationOf } from "./derivation.ts";
 export { expectationFor } from "./expectation_for.ts";
 export {
   caseIdentifier,

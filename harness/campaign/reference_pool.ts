@@ -6,21 +6,52 @@
  * @module
  */
 import type { SolveOptions } from "../../reference-solver/mod.ts";
+import { type Derivation, derivationOf } from "../../cases/mod.ts";
+import type { CaseFile } from "../../cases/case_file.ts";
+import type { CompiledCase } from "../../cases/types.ts";
 import { emptyOutcome, type SolveOutcome, type Solver, type SolveTask } from "../solvers/mod.ts";
-import type { SolverInfo } from "../result/mod.ts";
+import type { SolveRecord, SolverInfo } from "../result/mod.ts";
 
-/** A task sent to a worker: the case by reference (the worker compiles it itself). */
+/**
+ * A task sent to a worker. A case built from a file travels as its derivation, once per worker
+ * (`built`, then only its `key`); the worker compiles it without mathjs. A case made in code travels
+ * by reference and the worker loads it itself.
+ */
 export interface WorkerRequest {
   id: number;
-  case: { id: string; origin: string; parameters: Record<string, number> };
+  case: {
+    id: string;
+    origin: string;
+    parameters: Record<string, number>;
+    /** The pool's name for a case sent with its derivation. */
+    key?: string;
+    /** The case's file and derivation, on the first task of this case for this worker. */
+    built?: { file: CaseFile; derivation: Derivation };
+  };
   task: Omit<SolveTask, "case">;
+  /** Measure the outcome in the worker too (`measureOutcome`), under this solver name. */
+  measure?: { solver: string; tolerance: number };
 }
 
 /** A worker's answer. */
 export interface WorkerReply {
   id: number;
   outcome?: SolveOutcome;
+  /** The outcome's record, when the request asked for it. */
+  record?: SolveRecord;
   error?: string;
+}
+
+/**
+ * A solver that can also measure its outcome where it solved it (in a worker), so the campaign's
+ * main thread does not: `record` is what `measureOutcome(task.case, info.name, outcome,
+ * tolerance)` gives, computed by the same code on the same inputs.
+ */
+export interface MeasuringSolver extends Solver {
+  solveMeasured(
+    task: SolveTask,
+    tolerance: number,
+  ): Promise<{ outcome: SolveOutcome; record?: SolveRecord }>;
 }
 
 /** Options of {@link createPooledReferenceSolver}. */
@@ -43,7 +74,9 @@ export interface PooledReferenceOptions {
  * await solver.close();
  * ```
  */
-export function createPooledReferenceSolver(options: PooledReferenceOptions = {}): Solver {
+export function createPooledReferenceSolver(
+  options: PooledReferenceOptions = {},
+): MeasuringSolver {
   const count = Math.max(1, options.workers ?? 2);
   const info: SolverInfo = {
     name: options.name ?? "reference",
@@ -60,6 +93,29 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
   const pending = new Map<number, (reply: WorkerReply) => void>();
   let nextId = 0;
   let closed = false;
+  // the pool's name for each case, and the names each worker has compiled
+  const caseKeys = new WeakMap<CompiledCase, string>();
+  const known = new Map<Worker, Set<string>>();
+  const caseRef = (worker: Worker, kase: CompiledCase): WorkerRequest["case"] => {
+    const ref: WorkerRequest["case"] = {
+      id: kase.id,
+      origin: kase.origin,
+      parameters: kase.parameters,
+    };
+    const derivation = derivationOf(kase);
+    if (derivation === undefined || kase.file === undefined) return ref;
+    let key = caseKeys.get(kase);
+    if (key === undefined) caseKeys.set(kase, key = `case ${nextCase++}`);
+    ref.key = key;
+    const seen = known.get(worker) ?? new Set<string>();
+    known.set(worker, seen);
+    if (!seen.has(key)) {
+      seen.add(key);
+      ref.built = { file: kase.file, derivation };
+    }
+    return ref;
+  };
+  let nextCase = 0;
 
   for (let k = 0; k < count; k++) {
     const worker = new Worker(new URL("./reference_worker.ts", import.meta.url), {
@@ -88,41 +144,56 @@ export function createPooledReferenceSolver(options: PooledReferenceOptions = {}
     waiting.shift()?.();
   }
 
+  async function run(
+    task: SolveTask,
+    measure?: WorkerRequest["measure"],
+  ): Promise<{ outcome: SolveOutcome; record?: SolveRecord }> {
+    const started = performance.now();
+    const stopped = () =>
+      emptyOutcome("failed", "the reference solver pool was stopped before this solve ended", {
+        layout: "vertex",
+        nx: task.nx,
+        ny: task.ny,
+      }, { seconds: (performance.now() - started) / 1000 });
+    const worker = await acquire();
+    // closed while this solve waited for its turn: the worker is gone
+    if (worker === undefined || closed) return { outcome: stopped() };
+    try {
+      const id = nextId++;
+      const reply = await new Promise<WorkerReply>((resolve) => {
+        pending.set(id, resolve);
+        const { case: kase, ...rest } = task;
+        worker.postMessage(
+          {
+            id,
+            case: caseRef(worker, kase),
+            task: rest,
+            ...(measure ? { measure } : {}),
+          } satisfies WorkerRequest,
+        );
+      });
+      if (reply.outcome) {
+        return { outcome: reply.outcome, ...(reply.record ? { record: reply.record } : {}) };
+      }
+      return {
+        outcome: emptyOutcome("failed", `the reference solver failed: ${reply.error}`, {
+          layout: "vertex",
+          nx: task.nx,
+          ny: task.ny,
+        }, { seconds: (performance.now() - started) / 1000 }),
+      };
+    } finally {
+      release(worker);
+    }
+  }
+
   return {
     info,
     async solve(task: SolveTask): Promise<SolveOutcome> {
-      const started = performance.now();
-      const stopped = () =>
-        emptyOutcome("failed", "the reference solver pool was stopped before this solve ended", {
-          layout: "vertex",
-          nx: task.nx,
-          ny: task.ny,
-        }, { seconds: (performance.now() - started) / 1000 });
-      const worker = await acquire();
-      // closed while this solve waited for its turn: the worker is gone
-      if (worker === undefined || closed) return stopped();
-      try {
-        const id = nextId++;
-        const reply = await new Promise<WorkerReply>((resolve) => {
-          pending.set(id, resolve);
-          const { case: kase, ...rest } = task;
-          worker.postMessage(
-            {
-              id,
-              case: { id: kase.id, origin: kase.origin, parameters: kase.parameters },
-              task: rest,
-            } satisfies WorkerRequest,
-          );
-        });
-        if (reply.outcome) return reply.outcome;
-        return emptyOutcome("failed", `the reference solver failed: ${reply.error}`, {
-          layout: "vertex",
-          nx: task.nx,
-          ny: task.ny,
-        }, { seconds: (performance.now() - started) / 1000 });
-      } finally {
-        release(worker);
-      }
+      return (await run(task)).outcome;
+    },
+    solveMeasured(task: SolveTask, tolerance: number) {
+      return run(task, { solver: info.name, tolerance });
     },
     close(): Promise<void> {
       if (!closed) {

@@ -11,6 +11,7 @@ import type { SolveRecord } from "../result/mod.ts";
 import type { JobNote, Solver } from "../solvers/mod.ts";
 import { type JournaledSolve, JournalWriter, solveInputs, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";
+import type { MeasuringSolver } from "./reference_pool.ts";
 import { errorMap } from "../analysis/mod.ts";
 
 /** One planned solve. */
@@ -151,7 +152,7 @@ export async function runSolves(
       const p = plan[index];
       const key = solveKey({ caseId: p.kase.id, solver: p.solver.info.name, nx: p.nx, ny: p.ny });
       const earlierJob = options.submitted?.get(key);
-      const outcome = await p.solver.solve({
+      const task = {
         case: p.kase,
         nx: p.nx,
         ny: p.ny,
@@ -168,11 +169,16 @@ export async function runSolves(
             },
           }
           : {}),
-      });
+      };
+      // a pooled solver measures in its worker, off this thread
+      const measuring = (p.solver as Partial<MeasuringSolver>).solveMeasured;
+      const { outcome, record: measured } = measuring
+        ? await measuring.call(p.solver, task, tolerance)
+        : { outcome: await p.solver.solve(task), record: undefined };
       // A solve that ended because the campaign was interrupted (its process killed) did not
       // finish: it is not recorded, so a resume runs it again.
       if (options.signal?.aborted) return;
-      const record = measureOutcome(p.kase, p.solver.info.name, outcome, tolerance);
+      const record = measured ?? measureOutcome(p.kase, p.solver.info.name, outcome, tolerance);
       records[index] = record;
       if (outcome.status === "ok" && outcome.layout === "vertex") {
         const key = compareKey(p);

@@ -33,6 +33,7 @@ import {
 } from "../solvers/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { InputError } from "./errors.ts";
+import { derivationCacheDir } from "./cache_dir.ts";
 import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
 import { solverBuild } from "./solver_build.ts";
@@ -174,10 +175,13 @@ export async function selectCases(
         });
       }
     });
-    for (const id of ids) cases.push(await loadCase(id));
+    for (const id of ids) cases.push(await loadCase(id, { cacheDir: derivationCacheDir() }));
   }
-  if (flags.caseFile !== undefined) cases.push(...await loadCaseFiles(flags.caseFile));
-  if (flags.cases === undefined && flags.caseFile === undefined) cases.push(...await loadLibrary());
+  const cache = { cacheDir: derivationCacheDir() };
+  if (flags.caseFile !== undefined) cases.push(...await loadCaseFiles(flags.caseFile, cache));
+  if (flags.cases === undefined && flags.caseFile === undefined) {
+    cases.push(...await loadLibrary(cache));
+  }
   const seen = new Map<string, string>();
   for (const c of cases) {
     const other = seen.get(c.id);

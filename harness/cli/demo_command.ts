@@ -11,6 +11,7 @@
 import { fileURLToPath } from "node:url";
 import type { Command } from "commander";
 import { loadLibrary } from "../../cases/mod.ts";
+import { derivationCacheDir } from "./cache_dir.ts";
 import { createPooledReferenceSolver, runCampaign } from "../campaign/mod.ts";
 import type { CampaignResult } from "../result/mod.ts";
 import { createExternalSolver, loadSolverFile, type Solver } from "../solvers/mod.ts";
@@ -143,7 +144,7 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
     `Before release, it verifies the candidate (${CANDIDATE}) beside the released ${RELEASED} and ` +
       "gridproof's reference multigrid solver on every built-in manufactured-solution case.\n",
   );
-  const cases = await loadLibrary();
+  const cases = await loadLibrary({ cacheDir: derivationCacheDir() });
   // fileURLToPath, not .pathname: a folder name with spaces or non-ASCII letters stays intact
   const specs = await loadSolverFile(fileURLToPath(SOLVER_FILE));
   const solvers: Solver[] = [

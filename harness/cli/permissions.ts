@@ -13,8 +13,8 @@ export type GrantedPermission = "read" | "write" | "env" | "run" | "sys";
 /** Every permission the npm script grants, and why (the README's table says the same). */
 export const WHY_GRANTED: Readonly<Record<GrantedPermission, string>> = {
   read: "case files, solver files, saved results and journals, and the program's own modules",
-  write: "the output folder (journal, result.json, reports) and `--out` files",
-  env: "PATH, to find a solver's command, and NO_COLOR",
+  write: "the output folder (journal, result.json, reports), `--out` files, the derivation cache",
+  env: "PATH, to find a solver's command, NO_COLOR, the derivation cache folder",
   run: "your solvers, util-linux `setsid` to give each its own process group, `kill`, and " +
     "`/bin/sh` with `cat` to list in /proc the processes a solver started; Chromium to print " +
     "`--format pdf`",
