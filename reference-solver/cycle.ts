@@ -24,8 +24,10 @@ export interface CycleParams {
  * Coarse-grid correction on level l for levels[l].u, levels[l].f: relax ν1 times, restrict the
  * residual, solve the error equation on level l + 1 with `solveCoarse` (exactly on the coarsest),
  * interpolate and correct, relax ν2 times. On a singular level the restricted residual has its
- * mean removed first (compatibility with the constant null space). Every cycle is this one
- * function with a different coarse solve.
+ * mean removed first (compatibility with the constant null space). After red–black pre-smoothing
+ * on a five-point level (`Level.redBlack`) the residual is restricted fused, from its red nodes
+ * only (the black ones are zero), and never stored. Every cycle is this one function with a
+ * different coarse solve.
  */
 function correct(
   h: Hierarchy,
@@ -40,9 +42,12 @@ function correct(
   }
   const Lc = h.levels[l + 1];
   L.smoother!.smooth(L.u, L.f, params.pre);
-  residual(L.op, L.u, L.f, L.r);
-  if (L.op.singular) removeMean(L.op, L.r);
-  L.transfer!.restrict(L.r, Lc.f);
+  if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f);
+  else {
+    residual(L.op, L.u, L.f, L.r);
+    if (L.op.singular) removeMean(L.op, L.r);
+    L.transfer!.restrict(L.r, Lc.f);
+  }
   Lc.u.fill(0);
   solveCoarse(l + 1);
   L.transfer!.interpolateAdd(Lc.u, L.u);

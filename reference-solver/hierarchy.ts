@@ -26,7 +26,7 @@
  * @module
  */
 import type { Conductivity, Domain, Problem } from "./problem.ts";
-import type { LevelOperator } from "./level.ts";
+import { isNinePoint, type LevelOperator } from "./level.ts";
 import { discretize } from "./discretize.ts";
 import { createSmoother, type Smoother } from "./smoothers.ts";
 import { createTransfer, type Transfer } from "./transfer.ts";
@@ -67,6 +67,13 @@ export interface Level {
   transfer?: Transfer;
   /** Present on the coarsest level only. */
   direct?: DirectSolver;
+  /**
+   * True when the level's smoother is red–black on a five-point, non-singular level and its
+   * transfer restricts the residual fused (`Transfer.restrictResidual`): after any red–black sweep
+   * the black residuals are zero, so the cycle restricts without storing the residual and the
+   * stop test measures the red residuals only.
+   */
+  redBlack?: boolean;
 }
 
 /**
@@ -322,6 +329,10 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
   }
   for (let l = 0; l + 1 < levels.length && !galerkin; l++) {
     levels[l].transfer = createTransfer(restriction, levels[l].op, levels[l + 1].op);
+  }
+  for (const L of levels) {
+    L.redBlack = options.smoother.name === "red-black" && !isNinePoint(L.op) && !L.op.singular &&
+      L.transfer?.restrictResidual !== undefined;
   }
   return { levels, coarseOperator, interpolation };
 }
