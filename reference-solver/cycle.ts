@@ -85,7 +85,8 @@ function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleP
 
 /**
  * Full multigrid: solve each level's own problem (rhs) exactly on the coarsest grid, interpolate
- * bilinearly to the next finer level as its first guess, run `fmgCyclesPerLevel` cycles of
+ * to the next finer level as its first guess (cubic, `Transfer.interpolateFmg`, where the transfer
+ * offers it; otherwise the transfer's own interpolation, e.g. operator-dependent), run `fmgCyclesPerLevel` cycles of
  * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u. Coarse
  * levels take their own `rhs`; the finest level uses levels[0].f as the caller left it.
  */
@@ -98,7 +99,9 @@ export function fullMultigrid(h: Hierarchy, params: CycleParams): void {
   C.direct!.solve(C.u, C.f);
   for (let l = last - 1; l >= 0; l--) {
     const L = levels[l];
-    L.transfer!.interpolate(levels[l + 1].u, L.u);
+    const T = L.transfer!;
+    if (T.interpolateFmg !== undefined) T.interpolateFmg(levels[l + 1].u, L.u);
+    else T.interpolate(levels[l + 1].u, L.u);
     const dir = L.op.dirichlet;
     for (let m = 0; m < dir.length; m++) L.u[dir[m]] = L.rhs[dir[m]];
     // Level 0 works on levels[0].f, which the caller owns (a singular solve shifts it).

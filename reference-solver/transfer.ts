@@ -27,6 +27,7 @@
 import type { LevelOperator } from "./level.ts";
 import type { RestrictionName } from "./options.ts";
 import { interpolateAddBoth, restrictRedResidual } from "./_kernels.ts";
+import { interpolateCubic } from "./cubic_interpolation.ts";
 
 /** A transfer pair between a fine level and its coarse level. */
 export interface Transfer {
@@ -36,6 +37,11 @@ export interface Transfer {
   interpolateAdd(coarse: Float64Array, fine: Float64Array): void;
   /** fine ← P·coarse (bilinear), every fine node written. */
   interpolate(coarse: Float64Array, fine: Float64Array): void;
+  /**
+   * fine ← cubic interpolation of coarse (`cubic_interpolation.ts`), every fine node written: the
+   * first guess of full multigrid. Absent where FMG keeps `interpolate`.
+   */
+  interpolateFmg?(coarse: Float64Array, fine: Float64Array): void;
   /**
    * coarse ← R·(f − A·u) for a five-point fine level whose black residuals are zero (right after a
    * red–black sweep), without storing the fine residual (`restrictRedResidual` in `_kernels.ts`).
@@ -292,6 +298,7 @@ export function createTransfer(
       ? (c, f) => interpolateAddBoth(c, f, cnx, cny, cs, fs)
       : (c, f) => interp(c, f, true),
     interpolate: (c, f) => interp(c, f, false),
+    interpolateFmg: (c, f) => interpolateCubic(c, f, { cnx, cny, cx, cy }),
     describe: () => ({
       restriction,
       ...(scaling === "volume" ? { scaling } : {}),
