@@ -44,6 +44,7 @@ function correct(
   L.smoother!.smooth(L.u, L.f, params.pre);
   if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f);
   else {
+    if (L.r.length !== L.op.length) L.r = L.op.vector();
     residual(L.op, L.u, L.f, L.r);
     if (L.op.singular) removeMean(L.op, L.r);
     L.transfer!.restrict(L.r, Lc.f);

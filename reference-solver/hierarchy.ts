@@ -57,7 +57,11 @@ export interface Level {
   u: Float64Array;
   /** Right-hand side of the current equation (on the finest level: `rhs` itself). */
   f: Float64Array;
-  /** Residual work vector. */
+  /**
+   * Residual work vector; empty (length 0) on a level that restricts fused after red–black
+   * pre-smoothing (`redBlack` and pre ≥ 1) and never needs it: the cycle allocates it on first use
+   * should it take the unfused path after all.
+   */
   r: Float64Array;
   /** How this level passes to the next coarser one. */
   coarsening: Coarsening;
@@ -316,7 +320,7 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
       rhs,
       u: op.vector(),
       f: depth === 0 ? rhs : op.vector(),
-      r: op.vector(),
+      r: new Float64Array(0), // allocated below where the cycle stores a residual
       coarsening,
     };
     levels.push(level);
@@ -333,6 +337,8 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
   for (const L of levels) {
     L.redBlack = options.smoother.name === "red-black" && !isNinePoint(L.op) && !L.op.singular &&
       L.transfer?.restrictResidual !== undefined;
+    // Memory (issue 16): the fused path never stores a residual on this level.
+    if (!(L.redBlack && options.cycle.pre > 0)) L.r = L.op.vector();
   }
   return { levels, coarseOperator, interpolation };
 }
