@@ -17,7 +17,8 @@ Deno.test("one FMG pass (one V(2,1) per level) leaves an algebraic error at most
   // The measure: ‖u_FMG − u_h‖∞ against ‖u_h − u‖∞, u_h the discrete solution converged to
   // round-off by the same solver (its residual is checked below), u the manufactured exact
   // solution. The bound ½ is the goal of issue 16 ("textbook efficiency": FMG's algebraic error
-  // below the discretization error, Trottenberg et al. 2001 §2.6, recalled from memory). Measured
+  // below the discretization error, Trottenberg et al. 2001 §2.6, recalled from memory; values in
+  // docs/check-values.md, "Multigrid efficiency"). Measured
   // with the cubic first guess: 0.08; with the former bilinear one 0.39 (n = 64) and 0.43
   // (n = 128), growing with n, so this bound alone does not tell the two apart here: the cubic
   // interpolation itself is checked exactly in `reference-solver/cubic_interpolation_test.ts`.
