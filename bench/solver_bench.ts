@@ -31,6 +31,9 @@ import {
   type SolveResult,
 } from "../reference-solver/mod.ts";
 import { benchProblem } from "./bench_problem.ts";
+import { compileYardstick, type Yardstick } from "./c_yardstick.ts";
+import { freshProcessRun } from "./fresh_process.ts";
+import { peakResidentBytes, procText } from "./_proc.ts";
 
 interface Row {
   n: number;
@@ -51,7 +54,31 @@ interface Row {
   cyclePerTriad: number;
   fmgPerTriad: number;
   solvePerTriad: number;
-  peakRssMiB: number;
+  /** Peak resident size of the bench process so far (VmHWM); null where it cannot be read. */
+  peakRssMiB: number | null;
+  /** Seconds of one V(2,1) cycle of the plain C `vcycle.c` (gcc -O3), null without gcc. */
+  cSecondsPerCycle: number | null;
+  /** secondsPerCycle / cSecondsPerCycle, measured side by side in this run. */
+  vCycleRatioToC: number | null;
+  /** The issue's goal for that ratio: 1.3 below n = 1024, 1.0 from there on. */
+  vCycleGoalToC: number;
+  /** Largest relative difference of the first five residual norms, reference against C. */
+  cResidualAgreement: number | null;
+  /** ‖u_fmg − u_converged‖∞ / ‖u_converged − u_exact‖∞ (algebraic over discretization error). */
+  fmgAlgebraicRatio: number;
+  /** Seconds of one FMG pass over the seconds of one red–black sweep on the finest grid. */
+  fmgWorkUnits: number;
+  /** One fine red–black sweep: the work unit. */
+  sweepSeconds: number;
+  /** A fresh process: its first solve, its second, and its peak resident memory (see fresh_process.ts). */
+  freshFirstSolveSeconds: number | null;
+  freshSecondSolveSeconds: number | null;
+  /** (VmHWM after the first solve − VmHWM after sampling) / nodes; null when it cannot be read. */
+  solvePeakBytesPerNode: number | null;
+  /** (VmHWM after sampling − VmHWM before) / nodes: the caller's problem arrays. */
+  problemBytesPerNode: number | null;
+  /** Why the fresh-process measures are missing, when they are. */
+  freshNote?: string;
 }
 
 let triadArrays: Float64Array[] = [];
@@ -77,15 +104,10 @@ function triadSeconds(size: number): number {
   return best;
 }
 
-function peakRssMiB(): number {
-  try {
-    const status = Deno.readTextFileSync("/proc/self/status");
-    const m = /VmHWM:\s+(\d+)\s+kB/.exec(status);
-    if (m) return Number(m[1]) / 1024;
-  } catch {
-    // not Linux: fall back to the current resident size
-  }
-  return Deno.memoryUsage().rss / 2 ** 20;
+/** Peak resident size of this process so far in MiB (VmHWM), or null where it cannot be read. */
+function peakRssMiB(): number | null {
+  const bytes = peakResidentBytes();
+  return bytes === null ? null : bytes / 2 ** 20;
 }
 
 /** Max-norm difference of two arrays. */
@@ -122,32 +144,56 @@ function best(runs: number, exact: Float64Array, f: () => SolveResult): Summary 
   return out!;
 }
 
-function measure(n: number, repeat: number): Row {
+/** Cycles timed per measurement: enough to fill about 0.1 s of C at every n. */
+function cycleReps(unknowns: number): number {
+  return Math.max(5, Math.ceil(4e6 / unknowns));
+}
+
+function measure(n: number, repeat: number, c: Yardstick): Row {
   const { problem, exact } = benchProblem(n);
   const unknowns = (n + 1) * (n + 1);
   const full = best(repeat, exact, () => solve(problem));
   // Peak memory of the process so far: the sampled problem plus full solves at this n (and
   // everything at smaller n, which is less).
   const peak = peakRssMiB();
-  const fmg = best(
-    repeat,
-    exact,
-    () => solve(problem, { cycle: { type: "fmg" }, stop: { maxCycles: 1 } }),
-  );
+  const fmgRun = solve(problem, { cycle: { type: "fmg" }, stop: { maxCycles: 1 } });
+  const converged = solve(problem, { stop: { tolerance: 1e-13, maxCycles: 60 } }).solution;
+  const fmg = {
+    maxError: maxError(fmgRun.solution, exact),
+    algebraic: maxError(fmgRun.solution, converged) / maxError(converged, exact),
+  };
   const fmgSolve = best(repeat, exact, () => solve(problem, { cycle: { type: "fmg" } }));
   // Triad and cycle measured alternately, best of 5 each, so both see the same machine load.
   const h = buildHierarchy(problem, resolveOptions());
   const params = { pre: 2, post: 1, fmgCycle: "V" as const, fmgCyclesPerLevel: 1 };
-  let triad = Infinity, cycleSeconds = Infinity, fmgSeconds = Infinity;
-  for (let rep = 0; rep < 5; rep++) {
-    triad = Math.min(triad, triadSeconds(unknowns));
+  let triad = Infinity, cycleSeconds = Infinity, fmgSeconds = Infinity, sweep = Infinity;
+  const L0 = h.levels[0];
+  const reps = cycleReps(unknowns);
+  for (let rep = 0; rep < reps; rep++) {
+    if (rep < 5) triad = Math.min(triad, triadSeconds(unknowns));
     let t0 = performance.now();
     cycle(h, 0, 1, params);
     cycleSeconds = Math.min(cycleSeconds, (performance.now() - t0) / 1000);
     t0 = performance.now();
+    L0.smoother!.smooth(L0.u, L0.f, 1);
+    sweep = Math.min(sweep, (performance.now() - t0) / 1000);
+    if (rep >= 5) continue;
+    t0 = performance.now();
     fullMultigrid(h, params);
     fmgSeconds = Math.min(fmgSeconds, (performance.now() - t0) / 1000);
   }
+  // The C yardstick right after, at the same n and with as many timed cycles.
+  let cRun = null;
+  if (c.ok && Number.isInteger(Math.log2(n)) && n >= 8) cRun = c.run(n, reps);
+  let agreement = null;
+  if (cRun !== null) {
+    const ours = solve(problem, { stop: { maxCycles: 5, tolerance: 1e-300 } }).residualHistory;
+    agreement = 0;
+    for (let k = 0; k < cRun.residuals.length; k++) {
+      agreement = Math.max(agreement, Math.abs(ours[k] - cRun.residuals[k]) / cRun.residuals[k]);
+    }
+  }
+  const fresh = freshProcessRun(n);
   return {
     n,
     unknowns,
@@ -168,6 +214,18 @@ function measure(n: number, repeat: number): Row {
     fmgPerTriad: fmgSeconds / triad,
     solvePerTriad: full.seconds / triad,
     peakRssMiB: peak,
+    cSecondsPerCycle: cRun?.secondsPerCycle ?? null,
+    vCycleRatioToC: cRun === null ? null : cycleSeconds / cRun.secondsPerCycle,
+    vCycleGoalToC: n < 1024 ? 1.3 : 1.0,
+    cResidualAgreement: agreement,
+    fmgAlgebraicRatio: fmg.algebraic,
+    fmgWorkUnits: fmgSeconds / sweep,
+    sweepSeconds: sweep,
+    freshFirstSolveSeconds: fresh.ok ? fresh.firstSolveSeconds : null,
+    freshSecondSolveSeconds: fresh.ok ? fresh.secondSolveSeconds : null,
+    solvePeakBytesPerNode: fresh.ok ? fresh.solveBytesPerNode : null,
+    problemBytesPerNode: fresh.ok ? fresh.problemBytesPerNode : null,
+    ...(fresh.ok ? {} : { freshNote: fresh.reason }),
   };
 }
 
@@ -192,49 +250,67 @@ function parseArgs(args: string[]): { json: boolean; ns: number[]; repeat: numbe
   return { json, ns, repeat };
 }
 
+const fix = (v: number | null, d: number) => (v === null ? "n/a" : v.toFixed(d));
+
 function main(): void {
   const { json, ns, repeat } = parseArgs(Deno.args);
+  const c = compileYardstick();
   const head = [
     "n",
-    "unknowns",
-    "triad s",
     "s/cycle",
+    "C s/cycle",
+    "ratio to C (goal)",
     "cycle/triad",
     "factor",
     "cycles",
-    "stop",
     "solve s",
     "setup s",
     "fmg+V solve s",
-    "fmg s",
-    "fmg/triad",
     "fmg err ratio",
+    "fmg alg/disc (goal 0.5)",
+    "fmg WU (goal 10)",
+    "1st/2nd solve, fresh",
+    "solve B/node (goal 100)",
+    "problem B/node",
     "peak MiB",
   ];
-  if (!json) console.log(head.join(" | "));
-  for (const n of ns) {
-    const r = measure(n, repeat);
-    if (json) {
-      console.log(JSON.stringify(r));
-      continue;
+  if (!json) {
+    console.log(`load average: ${procText("/proc/loadavg")?.trim() ?? "n/a"}`);
+    console.log(c.ok ? "C yardstick: bench/vcycle.c, gcc -O3" : `C yardstick: none (${c.reason})`);
+    console.log(head.join(" | "));
+  }
+  try {
+    for (const n of ns) {
+      const r = measure(n, repeat, c);
+      if (json) {
+        console.log(JSON.stringify(r));
+        continue;
+      }
+      const fresh = r.freshFirstSolveSeconds === null
+        ? `n/a (${r.freshNote})`
+        : `${r.freshFirstSolveSeconds.toFixed(3)}/${r.freshSecondSolveSeconds!.toFixed(3)}`;
+      console.log([
+        r.n,
+        r.secondsPerCycle.toExponential(3),
+        r.cSecondsPerCycle === null ? "n/a" : r.cSecondsPerCycle.toExponential(3),
+        `${fix(r.vCycleRatioToC, 2)} (${r.vCycleGoalToC})`,
+        r.cyclePerTriad.toFixed(1),
+        r.convergenceFactor.toFixed(3),
+        r.cycles,
+        r.solveSeconds.toFixed(3),
+        r.setupSeconds.toFixed(3),
+        `${r.fmgSolveSeconds.toFixed(3)} (${r.fmgSolveCycles})`,
+        r.fmgErrorRatio.toFixed(3),
+        r.fmgAlgebraicRatio.toFixed(3),
+        r.fmgWorkUnits.toFixed(1),
+        fresh,
+        fix(r.solvePeakBytesPerNode, 0),
+        fix(r.problemBytesPerNode, 0),
+        fix(r.peakRssMiB, 0),
+      ].join(" | "));
     }
-    console.log([
-      r.n,
-      r.unknowns,
-      r.triadSeconds.toExponential(2),
-      r.secondsPerCycle.toExponential(3),
-      r.cyclePerTriad.toFixed(1),
-      r.convergenceFactor.toFixed(3),
-      r.cycles,
-      r.stopReason,
-      r.solveSeconds.toFixed(3),
-      r.setupSeconds.toFixed(3),
-      `${r.fmgSolveSeconds.toFixed(3)} (${r.fmgSolveCycles})`,
-      r.fmgSeconds.toFixed(3),
-      r.fmgPerTriad.toFixed(1),
-      r.fmgErrorRatio.toFixed(3),
-      r.peakRssMiB.toFixed(0),
-    ].join(" | "));
+  } finally {
+    if (c.ok) c.dispose();
   }
 }
 

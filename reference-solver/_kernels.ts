@@ -330,3 +330,82 @@ export function interpolateAddBoth(
     f[fo + 2 * cnx] += 0.5 * (c[c0 + cnx] + c[c1 + cnx]);
   }
 }
+
+/** Residuals of fine row j at the odd columns 1, 3, …, nx − 1 into row[1 …], row[0] and the last zero. */
+function oddColumnResiduals(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  j: number,
+  row: Float64Array,
+): void {
+  const { W, E, S, N, C, stride: s } = op;
+  const cnx = op.nx >> 1;
+  for (let I = 0, k = (j + 1) * s + 2; I < cnx; I++, k += 2) {
+    row[I + 1] = f[k] -
+      (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
+  }
+}
+
+/**
+ * Full-weighting restriction of the residual f − A·u of a five-point level whose black nodes
+ * (i + j odd) have zero residual, as they have right after a red–black Gauss–Seidel sweep: the
+ * edge weights of full weighting then multiply zeros, so only the red residuals enter,
+ *
+ *   out(I, J) = (4·r(2I, 2J) + r(2I ± 1, 2J ± 1)) / 16,
+ *
+ * and the residual is computed at the red nodes only (at the coinciding nodes and at the odd–odd
+ * nodes, each of the latter shared by four coarse nodes through two row buffers), never stored on
+ * the fine grid. Off-grid fine nodes count as zero, like the zero halo of the unfused path. Both
+ * directions must be coarsened (nx, ny even). The caller applies the boundary rescaling and the
+ * coarse Dirichlet zeros afterwards. Equals `residual` then full weighting up to the round-off
+ * left in the black residuals.
+ *
+ * @param rowA Work row of length nx/2 + 2 (entries 0 and the last are kept zero).
+ * @param rowB A second such row.
+ */
+export function restrictRedResidual(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  out: Float64Array,
+  cs: number,
+  rowA: Float64Array,
+  rowB: Float64Array,
+): void {
+  const { W, E, S, N, C, stride: s } = op;
+  const cnx = op.nx >> 1, cny = op.ny >> 1;
+  let prev = rowA, next = rowB;
+  prev.fill(0);
+  for (let J = 0; J <= cny; J++) {
+    if (J < cny) oddColumnResiduals(op, u, f, 2 * J + 1, next);
+    else next.fill(0);
+    const cb = (J + 1) * cs + 1;
+    for (let I = 0, k = (2 * J + 1) * s + 1; I <= cnx; I++, k += 2) {
+      const rc = f[k] -
+        (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
+      out[cb + I] = 0.0625 * (4 * rc + prev[I] + prev[I + 1] + next[I] + next[I + 1]);
+    }
+    const t = prev;
+    prev = next;
+    next = t;
+  }
+}
+
+/**
+ * ‖f − A·u‖₂ over the red nodes (i + j even) of a five-point level: the whole residual norm when
+ * the black residuals are zero, as right after a red–black sweep (up to their round-off).
+ */
+export function redResidualNorm2(op: LevelOperator, u: Float64Array, f: Float64Array): number {
+  const { W, E, S, N, C, nx, ny, stride: s } = op;
+  let sum = 0;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * s + 1;
+    for (let k = base + (j & 1); k <= base + nx; k += 2) {
+      const t = f[k] -
+        (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
+      sum += t * t;
+    }
+  }
+  return Math.sqrt(sum);
+}

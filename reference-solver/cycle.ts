@@ -24,8 +24,10 @@ export interface CycleParams {
  * Coarse-grid correction on level l for levels[l].u, levels[l].f: relax ν1 times, restrict the
  * residual, solve the error equation on level l + 1 with `solveCoarse` (exactly on the coarsest),
  * interpolate and correct, relax ν2 times. On a singular level the restricted residual has its
- * mean removed first (compatibility with the constant null space). Every cycle is this one
- * function with a different coarse solve.
+ * mean removed first (compatibility with the constant null space). After red–black pre-smoothing
+ * on a five-point level (`Level.redBlack`) the residual is restricted fused, from its red nodes
+ * only (the black ones are zero), and never stored. Every cycle is this one function with a
+ * different coarse solve.
  */
 function correct(
   h: Hierarchy,
@@ -40,9 +42,13 @@ function correct(
   }
   const Lc = h.levels[l + 1];
   L.smoother!.smooth(L.u, L.f, params.pre);
-  residual(L.op, L.u, L.f, L.r);
-  if (L.op.singular) removeMean(L.op, L.r);
-  L.transfer!.restrict(L.r, Lc.f);
+  if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f);
+  else {
+    if (L.r.length !== L.op.length) L.r = L.op.vector();
+    residual(L.op, L.u, L.f, L.r);
+    if (L.op.singular) removeMean(L.op, L.r);
+    L.transfer!.restrict(L.r, Lc.f);
+  }
   Lc.u.fill(0);
   solveCoarse(l + 1);
   L.transfer!.interpolateAdd(Lc.u, L.u);
@@ -80,7 +86,8 @@ function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleP
 
 /**
  * Full multigrid: solve each level's own problem (rhs) exactly on the coarsest grid, interpolate
- * bilinearly to the next finer level as its first guess, run `fmgCyclesPerLevel` cycles of
+ * to the next finer level as its first guess (cubic, `Transfer.interpolateFmg`, where the transfer
+ * offers it; otherwise the transfer's own interpolation, e.g. operator-dependent), run `fmgCyclesPerLevel` cycles of
  * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u. Coarse
  * levels take their own `rhs`; the finest level uses levels[0].f as the caller left it.
  */
@@ -93,7 +100,9 @@ export function fullMultigrid(h: Hierarchy, params: CycleParams): void {
   C.direct!.solve(C.u, C.f);
   for (let l = last - 1; l >= 0; l--) {
     const L = levels[l];
-    L.transfer!.interpolate(levels[l + 1].u, L.u);
+    const T = L.transfer!;
+    if (T.interpolateFmg !== undefined) T.interpolateFmg(levels[l + 1].u, L.u);
+    else T.interpolate(levels[l + 1].u, L.u);
     const dir = L.op.dirichlet;
     for (let m = 0; m < dir.length; m++) L.u[dir[m]] = L.rhs[dir[m]];
     // Level 0 works on levels[0].f, which the caller owns (a singular solve shifts it).

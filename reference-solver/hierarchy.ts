@@ -26,7 +26,7 @@
  * @module
  */
 import type { Conductivity, Domain, Problem, Side, ValuedCondition } from "./problem.ts";
-import type { LevelOperator } from "./level.ts";
+import { isNinePoint, type LevelOperator } from "./level.ts";
 import { discretize } from "./discretize.ts";
 import { createSmoother, type Smoother } from "./smoothers.ts";
 import { createTransfer, type Transfer } from "./transfer.ts";
@@ -57,7 +57,11 @@ export interface Level {
   u: Float64Array;
   /** Right-hand side of the current equation (on the finest level: `rhs` itself). */
   f: Float64Array;
-  /** Residual work vector. */
+  /**
+   * Residual work vector; empty (length 0) on a level that restricts fused after red–black
+   * pre-smoothing (`redBlack` and pre ≥ 1) and never needs it: the cycle allocates it on first use
+   * should it take the unfused path after all.
+   */
   r: Float64Array;
   /** How this level passes to the next coarser one. */
   coarsening: Coarsening;
@@ -67,6 +71,13 @@ export interface Level {
   transfer?: Transfer;
   /** Present on the coarsest level only. */
   direct?: DirectSolver;
+  /**
+   * True when the level's smoother is red–black on a five-point, non-singular level and its
+   * transfer restricts the residual fused (`Transfer.restrictResidual`): after any red–black sweep
+   * the black residuals are zero, so the cycle restricts without storing the residual and the
+   * stop test measures the red residuals only.
+   */
+  redBlack?: boolean;
 }
 
 /**
@@ -309,7 +320,7 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
       rhs,
       u: op.vector(),
       f: depth === 0 ? rhs : op.vector(),
-      r: op.vector(),
+      r: new Float64Array(0), // allocated below where the cycle stores a residual
       coarsening,
     };
     levels.push(level);
@@ -322,6 +333,12 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
   }
   for (let l = 0; l + 1 < levels.length && !galerkin; l++) {
     levels[l].transfer = createTransfer(restriction, levels[l].op, levels[l + 1].op);
+  }
+  for (const L of levels) {
+    L.redBlack = options.smoother.name === "red-black" && !isNinePoint(L.op) && !L.op.singular &&
+      L.transfer?.restrictResidual !== undefined;
+    // Memory (issue 16): the fused path never stores a residual on this level.
+    if (!(L.redBlack && options.cycle.pre > 0)) L.r = L.op.vector();
   }
   return { levels, coarseOperator, interpolation };
 }

@@ -15,6 +15,7 @@ import { type CycleParams, CYCLES } from "./cycle.ts";
 import {
   addToNodes,
   norm2,
+  redResidualNorm2,
   removeMean,
   removeTrapezoidMean,
   residual,
@@ -132,15 +133,17 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
     fmgCyclesPerLevel: o.cycle.fmgCyclesPerLevel,
   };
   let shift = 0;
-  const measure = (): number => {
-    if (!singular) return residualNorm2(op, u, f);
+  // After red–black post-smoothing the black residuals are zero: measure the red ones only.
+  const redOnly = L.redBlack === true && o.cycle.post > 0;
+  const measure = (after: boolean): number => {
+    if (!singular) return after && redOnly ? redResidualNorm2(op, u, f) : residualNorm2(op, u, f);
     residual(op, u, f, r);
     const mean = removeMean(op, r);
     addToNodes(op, f, -mean);
     shift += mean;
     return norm2(r);
   };
-  const r0 = measure();
+  const r0 = measure(false);
   const history = [r0];
   let reason: StopReason = "max-cycles";
   let cycles = 0;
@@ -154,7 +157,7 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
       (cycles === 0 ? first : next)(h, params);
       if (singular) removeTrapezoidMean(op, u);
       cycles++;
-      const rk = measure();
+      const rk = measure(true);
       const prev = history[history.length - 1];
       history.push(rk);
       if (!Number.isFinite(rk)) {

@@ -26,7 +26,8 @@
  */
 import type { LevelOperator } from "./level.ts";
 import type { RestrictionName } from "./options.ts";
-import { interpolateAddBoth } from "./_kernels.ts";
+import { interpolateAddBoth, restrictRedResidual } from "./_kernels.ts";
+import { interpolateCubic } from "./cubic_interpolation.ts";
 
 /** A transfer pair between a fine level and its coarse level. */
 export interface Transfer {
@@ -36,6 +37,23 @@ export interface Transfer {
   interpolateAdd(coarse: Float64Array, fine: Float64Array): void;
   /** fine ← P·coarse (bilinear), every fine node written. */
   interpolate(coarse: Float64Array, fine: Float64Array): void;
+  /**
+   * fine ← cubic interpolation of coarse (`cubic_interpolation.ts`), every fine node written: the
+   * first guess of full multigrid. Absent where FMG keeps `interpolate`.
+   */
+  interpolateFmg?(coarse: Float64Array, fine: Float64Array): void;
+  /**
+   * coarse ← R·(f − A·u) for a five-point fine level whose black residuals are zero (right after a
+   * red–black sweep), without storing the fine residual (`restrictRedResidual` in `_kernels.ts`).
+   * Present only where that is the same restriction: full weighting with grid scaling, both
+   * directions coarsened.
+   */
+  restrictResidual?(
+    op: LevelOperator,
+    u: Float64Array,
+    f: Float64Array,
+    coarse: Float64Array,
+  ): void;
   /** Plain JSON record. */
   describe(): Record<string, unknown>;
 }
@@ -237,7 +255,21 @@ export function createTransfer(
     for (let j = 0; j <= fine.ny; j++) interpRow(c, f, j, add);
   }
 
+  const rowA = new Float64Array(cnx + 2), rowB = new Float64Array(cnx + 2);
+  const fused = restriction === "full-weighting" && scaling === "grid" && cx === 2 && cy === 2;
+  function boundaryRows(out: Float64Array): void {
+    for (let m = 0; m < boundaryIndex.length; m++) out[boundaryIndex[m]] *= boundaryScale[m];
+    for (let m = 0; m < cDirichlet.length; m++) out[cDirichlet[m]] = 0;
+  }
   return {
+    ...(fused
+      ? {
+        restrictResidual(op: LevelOperator, u: Float64Array, f: Float64Array, out: Float64Array) {
+          restrictRedResidual(op, u, f, out, cs, rowA, rowB);
+          boundaryRows(out);
+        },
+      }
+      : {}),
     restrict(r, out) {
       for (let J = 0; J <= cny; J++) {
         const cb = (J + 1) * cs + 1;
@@ -266,6 +298,7 @@ export function createTransfer(
       ? (c, f) => interpolateAddBoth(c, f, cnx, cny, cs, fs)
       : (c, f) => interp(c, f, true),
     interpolate: (c, f) => interp(c, f, false),
+    interpolateFmg: (c, f) => interpolateCubic(c, f, { cnx, cny, cx, cy }),
     describe: () => ({
       restriction,
       ...(scaling === "volume" ? { scaling } : {}),
