@@ -24,6 +24,9 @@ import { type Expr, involvesNoPoint, toExpr } from "./expression.ts";
 import { checkOperator, type OperatorFault } from "./operator_check.ts";
 import { checkRobinWeights } from "./robin_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
+import { onLattice, sampleStretched } from "./sample_stretched.ts";
+import { caseMappings } from "./spacing.ts";
+import { type Axis, type AxisMapping, makeGrid } from "../grid/mod.ts";
 import type {
   CaseBoundary,
   CaseFormulas,
@@ -120,6 +123,13 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       trees.problems.map((p) => at(p.pointer, p.field, p.message, p.column)),
     );
   }
+  const spacing = caseMappings(math, caseFile, parameters);
+  if (spacing.problems.length) {
+    throw collected(
+      file,
+      spacing.problems.map((p) => at(p.pointer, p.field, p.message, p.column)),
+    );
+  }
   let derived: DerivedRegion[];
   try {
     derived = trees.regions.map((r) => deriveRegion(math, r.op, r.exact, trees.sides));
@@ -149,7 +159,9 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       ),
     ]);
   }
-  const built = assemble(math, caseFile, options.origin, parameters, trees, derived);
+  const built = assemble(math, caseFile, options.origin, parameters, trees, derived, {
+    mappings: spacing.mappings,
+  });
   const faults = checkRegions(built, trees, caseFile, options);
   if (faults.length) {
     throw collected(file, faults.map((f) => at(f.pointer, f.field, f.message)));
@@ -260,6 +272,7 @@ function assemble(
   parameters: Record<string, number>,
   trees: CaseTrees,
   derived: DerivedRegion[],
+  grid: { mappings: Partial<Record<Axis, AxisMapping>> } = { mappings: {} },
 ): Assembled {
   const expr = (node: MathNode): Expr => toExpr(node, parameters);
   const domain = { ...caseFile.domain };
@@ -511,7 +524,10 @@ function assemble(
       ? { ...caseFile.expected.central }
       : caseFile.expected.upwind ?? { formal: 1 },
   };
+  // a stretched family samples at the mapped nodes, point by point (sample_stretched.ts)
+  const stretched = Object.values(grid.mappings).some((m) => m.kind !== "uniform");
   const compiled: CompiledCase = {
+    ...(stretched ? { mappings: { ...grid.mappings } } : {}),
     id: caseFile.id,
     title: caseFile.title,
     motivation: caseFile.motivation,
@@ -543,11 +559,20 @@ function assemble(
     },
     gridMisses: (nx: number, ny: number) => gridMisses(interfaces, domain, nx, ny),
     gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * aspect)) }),
-    sample: (nx: number, ny: number) => sampleProblem(spec, nx, ny),
+    sample: (nx: number, ny: number) =>
+      stretched
+        ? sampleStretched(spec, makeGrid(domain, "vertex", { x: nx, y: ny }, grid.mappings))
+        : sampleProblem(spec, nx, ny),
     sampleAsync: (nx: number, ny: number, opts?: { threads?: number; minNodes?: number }) =>
-      sampleProblemParallel(spec, nx, ny, opts),
+      stretched
+        ? Promise.resolve(compiled.sample(nx, ny))
+        : sampleProblemParallel(spec, nx, ny, opts),
     sampleExact: (nx: number, ny: number) => {
       checkGridSize(nx, ny);
+      if (stretched) {
+        const lines = makeGrid(domain, "vertex", { x: nx, y: ny }, grid.mappings).lines;
+        return onLattice(exact, lines.x, lines.y);
+      }
       const out = new Float64Array((nx + 1) * (ny + 1));
       const hx = (domain.x1 - domain.x0) / nx;
       const hy = (domain.y1 - domain.y0) / ny;
