@@ -11,7 +11,7 @@ import type { MathTools } from "./_mathjs.ts";
 import { compileExpr } from "./compile.ts";
 import { parseExpression, toExpr } from "./expression.ts";
 import type { CaseFile } from "./case_file.ts";
-import { type Axis, AXES, type AxisMapping, axisRange, mappingFault } from "../grid/mod.ts";
+import { AXES, type Axis, type AxisMapping, axisRange, mappingFault } from "../grid/mod.ts";
 
 /** One axis' spacing as a case file writes it. */
 export type AxisSpacingText =

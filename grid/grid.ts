@@ -8,8 +8,8 @@
  *
  * @module
  */
-import { type AxisMapping, axisLines } from "./mapping.ts";
-import { type Axis, AXES, type Box, type Grid, type GridLayout } from "./types.ts";
+import { axisLines, type AxisMapping } from "./mapping.ts";
+import { AXES, type Axis, type Box, type Grid, type GridLayout } from "./types.ts";
 
 /**
  * The grid with `counts[axis]` cells along each axis of `box`, its lines from the mappings

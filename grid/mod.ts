@@ -16,14 +16,14 @@
  * @module
  */
 export { AXES, type Axis, type Box, type Grid, type GridLayout } from "./types.ts";
-export { type AxisMapping, axisLines, mappingFault, unitMap } from "./mapping.ts";
+export { axisLines, type AxisMapping, mappingFault, unitMap } from "./mapping.ts";
 export {
   axisPoints,
   axisRange,
   axisVolumes,
   cellCounts,
-  gridPointsOf,
   type GridPoints,
+  gridPointsOf,
   makeGrid,
   representativeSpacing,
   stretchRatio,

@@ -5,7 +5,7 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import { caseGrid } from "../../cases/mod.ts";
+import { caseGrid, isStretchedCase } from "../../cases/mod.ts";
 import {
   betterOrder,
   errorMap,
@@ -101,7 +101,12 @@ export function measureOutcome(
       record.imposed = imposedDataCheck(outcome.values, outcome, data, scale);
     }
   }
-  record.quantities = discreteQuantities(outcome, kase.domain);
+  // the point and flux quantities interpolate on equal steps: on a stretched family only the
+  // volume-weighted integral and the largest value are measured (read as free points)
+  record.quantities = discreteQuantities(
+    isStretchedCase(kase) ? { ...outcome, layout: "points" } : outcome,
+    kase.domain,
+  );
   return record;
 }
 
