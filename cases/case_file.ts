@@ -5,6 +5,7 @@
  */
 import type { BoundaryKind, Side } from "../reference-solver/mod.ts";
 import type { ExpectedOrder } from "./types.ts";
+import type { AxisSpacingText } from "./spacing.ts";
 
 /** A coefficient or solution: mathjs expression text or a plain number. */
 export type ExpressionText = string | number;
@@ -42,6 +43,8 @@ export interface CaseFile {
   manufactured: string;
   domain: { x0: number; x1: number; y0: number; y1: number };
   aspect?: number;
+  /** The stretched grid family: per axis, its map (absent axes are uniform). */
+  spacing?: { x?: AxisSpacingText; y?: AxisSpacingText };
   /** The operator's form. Default: "non-conservative". */
   form?: "non-conservative" | "conservative";
   /** The non-conservative form's coefficients (m, of u_xy, defaults to 0). */

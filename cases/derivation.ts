@@ -21,6 +21,8 @@ import {
   type OperatorForm,
 } from "./operator.ts";
 import type { CaseFormulas, CompiledCase } from "./types.ts";
+import type { Axis } from "../grid/mod.ts";
+import type { MappingData } from "./spacing.ts";
 
 const SIDES: readonly Side[] = ["west", "east", "south", "north"];
 
@@ -48,6 +50,8 @@ export interface Derivation {
   noConvection: boolean;
   /** The Robin weights α and β of each Robin side (the same in every region). */
   robin: Partial<Record<Side, { alpha: Expr; beta: Expr }>>;
+  /** The stretched grid family per axis (absent: uniform), as plain data. */
+  mappings?: Partial<Record<Axis, MappingData>>;
 }
 
 /** The readable formulas of a case: mathjs text and TeX after simplification. */
@@ -143,7 +147,8 @@ export function isDerivation(value: unknown): value is Derivation {
     !Object.entries(v.robin).every(([s, w]) =>
       SIDES.includes(s as Side) && typeof w === "object" && w !== null &&
       isExpr((w as Record<string, unknown>).alpha) && isExpr((w as Record<string, unknown>).beta)
-    )
+    ) ||
+    (v.mappings !== undefined && !isMappingData(v.mappings))
   ) return false;
   return v.regions.every((r: Record<string, unknown>) =>
     typeof r === "object" && r !== null &&
@@ -156,6 +161,27 @@ export function isDerivation(value: unknown): value is Derivation {
     typeof r.boundary === "object" && r.boundary !== null &&
     SIDES.every((s) => isExpr((r.boundary as Record<string, unknown>)[s]))
   );
+}
+
+/** Whether a value is a derivation's per-axis mapping data (see `spacing.ts`). */
+function isMappingData(value: unknown): boolean {
+  if (typeof value !== "object" || value === null) return false;
+  const finite = (n: unknown) => typeof n === "number" && Number.isFinite(n);
+  return Object.entries(value).every(([axis, m]) => {
+    if ((axis !== "x" && axis !== "y") || typeof m !== "object" || m === null) return false;
+    const d = m as Record<string, unknown>;
+    switch (d.kind) {
+      case "uniform":
+        return true;
+      case "tanh":
+        return finite(d.strength) && ["start", "end", "both"].includes(d.toward as string);
+      case "geometric":
+        return finite(d.ratio) && finite(d.cells);
+      case "expression":
+        return isExpr(d.coordinate) && finite(d.start) && finite(d.length);
+    }
+    return false;
+  });
 }
 
 const DERIVATIONS = new WeakMap<CompiledCase, Derivation>();

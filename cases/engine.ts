@@ -31,6 +31,9 @@ import { derivationKey, readCacheEntry, writeCacheEntry } from "./derive_cache.t
 import { checkOperator, type OperatorFault } from "./operator_check.ts";
 import { checkRobinWeights } from "./robin_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
+import { onLattice, sampleStretched } from "./sample_stretched.ts";
+import { caseMappings, mappingsFromData } from "./spacing.ts";
+import { type Axis, type AxisMapping, makeGrid } from "../grid/mod.ts";
 import type {
   CaseBoundary,
   CaseFormulas,
@@ -157,6 +160,13 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       trees.problems.map((p) => at(p.pointer, p.field, p.message, p.column)),
     );
   }
+  const spacing = caseMappings(math, caseFile, parameters);
+  if (spacing.problems.length) {
+    throw collected(
+      file,
+      spacing.problems.map((p) => at(p.pointer, p.field, p.message, p.column)),
+    );
+  }
   let derived: DerivedRegion[];
   try {
     derived = trees.regions.map((r) => deriveRegion(math, r.op, r.exact, trees.sides));
@@ -187,6 +197,7 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
     ]);
   }
   const derivation = toDerivation(math, trees, derived, parameters);
+  if (Object.keys(spacing.data).length) derivation.mappings = spacing.data;
   // readable formulas need mathjs's simplify (slow): computed on first use only, or at once when
   // they go into the cache
   let shown: ReadableFormulas | undefined;
@@ -313,6 +324,7 @@ function assemble(
   const domain = { ...caseFile.domain };
   const { interfaces, form } = derivation;
   const conservative = form === "conservative";
+  const grid = { mappings: mappingsFromData(derivation.mappings ?? {}) };
   const regionExprs = derivation.regions;
   const expressions: RegionExpressions[] = regionExprs.map((e) => ({
     exact: e.exact,
@@ -478,7 +490,10 @@ function assemble(
       ? { ...caseFile.expected.central }
       : caseFile.expected.upwind ?? { formal: 1 },
   };
+  // a stretched family samples at the mapped nodes, point by point (sample_stretched.ts)
+  const stretched = Object.values(grid.mappings).some((m) => m.kind !== "uniform");
   const compiled: CompiledCase = {
+    ...(stretched ? { mappings: { ...grid.mappings } } : {}),
     id: caseFile.id,
     title: caseFile.title,
     motivation: caseFile.motivation,
@@ -510,11 +525,20 @@ function assemble(
     },
     gridMisses: (nx: number, ny: number) => gridMisses(interfaces, domain, nx, ny),
     gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * aspect)) }),
-    sample: (nx: number, ny: number) => sampleProblem(spec, nx, ny),
+    sample: (nx: number, ny: number) =>
+      stretched
+        ? sampleStretched(spec, makeGrid(domain, "vertex", { x: nx, y: ny }, grid.mappings))
+        : sampleProblem(spec, nx, ny),
     sampleAsync: (nx: number, ny: number, opts?: { threads?: number; minNodes?: number }) =>
-      sampleProblemParallel(spec, nx, ny, opts),
+      stretched
+        ? Promise.resolve(compiled.sample(nx, ny))
+        : sampleProblemParallel(spec, nx, ny, opts),
     sampleExact: (nx: number, ny: number) => {
       checkGridSize(nx, ny);
+      if (stretched) {
+        const lines = makeGrid(domain, "vertex", { x: nx, y: ny }, grid.mappings).lines;
+        return onLattice(exact, lines.x, lines.y);
+      }
       const out = new Float64Array((nx + 1) * (ny + 1));
       const hx = (domain.x1 - domain.x0) / nx;
       const hy = (domain.y1 - domain.y0) / ny;

@@ -93,6 +93,8 @@ export {
   type RowSampler,
 } from "./compile.ts";
 export { checkGridSize, MAX_NODES, sampleSide } from "./sample.ts";
+export { caseGrid, isStretchedCase } from "./grid_of.ts";
+export { midpoints, onLattice } from "./sample_stretched.ts";
 export { JsonSyntaxError, type LocatedJson, readJsonWithPositions } from "./_json.ts";
 export {
   ALLOWED_FUNCTIONS,

@@ -10,6 +10,7 @@ import type { CaseFile } from "./case_file.ts";
 import type { OperatorForm } from "./operator.ts";
 import type { Expr } from "./expression.ts";
 import type { Interfaces } from "./regions.ts";
+import type { Axis, AxisMapping } from "../grid/mod.ts";
 
 /** A compiled point function: plain JavaScript built from a whitelisted expression tree. */
 export type PointFn = (x: number, y: number) => number;
@@ -157,6 +158,12 @@ export interface CompiledCase {
   grids: number[];
   /** Interior-grid aspect: ny = round(nx · aspect). 1 for square cells on a square. */
   aspect: number;
+  /**
+   * The stretched grid family (the case file's `spacing`): per axis, the fixed map every grid of
+   * the family comes from. Absent or empty: uniform grids. Grids of the case are made by
+   * `caseGrid` (cases/grid_of.ts); `sample` and `sampleExact` then use the mapped nodes.
+   */
+  mappings?: Partial<Record<Axis, AxisMapping>>;
   /** The operator's form (the case file's `form`; default non-conservative). */
   form: OperatorForm;
   /** Material interfaces (conservative form only); none: `{ x: [], y: [] }`. */

@@ -110,6 +110,8 @@ function toProblem(p: SampledProblem): Problem {
   } else if (p.m && p.m.some((v) => v !== 0)) {
     problem.m = p.m;
   }
+  // a stretched grid: the request's node coordinates (protocol 2, grid.x and grid.y)
+  if (p.lines) problem.coordinates = { x: p.lines.x, y: p.lines.y };
   return problem;
 }
 

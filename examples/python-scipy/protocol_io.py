@@ -89,6 +89,12 @@ def read_problem(req):
     else:
         raise RequestError(f"form: must be non-conservative or conservative, got {form!r}")
     problem["f"] = decode_array(req.get("source"), "source", points).reshape(shape)
+    # version 2, stretched grids: the grid lines (vertex nodes or cell faces), nx + 1 and ny + 1
+    if grid.get("x") is not None or grid.get("y") is not None:
+        problem["lines"] = (
+            decode_array(grid.get("x"), "grid.x", nx + 1),
+            decode_array(grid.get("y"), "grid.y", ny + 1),
+        )
     bnd = req.get("boundary") or {}
     problem["boundary"] = {}
     for side in SIDES:

@@ -11,7 +11,9 @@ Usage (the protocol arrives on stdin, see docs/protocol.md):
                   DELIBERATE DEFECT for the demo: Neumann/Robin sides by a first-order one-sided
                   difference instead of the second-order ghost node (vertex layout only)
 
-It speaks protocol versions 1 and 2 (docs/protocol.md): version 2 brings the mixed term m*u_xy
+It speaks protocol versions 1 and 2 (docs/protocol.md): version 2 brings stretched grids (grid.x,
+grid.y: stretched.py, non-uniform 3-point differences on the vertex layout, the flux form on the
+cell layout), the mixed term m*u_xy
 and the conservative form div(K grad u) + bx*u_x + by*u_y + sigma*u = f with K at the faces
 (forms.py: a finite-volume scheme on the cell layout, the flux balance of node volumes on the
 vertex layout).
@@ -30,6 +32,7 @@ import scipy.sparse.linalg as spla
 
 import cells
 import forms
+import stretched
 import vertex
 from protocol_io import RequestError, encode_array, log, message, read_problem, run
 
@@ -107,8 +110,20 @@ def make_solver(layout, defect):
                 reason="the seeded defect is of the plain vertex scheme; this request needs "
                 "the mixed term or the conservative form",
             )
+        if "lines" in problem:
+            why = stretched.unsupported(problem)
+            if why is not None:
+                return message("not-applicable", id=rid, reason=why)
+            if defect:
+                return message(
+                    "not-applicable",
+                    id=rid,
+                    reason="the seeded defect is of the uniform vertex scheme",
+                )
         try:
-            if conservative and layout == "cell":
+            if "lines" in problem:
+                A, rhs = stretched.assemble(problem, upwind=upwind)
+            elif conservative and layout == "cell":
                 A, rhs = forms.assemble_conservative_cell(problem, upwind=upwind)
             elif conservative:
                 A, rhs = forms.assemble_conservative_vertex(problem, upwind=upwind)
@@ -120,7 +135,7 @@ def make_solver(layout, defect):
                 )
         except ValueError as err:
             raise RequestError(str(err)) from None
-        if layout == "vertex":
+        if layout == "vertex" and "lines" not in problem:
             u = solve_free(A, rhs, *vertex.dirichlet_values(problem))
         else:
             u = spla.spsolve(A.tocsc(), rhs)
@@ -134,6 +149,7 @@ def make_solver(layout, defect):
         notes = (
             f"scipy {scipy.__version__} spsolve (SuperLU), {layout} layout, {scheme} scheme, "
             f"{problem['form']} form" + ("" if "m" not in problem else " with u_xy")
+            + ("" if "lines" not in problem else ", stretched grid (stretched.py)")
         )
         if defect:
             notes += "; SEEDED DEFECT: first-order one-sided Neumann/Robin boundary rows"

@@ -5,6 +5,7 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
+import { caseGrid, isStretchedCase } from "../../cases/mod.ts";
 import {
   betterOrder,
   errorMap,
@@ -100,13 +101,20 @@ export function measureOutcome(
       record.imposed = imposedDataCheck(outcome.values, outcome, data, scale);
     }
   }
-  record.quantities = discreteQuantities(outcome, kase.domain);
+  // the point and flux quantities interpolate on equal steps: on a stretched family only the
+  // volume-weighted integral and the largest value are measured (read as free points)
+  record.quantities = discreteQuantities(
+    isStretchedCase(kase) ? { ...outcome, layout: "points" } : outcome,
+    kase.domain,
+  );
   return record;
 }
 
 /** The data of each Dirichlet side at its nodes (increasing coordinate, corners included). */
 function dirichletData(kase: CompiledCase, nx: number, ny: number): SideData {
   const { x0, x1, y0, y1 } = kase.domain;
+  // the nodes of a stretched family are the mapped ones
+  const lines = caseGrid(kase, nx, ny, "vertex").lines;
   const out: SideData = {};
   for (const side of ["west", "east", "south", "north"] as SideName[]) {
     const b = kase.boundary?.[side];
@@ -115,10 +123,9 @@ function dirichletData(kase: CompiledCase, nx: number, ny: number): SideData {
     const m = vertical ? ny : nx;
     const g = new Float64Array(m + 1);
     for (let k = 0; k <= m; k++) {
-      const t = k / m;
       g[k] = vertical
-        ? b.data(side === "west" ? x0 : x1, y0 + t * (y1 - y0))
-        : b.data(x0 + t * (x1 - x0), side === "south" ? y0 : y1);
+        ? b.data(side === "west" ? x0 : x1, lines.y[k])
+        : b.data(lines.x[k], side === "south" ? y0 : y1);
     }
     out[side] = g;
   }

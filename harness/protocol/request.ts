@@ -169,6 +169,7 @@ function hasMixedTerm(m: Float64Array | undefined): boolean {
  */
 export function version1Misses(problem: SampledProblem): string | undefined {
   if (problem.form === "conservative") return "protocol 1 has no conservative form";
+  if (problem.lines) return "protocol 1 has no stretched grids (grid coordinates)";
   if (hasMixedTerm(problem.m)) return "protocol 1 has no mixed term (u_xy)";
   for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];
@@ -262,6 +263,9 @@ function assembleRequest<A>(
       layout: problem.layout,
       order: "x-fastest" as const,
       points: count,
+      ...(protocol === PROTOCOL_VERSION_2 && problem.lines
+        ? { x: enc(problem.lines.x), y: enc(problem.lines.y) }
+        : {}),
     },
     encoding: details.encoding,
     ...operator,
@@ -368,6 +372,12 @@ export function readSolveRequest(
     boundary,
   };
   if (message.protocol === PROTOCOL_VERSION_2) {
+    if (message.grid.x !== undefined && message.grid.y !== undefined) {
+      problem.lines = {
+        x: read(message.grid.x, "/grid/x", nx + 1),
+        y: read(message.grid.y, "/grid/y", ny + 1),
+      };
+    }
     problem.form = message.form;
     problem.interfaces = { x: [...message.interfaces!.x], y: [...message.interfaces!.y] };
   }

@@ -123,6 +123,12 @@ export interface SampledProblem {
   conservative?: SampledConductivity;
   /** Material interfaces (lines x = const and y = const); absent: none. */
   interfaces?: { x: number[]; y: number[] };
+  /**
+   * Version 2: the grid lines of a stretched grid (nx + 1 and ny + 1 values, strictly increasing
+   * from the domain's edges): node coordinates for the vertex layout, face coordinates for the
+   * cell layout (centres are midpoints of faces). Absent: uniform.
+   */
+  lines?: { x: Float64Array; y: Float64Array };
 }
 
 /**
@@ -191,7 +197,17 @@ export interface SolveRequestMessage {
   id: string;
   case: { id: string; title?: string };
   domain: Rectangle;
-  grid: { nx: number; ny: number; layout: GridLayout; order: "x-fastest"; points: number };
+  grid: {
+    nx: number;
+    ny: number;
+    layout: GridLayout;
+    order: "x-fastest";
+    points: number;
+    /** Version 2, stretched grids: the grid lines along x (nx + 1 values). */
+    x?: WireArray;
+    /** Version 2, stretched grids: the grid lines along y (ny + 1 values). */
+    y?: WireArray;
+  };
   encoding: ArrayEncoding;
   /** Version 2: the operator's form (version 1 is always non-conservative). */
   form?: OperatorFormName;

@@ -16,7 +16,7 @@ import {
 } from "../protocol/mod.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
 import { emptyOutcome, solutionOutcome } from "./outcome.ts";
-import { gridPoints, type LayoutPoints } from "./geometry.ts";
+import { casePoints, type LayoutPoints } from "./geometry.ts";
 import { expressionTexts, sampleCase, version1Refusal } from "./sample.ts";
 import type { ExternalSolverSpec, SolveOutcome, SolveTask } from "./types.ts";
 
@@ -153,7 +153,7 @@ export function prepareRequest(
     request,
     limitSeconds,
     expect: { id, layout, nx: task.nx, ny: task.ny, domain: task.case.domain, protocol },
-    points: () => points ??= gridPoints(layout, task.case.domain, task.nx, task.ny),
+    points: () => points ??= casePoints(task.case, layout, task.nx, task.ny),
   };
 }
 

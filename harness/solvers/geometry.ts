@@ -4,6 +4,9 @@
  * @module
  */
 import type { Domain } from "../../reference-solver/mod.ts";
+import type { CompiledCase } from "../../cases/types.ts";
+import { caseGrid, isStretchedCase } from "../../cases/mod.ts";
+import { gridPointsOf } from "../../grid/mod.ts";
 
 /** Points of a layout with their weights and boundary band. */
 export interface LayoutPoints {
@@ -100,4 +103,25 @@ export function freePoints(
     band[k] = distance <= 2 * h ? 1 : 0;
   }
   return { x, y, weights: weights ?? new Float64Array(n).fill(area / n), boundaryBand: band };
+}
+
+/**
+ * The points of a case's grid on a layout: the mapped grid's points and control volumes for a
+ * stretched family (`grid/`), {@link gridPoints} otherwise.
+ *
+ * @param kase the case (its domain and stretched family)
+ * @param layout vertex or cell
+ * @param nx intervals or cells along x
+ * @param ny intervals or cells along y
+ * @returns coordinates, control volumes (summing to the area) and band
+ */
+export function casePoints(
+  kase: Pick<CompiledCase, "domain" | "mappings">,
+  layout: "vertex" | "cell",
+  nx: number,
+  ny: number,
+): LayoutPoints {
+  return isStretchedCase(kase)
+    ? gridPointsOf(caseGrid(kase, nx, ny, layout))
+    : gridPoints(layout, kase.domain, nx, ny);
 }

@@ -37,7 +37,7 @@ export { type BatchSolverOptions, createBatchSolver } from "./batch/mod.ts";
 export { createSolver, programsToCheck } from "./create_solver.ts";
 export { launchPrefix, PLACEHOLDERS, ranksFor } from "./launcher.ts";
 export { expressionTexts, sampleCase } from "./sample.ts";
-export { freePoints, gridPoints, type LayoutPoints } from "./geometry.ts";
+export { casePoints, freePoints, gridPoints, type LayoutPoints } from "./geometry.ts";
 export { resolveProgram } from "./resolve_command.ts";
 export { PROBE_ERROR_LIMIT, type ProbeCheck, type ProbeReport, probeSolver } from "./probe.ts";
 export { type ProbeBoundarySet, probeCase } from "./probe_cases.ts";

@@ -9,7 +9,7 @@ import {
   solve,
   type SolveOptions,
 } from "../../reference-solver/mod.ts";
-import { gridPoints } from "./geometry.ts";
+import { casePoints } from "./geometry.ts";
 import { emptyOutcome } from "./outcome.ts";
 import type { SolveOutcome, Solver, SolveTask } from "./types.ts";
 
@@ -88,7 +88,7 @@ export function createReferenceSolver(options: ReferenceSolverOptions = {}): Sol
           scheme: { ...base.scheme, upwind: task.scheme === "upwind" },
           stop: { ...base.stop, tolerance: task.tolerance },
         });
-        const points = gridPoints("vertex", problem.domain, task.nx, task.ny);
+        const points = casePoints(task.case, "vertex", task.nx, task.ny);
         return Promise.resolve({
           status: "ok",
           layout: "vertex",

@@ -7,6 +7,7 @@
  * @module
  */
 import type { CompiledCase, ConservativeTerms, PointFn } from "../../cases/types.ts";
+import { caseGrid, isStretchedCase } from "../../cases/mod.ts";
 import { SIDES } from "../../reference-solver/mod.ts";
 import type {
   ExpressionTexts,
@@ -72,6 +73,8 @@ export function version1Refusal(compiled: CompiledCase): string | undefined {
   const varying = SIDES.find((s) => compiled.boundary[s].weightsVary === true);
   const missing = compiled.form === "conservative"
     ? "no conservative form"
+    : isStretchedCase(compiled)
+    ? "no stretched grids (grid coordinates)"
     : !noMixedTerm(compiled)
     ? "no mixed term (u_xy)"
     : varying !== undefined
@@ -103,6 +106,7 @@ function sampleVertex(compiled: CompiledCase, nx: number, ny: number): SampledPr
     boundary,
     constantCoefficients: { ...compiled.constantCoefficients },
   };
+  if (p.coordinates) problem.lines = { x: p.coordinates.x, y: p.coordinates.y };
   const terms = compiled.conservative;
   if (compiled.form === "conservative" && terms) {
     const cond = p.conductivity;
@@ -134,33 +138,57 @@ function atPoints(
   ny: number,
   layout: "vertex" | "cell",
 ): Float64Array {
-  const shift = layout === "cell" ? 0.5 : 0;
-  const mx = layout === "cell" ? nx : nx + 1;
-  const my = layout === "cell" ? ny : ny + 1;
-  return lattice(fn, compiled, { x: shift, y: shift, mx, my, nx, ny, what: `${layout} point` });
+  const at = axesOf(compiled, nx, ny);
+  return layout === "cell"
+    ? lattice(fn, compiled, at.cx, at.cy, "cell point")
+    : lattice(fn, compiled, at.fx, at.fy, "vertex point");
 }
 
 /**
- * Values of `fn` at x0 + (i + at.x)·hx, y0 + (j + at.y)·hy for 0 ≤ i < mx, 0 ≤ j < my (x
- * fastest); a value that is not finite is an error naming the point.
+ * The coordinates of one axis' lines (faces, nodes: `fx`, `fy`) and cell centres (`cx`, `cy`):
+ * x0 + i·hx and x0 + (i + ½)·hx on uniform grids, the mapped lines and the midpoints of
+ * neighbouring lines on a stretched family.
+ */
+function axesOf(compiled: CompiledCase, nx: number, ny: number) {
+  if (isStretchedCase(compiled)) {
+    const { x, y } = caseGrid(compiled, nx, ny, "cell").lines;
+    const mid = (l: Float64Array) =>
+      Float64Array.from({ length: l.length - 1 }, (_, i) => (l[i] + l[i + 1]) / 2);
+    return { fx: x, fy: y, cx: mid(x), cy: mid(y) };
+  }
+  const { x0, x1, y0, y1 } = compiled.domain;
+  const hx = (x1 - x0) / nx;
+  const hy = (y1 - y0) / ny;
+  const at = (o: number, h: number, shift: number, n: number) =>
+    Float64Array.from({ length: n }, (_, i) => o + (i + shift) * h);
+  return {
+    fx: at(x0, hx, 0, nx + 1),
+    fy: at(y0, hy, 0, ny + 1),
+    cx: at(x0, hx, 0.5, nx),
+    cy: at(y0, hy, 0.5, ny),
+  };
+}
+
+/**
+ * Values of `fn` at (xs[i], ys[j]) (x fastest); a value that is not finite is an error naming
+ * the point.
  */
 function lattice(
   fn: PointFn,
   compiled: CompiledCase,
-  at: { x: number; y: number; mx: number; my: number; nx: number; ny: number; what: string },
+  xs: Float64Array,
+  ys: Float64Array,
+  what: string,
 ): Float64Array {
-  const { x0, x1, y0, y1 } = compiled.domain;
-  const hx = (x1 - x0) / at.nx;
-  const hy = (y1 - y0) / at.ny;
-  const out = new Float64Array(at.mx * at.my);
-  for (let j = 0, k = 0; j < at.my; j++) {
-    const y = y0 + (j + at.y) * hy;
-    for (let i = 0; i < at.mx; i++, k++) {
-      const x = x0 + (i + at.x) * hx;
+  const out = new Float64Array(xs.length * ys.length);
+  for (let j = 0, k = 0; j < ys.length; j++) {
+    const y = ys[j];
+    for (let i = 0; i < xs.length; i++, k++) {
+      const x = xs[i];
       const v = fn(x, y);
       if (!Number.isFinite(v)) {
         throw new RangeError(
-          `case ${compiled.id}: a coefficient is ${v} at the ${at.what} (${x}, ${y}); ` +
+          `case ${compiled.id}: a coefficient is ${v} at the ${what} (${x}, ${y}); ` +
             `the case must be finite on the domain`,
         );
       }
@@ -183,10 +211,9 @@ function cellConductivity(
   ny: number,
 ): { points: SampledConductivity; bx: Float64Array; by: Float64Array; sigma: Float64Array } {
   const centres = (fn: PointFn) => atPoints(fn, compiled, nx, ny, "cell");
-  const xFaces = (fn: PointFn) =>
-    lattice(fn, compiled, { x: 0, y: 0.5, mx: nx + 1, my: ny, nx, ny, what: "x-face" });
-  const yFaces = (fn: PointFn) =>
-    lattice(fn, compiled, { x: 0.5, y: 0, mx: nx, my: ny + 1, nx, ny, what: "y-face" });
+  const at = axesOf(compiled, nx, ny);
+  const xFaces = (fn: PointFn) => lattice(fn, compiled, at.fx, at.cy, "x-face");
+  const yFaces = (fn: PointFn) => lattice(fn, compiled, at.cx, at.fy, "y-face");
   const points: SampledConductivity = {
     k11: centres(terms.k11),
     k12: centres(terms.k12),
@@ -231,11 +258,11 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
       source: atPoints(compiled.source, compiled, nx, ny, "cell"),
       boundary: cellBoundary(compiled, nx, ny),
       conservative: k.points,
+      ...(isStretchedCase(compiled) ? { lines: { ...linesOf(compiled, nx, ny) } } : {}),
     };
   }
   const { x0, x1, y0, y1 } = compiled.domain;
-  const hx = (x1 - x0) / nx;
-  const hy = (y1 - y0) / ny;
+  const at = axesOf(compiled, nx, ny);
   const n = nx * ny;
   const k = compiled.coefficients;
   const fns: [string, PointFn][] = [["a", k.a], ["b", k.b], ["c", k.c], ["d", k.d], ["e", k.e], [
@@ -244,9 +271,9 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
   ]];
   const arrays = fns.map(() => new Float64Array(n));
   for (let j = 0; j < ny; j++) {
-    const y = y0 + (j + 0.5) * hy;
+    const y = at.cy[j];
     for (let i = 0; i < nx; i++) {
-      const x = x0 + (i + 0.5) * hx;
+      const x = at.cx[i];
       const idx = j * nx + i;
       for (let m = 0; m < fns.length; m++) {
         const v = fns[m][1](x, y);
@@ -291,7 +318,14 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
     boundary: cellBoundary(compiled, nx, ny),
     constantCoefficients: { ...compiled.constantCoefficients },
     ...(m ? { m } : {}),
+    ...(isStretchedCase(compiled) ? { lines: { x: at.fx, y: at.fy } } : {}),
   };
+}
+
+/** The face lines of a stretched cell grid. */
+function linesOf(compiled: CompiledCase, nx: number, ny: number) {
+  const { fx, fy } = axesOf(compiled, nx, ny);
+  return { x: fx, y: fy };
 }
 
 /** Boundary data at the centres of the boundary faces (the cell layout's). */
@@ -301,8 +335,7 @@ function cellBoundary(
   ny: number,
 ): Record<SideName, SampledSide> {
   const { x0, x1, y0, y1 } = compiled.domain;
-  const hx = (x1 - x0) / nx;
-  const hy = (y1 - y0) / ny;
+  const at = axesOf(compiled, nx, ny);
   const boundary = {} as Record<SideName, SampledSide>;
   for (const side of SIDES) {
     const bc = compiled.boundary[side];
@@ -312,8 +345,8 @@ function cellBoundary(
     const values = new Float64Array(count);
     const alpha = new Float64Array(robin ? count : 0), beta = new Float64Array(robin ? count : 0);
     for (let m = 0; m < count; m++) {
-      const x = vertical ? (side === "west" ? x0 : x1) : x0 + (m + 0.5) * hx;
-      const y = vertical ? y0 + (m + 0.5) * hy : (side === "south" ? y0 : y1);
+      const x = vertical ? (side === "west" ? x0 : x1) : at.cx[m];
+      const y = vertical ? at.cy[m] : (side === "south" ? y0 : y1);
       const v = bc.data(x, y);
       if (!Number.isFinite(v)) {
         throw new RangeError(
