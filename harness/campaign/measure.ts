@@ -19,6 +19,7 @@ import {
 import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/mod.ts";
 import { PLACES } from "../result/mod.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
+import { chosenSpecs, discreteQuantity } from "./chosen_quantities.ts";
 import { discreteQuantities } from "./quantities.ts";
 
 /**
@@ -101,6 +102,10 @@ export function measureOutcome(
     }
   }
   record.quantities = discreteQuantities(outcome, kase.domain);
+  for (const spec of chosenSpecs(kase)) {
+    const value = discreteQuantity(outcome, kase, spec);
+    if (value !== null) record.quantities[spec.name] = value;
+  }
   return record;
 }
 
