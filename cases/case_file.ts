@@ -34,6 +34,32 @@ export interface RegionSpec {
   exact?: ExpressionText;
 }
 
+/**
+ * A quantity of interest of the case author's choosing (see `docs/cases.md`): the flux through a
+ * side or a segment of it, the integral of u over a rectangle inside the domain, or u at a point.
+ * `label` says in words what it is (default: made from the other fields).
+ */
+export type QuantitySpec =
+  | {
+    name: string;
+    kind: "flux";
+    /** The side the flux leaves the domain through (outward normal). */
+    side: Side;
+    /** [from, to] along the side (y on west and east, x on south and north); default: all of it. */
+    segment?: [number, number];
+    label?: string;
+  }
+  | {
+    name: string;
+    kind: "integral";
+    /** [from, to] in x; default: the domain's. */
+    x?: [number, number];
+    /** [from, to] in y; default: the domain's. */
+    y?: [number, number];
+    label?: string;
+  }
+  | { name: string; kind: "point"; x: number; y: number; label?: string };
+
 /** A case file's content, field for field (see `cases/case.schema.json` for the meaning of each). */
 export interface CaseFile {
   $schema?: string;
@@ -73,6 +99,8 @@ export interface CaseFile {
   expected: { central: ExpectedOrder; upwind?: ExpectedOrder };
   tags: string[];
   grids: number[];
+  /** Quantities of interest studied besides the built-in ones. */
+  quantities?: QuantitySpec[];
   solver?: { smoother?: string; cycle?: string; maxCycles?: number };
 }
 

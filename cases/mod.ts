@@ -33,6 +33,7 @@ export type {
   CaseProblem,
   ConductivityText,
   ExpressionText,
+  QuantitySpec,
   RegionSpec,
   SideSpec,
 } from "./case_file.ts";

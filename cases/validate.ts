@@ -14,6 +14,7 @@ import { JsonSyntaxError, type LocatedJson, readJsonWithPositions } from "./_jso
 import { closestName } from "./_suggest.ts";
 import { ALLOWED_FUNCTIONS } from "./expression.ts";
 import type { CaseFile, CaseProblem } from "./case_file.ts";
+import { quantityProblems } from "./validate_quantities.ts";
 
 let validator: ValidateFunction | undefined;
 
@@ -228,6 +229,7 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
   };
   for (const [pointer, message] of domainProblems(c.domain)) push(pointer, message);
   for (const [pointer, message, field] of formProblems(c)) push(pointer, message, field);
+  for (const [pointer, message] of quantityProblems(c)) push(pointer, message);
   // The reference solver's advice names components of its registries: refuse an unknown name at
   // the door, before any solve, with the valid ones.
   const advice = c.solver;

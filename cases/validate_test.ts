@@ -165,3 +165,35 @@ Deno.test("validateCaseText() checks the domain itself and names it (issue 12, i
     assert.match(messages({ x0: 1, x1: 0, y0: 0, y1: 1 }), /domain: x0 must be less than x1/);
   });
 });
+
+Deno.test("validateCaseText() locates every problem of the quantities of interest", () => {
+  const doc = JSON.parse(good);
+  doc.quantities = [
+    { name: "outflow", kind: "flux", side: "east", segment: [0.5, 1.5] },
+    { name: "outflow", kind: "point", x: 0.5, y: 0.5 },
+    { name: "flat", kind: "integral", x: [0.2, 0.2] },
+    { name: "far", kind: "point", x: 0.5, y: -0.1 },
+    { name: "maximum", kind: "integral" },
+    { name: "mixed", kind: "point", x: 0.1, y: 0.1, side: "west" },
+  ];
+  const text = JSON.stringify(doc, null, 2);
+  const { problems } = validateCaseText(text, "q.json");
+  const messages = problems.map(formatProblem);
+  const lines = text.split("\n");
+  const expect = [
+    /quantities\[0\]\.segment: the segment \[0\.5, 1\.5\] lies outside the east side, which runs over y in \[0, 1\]/,
+    /quantities\[1\]\.name: the name "outflow" is already used by quantities\[0\]/,
+    /quantities\[2\]\.x: the rectangle has zero area: x runs over \[0\.2, 0\.2\]/,
+    /quantities\[3\]\.y: the point lies outside the domain: y = -0\.1/,
+    /quantities\[4\]\.name: "maximum" is the name of a built-in quantity/,
+    /quantities\[5\]\.side: a point quantity has no "side"/,
+  ];
+  assert.equal(problems.length, expect.length, messages.join("\n"));
+  expect.forEach((re, k) => assert.match(messages[k], re));
+  // located: the duplicate name is reported on its own line, the second "outflow"
+  assert.equal(problems[1].line, lines.findLastIndex((l) => l.includes('"outflow"')) + 1);
+  // a flux without its side is a schema problem
+  doc.quantities = [{ name: "f", kind: "flux" }];
+  const missing = validateCaseText(JSON.stringify(doc), "q.json").problems.map(formatProblem);
+  assert.match(missing.join("\n"), /side/);
+});

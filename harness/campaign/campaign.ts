@@ -86,9 +86,43 @@ export function fingerprint(
     cases: cases.map((c) => [c.id, c.origin, c.parameters, gridsOf(c, options), c.expected]),
     solvers: solvers.map((
       s,
-    ) => [s.info.name, s.info.scheme, s.info.layout, s.info.command ?? null]),
+    ) => [s.info.name, s.info.scheme, s.info.layout, s.info.command ?? null, solverFileOf(s)]),
     tolerance: options.tolerance ?? 1e-10,
   });
+}
+
+/** The solver file that declared an external solver, with its SHA-256 (null for the reference). */
+function solverFileOf(s: Solver): { path: string; sha256: string } | null {
+  const file = s.info.build?.solverFile;
+  return file ? { path: file.path, sha256: file.sha256 } : null;
+}
+
+/**
+ * The solvers whose solver file changed between two fingerprints, in words (empty when none did,
+ * or when the earlier fingerprint is not one of ours): what a refused resume names.
+ */
+export function changedSolverFiles(earlier: string, now: string): string[] {
+  type Entry = [string, unknown, unknown, unknown, { path: string; sha256: string } | null];
+  const solversOf = (print: string): Entry[] => {
+    try {
+      const parsed = JSON.parse(print);
+      return Array.isArray(parsed?.solvers) ? parsed.solvers : [];
+    } catch {
+      // a fingerprint from another version of gridproof: nothing to compare
+      return [];
+    }
+  };
+  const before = new Map(solversOf(earlier).map((e) => [e[0], e[4] ?? null]));
+  const out: string[] = [];
+  for (const [name, , , , file] of solversOf(now)) {
+    const old = before.get(name);
+    if (!file || !old || old.sha256 === file.sha256) continue;
+    out.push(
+      `solver ${name}: its solver file ${file.path} changed since the journal was written ` +
+        `(SHA-256 ${old.sha256.slice(0, 12)}… then, ${file.sha256.slice(0, 12)}… now)`,
+    );
+  }
+  return out;
 }
 
 /** What a report needs to know about a case. */
@@ -179,6 +213,14 @@ async function campaignIn(
       }
       const earlier = readJournal(text, path);
       if (earlier.header && earlier.header.fingerprint !== print) {
+        const changed = changedSolverFiles(earlier.header.fingerprint, print);
+        if (changed.length > 0) {
+          throw new RangeError(
+            `${path}: cannot resume: ${changed.join("; ")}; its finished solves may not answer ` +
+              `for the edited solver: restore the solver file to resume, or run the campaign ` +
+              `afresh (without --resume, or with another --out folder)`,
+          );
+        }
         throw new RangeError(
           `${path} belongs to a campaign with other cases, grids, solvers or tolerance: ` +
             `resume with the same options, or choose another --out folder`,
@@ -317,7 +359,7 @@ function refuseChangedInputs(
     throw new RangeError(
       `${path}: line ${earlier.line} (case ${p.kase.id}, solver ${p.solver.info.name}, ` +
         `${p.nx}×${p.ny}) was computed from other inputs than this run's (the case text, the ` +
-        `solver's command or the tolerance changed since): resume with the same inputs, or ` +
+        `solver's command, its solver file or the tolerance changed since): resume with the same inputs, or ` +
         `choose another --out folder`,
     );
   }

@@ -20,6 +20,7 @@ import {
 import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/mod.ts";
 import { PLACES } from "../result/mod.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
+import { chosenSpecs, discreteQuantity } from "./chosen_quantities.ts";
 import { discreteQuantities } from "./quantities.ts";
 
 /**
@@ -102,11 +103,17 @@ export function measureOutcome(
     }
   }
   // the point and flux quantities interpolate on equal steps: on a stretched family only the
-  // volume-weighted integral and the largest value are measured (read as free points)
+  // volume-weighted integral and the largest value are measured (read as free points), and the
+  // case's own quantities are not measured yet
+  const stretched = isStretchedCase(kase);
   record.quantities = discreteQuantities(
-    isStretchedCase(kase) ? { ...outcome, layout: "points" } : outcome,
+    stretched ? { ...outcome, layout: "points" } : outcome,
     kase.domain,
   );
+  for (const spec of stretched ? [] : chosenSpecs(kase)) {
+    const value = discreteQuantity(outcome, kase, spec);
+    if (value !== null) record.quantities[spec.name] = value;
+  }
   return record;
 }
 

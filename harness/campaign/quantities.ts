@@ -28,6 +28,13 @@
  */
 import type { CompiledCase } from "../../cases/types.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
+import { discreteQuantity, exactQuantity } from "./chosen_quantities.ts";
+import { gaussLegendre } from "./gauss_legendre.ts";
+
+export { gaussLegendre };
+
+/** The built-in `east-flux` as an instance of the general flux: ∂u/∂n over the whole east side. */
+const EAST_FLUX = { name: "east-flux", kind: "flux", side: "east" } as const;
 
 /** Where the values of a discrete solution sit: the parts of a solver's outcome used here. */
 export type DiscreteField = Pick<
@@ -82,14 +89,8 @@ export function discreteQuantities(
   const at = (ii: number, jj: number) => values[jj * ni + ii];
   out.point = (1 - s) * (1 - t) * at(i, j) + s * (1 - t) * at(i + 1, j) +
     (1 - s) * t * at(i, j + 1) + s * t * at(i + 1, j + 1);
-  let flux = 0;
-  for (let jj = 0; jj < nj; jj++) {
-    const u1 = at(ni - 1, jj), u2 = at(ni - 2, jj), u3 = at(ni - 3, jj);
-    const dudx = cell ? (2 * u1 - 3 * u2 + u3) / hx : (3 * u1 - 4 * u2 + u3) / (2 * hx);
-    const w = cell ? hy : (jj === 0 || jj === nj - 1 ? hy / 2 : hy);
-    flux += w * dudx;
-  }
-  out["east-flux"] = flux;
+  const flux = discreteQuantity(field, { domain }, EAST_FLUX, "normal");
+  if (flux !== null) out["east-flux"] = flux;
   out.maximum = refinedMaximum(values, ni, nj);
   return out;
 }
@@ -128,47 +129,6 @@ export function refinedMaximum(values: Float64Array, ni: number, nj: number): nu
   return u0;
 }
 
-// 8-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4, published).
-const GL_X = [
-  -0.9602898564975363,
-  -0.7966664774136267,
-  -0.5255324099163290,
-  -0.1834346424956498,
-  0.1834346424956498,
-  0.5255324099163290,
-  0.7966664774136267,
-  0.9602898564975363,
-];
-const GL_W = [
-  0.1012285362903763,
-  0.2223810344533745,
-  0.3137066458778873,
-  0.3626837833783620,
-  0.3626837833783620,
-  0.3137066458778873,
-  0.2223810344533745,
-  0.1012285362903763,
-];
-
-/** Composite 8-point Gauss–Legendre rule on [lo, hi] with `panels` panels: nodes and weights. */
-export function gaussLegendre(
-  lo: number,
-  hi: number,
-  panels: number,
-): { x: number[]; w: number[] } {
-  const x: number[] = [];
-  const w: number[] = [];
-  const width = (hi - lo) / panels;
-  for (let p = 0; p < panels; p++) {
-    const mid = lo + (p + 0.5) * width;
-    for (let k = 0; k < 8; k++) {
-      x.push(mid + 0.5 * width * GL_X[k]);
-      w.push(0.5 * width * GL_W[k]);
-    }
-  }
-  return { x, w };
-}
-
 /** The exact values of the quantities for a manufactured case (by quadrature of its exact solution). */
 export function exactQuantities(kase: CompiledCase): Record<string, number> {
   const { x0, x1, y0, y1 } = kase.domain;
@@ -180,13 +140,11 @@ export function exactQuantities(kase: CompiledCase): Record<string, number> {
       integral += gx.w[i] * gy.w[j] * kase.exact(gx.x[i], gy.x[j]);
     }
   }
-  let flux = 0;
-  for (let j = 0; j < gy.x.length; j++) flux += gy.w[j] * kase.exactDx(x1, gy.x[j]);
   return {
     integral,
     point: kase.exact(x0 + PROBE.sx * (x1 - x0), y0 + PROBE.sy * (y1 - y0)),
     maximum: exactMaximum(kase),
-    "east-flux": flux,
+    "east-flux": exactQuantity(kase, EAST_FLUX, "normal"),
   };
 }
 

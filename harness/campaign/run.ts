@@ -61,7 +61,8 @@ export interface RunOptions {
 
 /**
  * The digest of what determines a planned solve's result: the case (origin, domain, parameters,
- * formulas, boundary kinds), the solver's identity and the residual tolerance.
+ * formulas, boundary kinds), the solver's identity (with the SHA-256 of the solver file that
+ * declared it, when the CLI read one) and the residual tolerance.
  */
 export function plannedInputs(p: PlannedSolve, tolerance: number): string {
   const { kase, solver } = p;
@@ -77,6 +78,7 @@ export function plannedInputs(p: PlannedSolve, tolerance: number): string {
     solver.info.scheme,
     solver.info.layout,
     solver.info.command ?? null,
+    solver.info.build?.solverFile?.sha256 ?? null,
     tolerance,
   ]);
 }

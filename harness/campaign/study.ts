@@ -14,6 +14,7 @@ import { buildStudy, pairwiseOrders } from "../analysis/mod.ts";
 import type { RankComparison, SideName, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { diagnoseAcrossCases } from "./diagnosis.ts";
+import { chosenSpecs, exactQuantity, fluxMeasure, quantityLabel } from "./chosen_quantities.ts";
 import { exactQuantities, QUANTITIES } from "./quantities.ts";
 
 /** Options of {@link buildStudies}. */
@@ -60,9 +61,16 @@ export function buildStudies(
   for (const kase of cases) {
     const exact = exactQuantities(kase);
     const scale = Math.max(Math.abs(exact.maximum), maxAbs(kase));
-    const quantities = Object.fromEntries(
+    const quantities: Record<string, { label: string; exact: number }> = Object.fromEntries(
       QUANTITIES.map((q) => [q.name, { label: q.label, exact: exact[q.name] }]),
     );
+    // the case's own quantities, after the built-in ones
+    for (const spec of chosenSpecs(kase)) {
+      quantities[spec.name] = {
+        label: quantityLabel(spec, fluxMeasure(kase)),
+        exact: exactQuantity(kase, spec),
+      };
+    }
     for (const solver of solvers) {
       const mine = records.filter((r) => r.caseId === kase.id && r.solver === solver.info.name);
       if (mine.length === 0) continue;

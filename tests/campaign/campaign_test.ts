@@ -225,3 +225,45 @@ Deno.test("check: grids a solver declines leave the sequence, and the study says
   );
   assert.equal(result.summary.exitCode, 0);
 });
+
+Deno.test("check: a resume refuses a journal written before the solver file was edited, naming the solver", async () => {
+  // The CLI puts the SHA-256 of the solver file on the solver (info.build); an edited file (other
+  // arguments, environment, build) must not reuse the solves of the old one.
+  const out = await Deno.makeTempDir();
+  const kase = await loadCase("smooth-baseline");
+  const withFile = (sha256: string): Solver => {
+    const solver = createReferenceSolver({ name: "mine" });
+    solver.info.build = { files: [], solverFile: { path: "solvers.json", sha256, bytes: 10 } };
+    return solver;
+  };
+  const before = "a".repeat(64), after = "b".repeat(64);
+  const controller = new AbortController();
+  await runCampaign([kase], [withFile(before)], {
+    grids: [8, 16, 32],
+    outDir: out,
+    signal: controller.signal,
+    onProgress: () => controller.abort(),
+  });
+  await assert.rejects(
+    () => runCampaign([kase], [withFile(after)], { grids: [8, 16, 32], outDir: out, resume: true }),
+    (error: Error) => {
+      assert.match(
+        error.message,
+        /cannot resume: solver mine: its solver file solvers\.json changed/,
+      );
+      assert.match(error.message, /aaaaaaaaaaaa… then, bbbbbbbbbbbb… now/);
+      assert.match(error.message, /restore the solver file to resume, or run the campaign afresh/);
+      return true;
+    },
+  );
+  // the unedited file resumes
+  const resumed: boolean[] = [];
+  await runCampaign([kase], [withFile(before)], {
+    grids: [8, 16, 32],
+    outDir: out,
+    resume: true,
+    onProgress: (e) => resumed.push(e.resumed),
+  });
+  assert.deepEqual(resumed, [true, false, false]);
+  await Deno.remove(out, { recursive: true });
+});
