@@ -131,7 +131,8 @@ export const ANISOTROPY_FOR_LINES = 10;
 
 /**
  * The smoother for a problem: "alternating-line" when the stencil's couplings are anisotropic
- * somewhere — max over nodes of a·hy²/(c·hx²) or its inverse above {@link ANISOTROPY_FOR_LINES} —
+ * somewhere — max over nodes of a·hy²/(c·hx²) or its inverse above {@link ANISOTROPY_FOR_LINES},
+ * with the local spacings on a stretched grid (hx² → hw·he, hy² → hs·hn at the node) —
  * else "red-black". A request carries no advice, so the program decides from the coefficients (the
  * in-process path uses the case's own advice).
  *
@@ -146,9 +147,21 @@ export function smootherFor(
   const hx = (problem.domain.x1 - problem.domain.x0) / problem.nx;
   const hy = (problem.domain.y1 - problem.domain.y0) / problem.ny;
   const scale = (hy * hy) / (hx * hx);
-  const count = options.uniform ? Math.min(1, problem.a.length) : problem.a.length;
+  // On a stretched grid the spacings are local: hx² becomes hw·he at node i (the product in the
+  // denominator of the non-uniform 3-point u_xx), hy² alike; every node is looked at.
+  const co = problem.coordinates;
+  const local = (k: number): number => {
+    if (co === undefined) return scale;
+    const i = k % (problem.nx + 1), j = (k - i) / (problem.nx + 1);
+    const h2 = (v: Float64Array, t: number) =>
+      (v[t] - v[t > 0 ? t - 1 : t + 1]) * (v[t < v.length - 1 ? t + 1 : t - 1] - v[t]);
+    return Math.abs(h2(co.y, j) / h2(co.x, i));
+  };
+  const count = options.uniform && co === undefined
+    ? Math.min(1, problem.a.length)
+    : problem.a.length;
   for (let k = 0; k < count; k++) {
-    const ratio = (problem.a[k] * scale) / problem.c[k];
+    const ratio = (problem.a[k] * local(k)) / problem.c[k];
     if (ratio > ANISOTROPY_FOR_LINES || ratio < 1 / ANISOTROPY_FOR_LINES) return "alternating-line";
   }
   return "red-black";

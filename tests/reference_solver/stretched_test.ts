@@ -183,3 +183,12 @@ Deno.test("Stretched and periodic problems refused with the field named: lone pe
     /mixed term m ≠ 0 on a stretched grid/,
   );
 });
+
+Deno.test("smootherFor() decides by local spacings on a stretched grid: hs·hn = 0.01·0.02 against hx² = 1/64 is a coupling ratio 0.0128 < 1/10", async () => {
+  const { smootherFor } = await import("../../reference-solver/protocol_main.ts");
+  const x = Float64Array.from({ length: 9 }, (_, i) => i / 8);
+  const y = Float64Array.of(0, 0.01, 0.03, 0.1, 0.3, 0.6, 0.8, 0.95, 1);
+  const q = build(SMOOTH, x, x, DIRICHLET, LAP);
+  assert.equal(smootherFor(q), "red-black");
+  assert.equal(smootherFor({ ...q, coordinates: { x, y } }), "alternating-line");
+});
