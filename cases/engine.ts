@@ -23,6 +23,8 @@ import type { DomainCheckOptions, LatticeFill } from "./domain_check.ts";
 import { type Expr, involvesNoPoint, toExpr } from "./expression.ts";
 import { checkOperator, type OperatorFault } from "./operator_check.ts";
 import { checkRobinWeights } from "./robin_check.ts";
+import { checkSeam, type SeamFunction } from "./periodic_check.ts";
+import { COMPATIBILITY_TOLERANCE, compatibilityBalance } from "./compatibility.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import type {
   CaseBoundary,
@@ -132,29 +134,75 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       ),
     ]);
   }
-  const pureNeumann = SIDES.every((s) => {
+  // every side fixes only a derivative and there is no reaction: u is fixed up to a constant
+  const singular = SIDES.every((s) => {
     const spec = trees.sides[s];
-    return spec.kind === "neumann" || (spec.kind === "robin" && isZeroTree(math, spec.alpha!));
-  });
-  if (pureNeumann && derived.every((d) => isZeroTree(math, d.expanded.e))) {
-    const term = trees.form === "conservative" ? "reaction σ" : "coefficients.e";
-    throw collected(file, [
-      at(
-        "/boundary",
-        "boundary",
-        `every side is neumann and the ${
-          trees.form === "conservative" ? "reaction σ" : "reaction coefficient e"
-        } is 0, so the problem is singular (its solution is fixed only up to a constant); make ` +
-          `one side dirichlet or robin, or give ${term} a non-zero value`,
-      ),
-    ]);
-  }
+    return spec.kind === "neumann" || spec.kind === "periodic" ||
+      (spec.kind === "robin" && isZeroTree(math, spec.alpha!));
+  }) && derived.every((d) => isZeroTree(math, d.expanded.e));
   const built = assemble(math, caseFile, options.origin, parameters, trees, derived);
   const faults = checkRegions(built, trees, caseFile, options);
+  faults.push(...periodicFaults(built.compiled));
   if (faults.length) {
     throw collected(file, faults.map((f) => at(f.pointer, f.field, f.message)));
   }
+  if (singular) {
+    built.compiled.singular = true;
+    const balance = compatibilityBalance(built.compiled);
+    if (!(balance.relative <= COMPATIBILITY_TOLERANCE)) {
+      throw collected(file, [at(
+        "/exact",
+        "exact",
+        `the problem is singular (no side fixes u and there is no reaction term) and its derived ` +
+          `data do not balance: ∫ f dA = ${show(balance.source)} but the boundary flux ` +
+          `∮ flux·n ds = ${show(balance.flux)} plus the first-order terms' integral ` +
+          `${show(balance.volume)}; imbalance ${show(balance.imbalance)} (${
+            show(balance.relative)
+          } of the integrals' size, at most ${COMPATIBILITY_TOLERANCE} allowed). The exact ` +
+          "solution or a coefficient is probably not smooth (a kink the derived source misses); " +
+          "make them smooth, or fix u on one side (dirichlet, or robin with alpha ≠ 0)",
+      )]);
+    }
+  }
   return built.compiled;
+}
+
+function show(v: number): string {
+  return Number(v.toPrecision(4)).toString();
+}
+
+/** Faults of the periodic pairs: every function that must repeat across a seam and does not. */
+function periodicFaults(compiled: CompiledCase): OperatorFault[] {
+  const faults: OperatorFault[] = [];
+  const c = compiled.coefficients, K = compiled.conservative;
+  const terms: SeamFunction[] = K !== undefined
+    ? (["k11", "k12", "k22", "bx", "by", "sigma"] as const).map((k) => ({
+      name: `the conservative term ${k}`,
+      pointer: "/conductivity",
+      field: k,
+      fn: K[k],
+    }))
+    : (["a", "b", "c", "d", "e", "m"] as const).map((k) => ({
+      name: `coefficients.${k}`,
+      pointer: `/coefficients/${k}`,
+      field: `coefficients.${k}`,
+      fn: c[k],
+    }));
+  for (const axis of ["x", "y"] as const) {
+    if (compiled.boundary[axis === "x" ? "west" : "south"].kind !== "periodic") continue;
+    faults.push(...checkSeam(compiled.domain, axis, [
+      { name: "the exact solution u", pointer: "/exact", field: "exact", fn: compiled.exact },
+      {
+        name: `the normal derivative ∂u/∂${axis}`,
+        pointer: "/exact",
+        field: "exact",
+        fn: axis === "x" ? compiled.exactDx : compiled.exactDy,
+      },
+      ...terms,
+      { name: "the derived source f", pointer: "/exact", field: "exact", fn: compiled.source },
+    ]));
+  }
+  return faults;
 }
 
 /** The operator check of every region, and the interface conditions between them. */
