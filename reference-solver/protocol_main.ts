@@ -208,6 +208,8 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
       smoother: { name: smootherFor(discrete, { uniform }) },
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
+      // the request says the solution is fixed up to a constant: fix it by a zero mean
+      ...(problem.singular ? { singular: "mean-zero" as const } : {}),
     });
     return solutionReplyBytes(message.id, result.solution, {
       protocol,
