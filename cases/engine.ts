@@ -176,12 +176,10 @@ function periodicFaults(compiled: CompiledCase): OperatorFault[] {
   const faults: OperatorFault[] = [];
   const c = compiled.coefficients, K = compiled.conservative;
   const terms: SeamFunction[] = K !== undefined
-    ? (["k11", "k12", "k22", "bx", "by", "sigma"] as const).map((k) => ({
-      name: `the conservative term ${k}`,
-      pointer: "/conductivity",
-      field: k,
-      fn: K[k],
-    }))
+    ? (["k11", "k12", "k22", "bx", "by", "sigma"] as const).map((k) => {
+      const field = k === "sigma" ? "reaction" : k.startsWith("b") ? "advection" : "conductivity";
+      return { name: `the conservative term ${k}`, pointer: `/${field}`, field, fn: K[k] };
+    })
     : (["a", "b", "c", "d", "e", "m"] as const).map((k) => ({
       name: `coefficients.${k}`,
       pointer: `/coefficients/${k}`,
