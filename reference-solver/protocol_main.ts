@@ -22,6 +22,7 @@ import {
   messageBytes,
   type ParsedMessage,
   PROTOCOL_VERSION,
+  PROTOCOL_VERSION_2,
   PROTOCOL_VERSIONS,
   type ProtocolVersion,
   readSolveRequest,
@@ -347,7 +348,10 @@ async function serve(input: LineReader, forced: ArrayEncoding | undefined): Prom
     type: "ready",
     solver: { name: "gridproof-reference", version: "1" },
     supports: {
-      boundaryKinds: ["dirichlet", "neumann", "robin"],
+      // periodic sides exist in version 2 only
+      boundaryKinds: protocol === PROTOCOL_VERSION_2
+        ? ["dirichlet", "neumann", "robin", "periodic"]
+        : ["dirichlet", "neumann", "robin"],
       schemes: ["central", "upwind"],
       layouts: ["vertex"],
       encodings: ["numbers", "base64"],
