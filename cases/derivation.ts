@@ -52,6 +52,8 @@ export interface Derivation {
   robin: Partial<Record<Side, { alpha: Expr; beta: Expr }>>;
   /** The stretched grid family per axis (absent: uniform), as plain data. */
   mappings?: Partial<Record<Axis, MappingData>>;
+  /** true when u is fixed only up to a constant (the case's `singular`); absent: false. */
+  singular?: boolean;
 }
 
 /** The readable formulas of a case: mathjs text and TeX after simplification. */
@@ -148,7 +150,8 @@ export function isDerivation(value: unknown): value is Derivation {
       SIDES.includes(s as Side) && typeof w === "object" && w !== null &&
       isExpr((w as Record<string, unknown>).alpha) && isExpr((w as Record<string, unknown>).beta)
     ) ||
-    (v.mappings !== undefined && !isMappingData(v.mappings))
+    (v.mappings !== undefined && !isMappingData(v.mappings)) ||
+    (v.singular !== undefined && typeof v.singular !== "boolean")
   ) return false;
   return v.regions.every((r: Record<string, unknown>) =>
     typeof r === "object" && r !== null &&

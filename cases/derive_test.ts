@@ -78,6 +78,7 @@ Deno.test("derived source terms and boundary data agree with finite differences 
         const normal = { west: -q.x, east: q.x, south: -q.y, north: q.y };
         for (const side of ["west", "east", "south", "north"] as const) {
           const b = c.boundary[side];
+          if (b.kind === "periodic") continue; // no data: the seam joins the opposite side
           const want = b.kind === "dirichlet"
             ? c.exact(x, y)
             : b.kind === "neumann"

@@ -30,6 +30,8 @@ import {
 import { derivationKey, readCacheEntry, writeCacheEntry } from "./derive_cache.ts";
 import { checkOperator, type OperatorFault } from "./operator_check.ts";
 import { checkRobinWeights } from "./robin_check.ts";
+import { checkSeam, type SeamFunction } from "./periodic_check.ts";
+import { COMPATIBILITY_TOLERANCE, compatibilityBalance } from "./compatibility.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import { onLattice, sampleStretched } from "./sample_stretched.ts";
 import { caseMappings, mappingsFromData } from "./spacing.ts";
@@ -179,39 +181,83 @@ export async function buildCase(caseFile: CaseFile, options: BuildOptions): Prom
       ),
     ]);
   }
-  const pureNeumann = SIDES.every((s) => {
+  // every side fixes only a derivative and there is no reaction: u is fixed up to a constant
+  const singular = SIDES.every((s) => {
     const spec = trees.sides[s];
-    return spec.kind === "neumann" || (spec.kind === "robin" && isZeroTree(math, spec.alpha!));
-  });
-  if (pureNeumann && derived.every((d) => isZeroTree(math, d.expanded.e))) {
-    const term = trees.form === "conservative" ? "reaction σ" : "coefficients.e";
-    throw collected(file, [
-      at(
-        "/boundary",
-        "boundary",
-        `every side is neumann and the ${
-          trees.form === "conservative" ? "reaction σ" : "reaction coefficient e"
-        } is 0, so the problem is singular (its solution is fixed only up to a constant); make ` +
-          `one side dirichlet or robin, or give ${term} a non-zero value`,
-      ),
-    ]);
-  }
+    return spec.kind === "neumann" || spec.kind === "periodic" ||
+      (spec.kind === "robin" && isZeroTree(math, spec.alpha!));
+  }) && derived.every((d) => isZeroTree(math, d.expanded.e));
   const derivation = toDerivation(math, trees, derived, parameters);
   if (Object.keys(spacing.data).length) derivation.mappings = spacing.data;
+  if (singular) derivation.singular = true;
   // readable formulas need mathjs's simplify (slow): computed on first use only, or at once when
   // they go into the cache
   let shown: ReadableFormulas | undefined;
   const readable = () => shown ??= readableFormulas(math, trees, caseFile);
   const built = assemble(caseFile, options.origin, parameters, derivation, readable);
   const faults = checkRegions(built, derivation, caseFile, options);
+  faults.push(...periodicFaults(built.compiled));
   if (faults.length) {
     throw collected(file, faults.map((f) => at(f.pointer, f.field, f.message)));
+  }
+  if (singular) {
+    const balance = compatibilityBalance(built.compiled);
+    if (!(balance.relative <= COMPATIBILITY_TOLERANCE)) {
+      throw collected(file, [at(
+        "/exact",
+        "exact",
+        `the problem is singular (no side fixes u and there is no reaction term) and its derived ` +
+          `data do not balance: ∫ f dA = ${show(balance.source)} but the boundary flux ` +
+          `∮ flux·n ds = ${show(balance.flux)} plus the first-order terms' integral ` +
+          `${show(balance.volume)}; imbalance ${show(balance.imbalance)} (${
+            show(balance.relative)
+          } of the integrals' size, at most ${COMPATIBILITY_TOLERANCE} allowed). The exact ` +
+          "solution or a coefficient is probably not smooth (a kink the derived source misses); " +
+          "make them smooth, or fix u on one side (dirichlet, or robin with alpha ≠ 0)",
+      )]);
+    }
   }
   if (key !== undefined && !options.operatorCheck) {
     await writeCacheEntry(options.cacheDir!, key, { derivation, formulas: readable() });
   }
   rememberDerivation(built.compiled, derivation);
   return built.compiled;
+}
+
+function show(v: number): string {
+  return Number(v.toPrecision(4)).toString();
+}
+
+/** Faults of the periodic pairs: every function that must repeat across a seam and does not. */
+function periodicFaults(compiled: CompiledCase): OperatorFault[] {
+  const faults: OperatorFault[] = [];
+  const c = compiled.coefficients, K = compiled.conservative;
+  const terms: SeamFunction[] = K !== undefined
+    ? (["k11", "k12", "k22", "bx", "by", "sigma"] as const).map((k) => {
+      const field = k === "sigma" ? "reaction" : k.startsWith("b") ? "advection" : "conductivity";
+      return { name: `the conservative term ${k}`, pointer: `/${field}`, field, fn: K[k] };
+    })
+    : (["a", "b", "c", "d", "e", "m"] as const).map((k) => ({
+      name: `coefficients.${k}`,
+      pointer: `/coefficients/${k}`,
+      field: `coefficients.${k}`,
+      fn: c[k],
+    }));
+  for (const axis of ["x", "y"] as const) {
+    if (compiled.boundary[axis === "x" ? "west" : "south"].kind !== "periodic") continue;
+    faults.push(...checkSeam(compiled.domain, axis, [
+      { name: "the exact solution u", pointer: "/exact", field: "exact", fn: compiled.exact },
+      {
+        name: `the normal derivative ∂u/∂${axis}`,
+        pointer: "/exact",
+        field: "exact",
+        fn: axis === "x" ? compiled.exactDx : compiled.exactDy,
+      },
+      ...terms,
+      { name: "the derived source f", pointer: "/exact", field: "exact", fn: compiled.source },
+    ]));
+  }
+  return faults;
 }
 
 /** The operator check of every region, and the interface conditions between them. */
@@ -493,6 +539,7 @@ function assemble(
   // a stretched family samples at the mapped nodes, point by point (sample_stretched.ts)
   const stretched = Object.values(grid.mappings).some((m) => m.kind !== "uniform");
   const compiled: CompiledCase = {
+    ...(derivation.singular ? { singular: true } : {}),
     ...(stretched ? { mappings: { ...grid.mappings } } : {}),
     id: caseFile.id,
     title: caseFile.title,

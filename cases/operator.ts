@@ -152,6 +152,8 @@ export function deriveRegion(
     const spec = boundary[side];
     if (spec.kind === "dirichlet") data[side] = exact;
     else if (spec.kind === "neumann") data[side] = normal[side];
+    // a periodic side carries no data: its neighbour across the seam is the opposite side
+    else if (spec.kind === "periodic") data[side] = new ConstantNode(0);
     else {
       data[side] = tidy(sum([
         times(spec.alpha ?? new ConstantNode(0), exact),

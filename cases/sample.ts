@@ -89,6 +89,10 @@ function boundaryConditions(
   const out = {} as Record<Side, BoundaryCondition>;
   for (const side of ["west", "east", "south", "north"] as const) {
     const b = spec.boundary[side];
+    if (b.kind === "periodic") {
+      out[side] = { kind: "periodic" };
+      continue;
+    }
     const values = sampleSide(b.data, side, spec.domain, nx, ny);
     out[side] = b.kind === "robin"
       ? {
@@ -269,8 +273,46 @@ function finish(spec: SamplerSpec, nx: number, ny: number, arrays: Float64Array[
   if (spec.conductivity) {
     problem.conductivity = sampleConductivity(spec.conductivity, spec.domain, nx, ny);
   }
+  copyPeriodicImages(problem);
   checkSampled(spec, problem);
   return problem;
+}
+
+/**
+ * On a periodic axis the last node line is the image of the first (x1 − x0 is the period): its
+ * values are copied from there, so the images agree bit for bit whatever rounding the two
+ * abscissae gave (the case engine has checked at load that the functions repeat).
+ */
+function copyPeriodicImages(problem: Problem): void {
+  const { nx, ny, boundary } = problem;
+  const row = nx + 1;
+  const arrays = [problem.a, problem.b, problem.c, problem.d, problem.e, problem.f];
+  if (problem.m) arrays.push(problem.m);
+  const K = problem.conductivity;
+  if (boundary.west.kind === "periodic") {
+    for (const v of arrays) for (let j = 0; j <= ny; j++) v[j * row + nx] = v[j * row];
+    for (const v of [K?.alongY.k22, K?.alongY.k12]) {
+      for (let j = 0; v !== undefined && j < ny; j++) v[j * row + nx] = v[j * row];
+    }
+    for (const side of ["south", "north"] as const) {
+      const bc = boundary[side];
+      if (bc.kind === "periodic") continue;
+      bc.values[nx] = bc.values[0];
+      if (bc.kind === "robin") bc.alpha[nx] = bc.alpha[0], bc.beta[nx] = bc.beta[0];
+    }
+  }
+  if (boundary.south.kind === "periodic") {
+    for (const v of arrays) for (let i = 0; i <= nx; i++) v[ny * row + i] = v[i];
+    for (const v of [K?.alongX.k11, K?.alongX.k12]) {
+      for (let i = 0; v !== undefined && i < nx; i++) v[ny * nx + i] = v[i];
+    }
+    for (const side of ["west", "east"] as const) {
+      const bc = boundary[side];
+      if (bc.kind === "periodic") continue;
+      bc.values[ny] = bc.values[0];
+      if (bc.kind === "robin") bc.alpha[ny] = bc.alpha[0], bc.beta[ny] = bc.beta[0];
+    }
+  }
 }
 
 /** Options of {@link sampleProblemParallel}. */

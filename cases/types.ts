@@ -213,6 +213,13 @@ export interface CompiledCase {
   file?: CaseFile;
   /** The same formulas as TeX (mathjs `toTex`). */
   tex: CaseFormulas;
+  /**
+   * true when no side fixes u and there is no reaction term (every side Neumann, periodic or
+   * Robin with α ≡ 0, e ≡ 0): the solution is fixed only up to a constant. The engine has checked
+   * that the data balance (`compatibility.ts`); solutions are compared after removing the
+   * volume-weighted mean of both the computed and the exact field. Absent: false.
+   */
+  singular?: boolean;
   /** Advice for the reference solver (the case file's `solver`), when given. */
   solver?: { smoother?: string; cycle?: string; maxCycles?: number };
   /** The grid for a suggested size: nx = n, ny = round(n · aspect). */

@@ -290,6 +290,28 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
       push(`/boundary/${side}`, "robin needs alpha and beta not both 0");
     }
   }
+  for (
+    const [one, other] of [["west", "east"], ["east", "west"], ["south", "north"], [
+      "north",
+      "south",
+    ]] as const
+  ) {
+    if (c.boundary[one].kind === "periodic" && c.boundary[other].kind !== "periodic") {
+      push(
+        `/boundary/${one}`,
+        `a periodic side comes in a pair: ${one} is periodic but its partner ${other} is ` +
+          `${c.boundary[other].kind}; make ${other} periodic too, or give ${one} another kind`,
+      );
+    }
+  }
+  const sides = ["west", "east", "south", "north"] as const;
+  if (c.interfaces !== undefined && sides.some((s) => c.boundary[s].kind === "periodic")) {
+    push(
+      "/boundary",
+      "periodic sides are not supported with interfaces yet; remove the interfaces or make " +
+        "the sides non-periodic",
+    );
+  }
   return problems;
 }
 

@@ -22,6 +22,7 @@ import {
   messageBytes,
   type ParsedMessage,
   PROTOCOL_VERSION,
+  PROTOCOL_VERSION_2,
   PROTOCOL_VERSIONS,
   type ProtocolVersion,
   readSolveRequest,
@@ -223,6 +224,8 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
       smoother: { name: smootherFor(discrete, { uniform }) },
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
+      // the request says the solution is fixed up to a constant: fix it by a zero mean
+      ...(problem.singular ? { singular: "mean-zero" as const } : {}),
     });
     return solutionReplyBytes(message.id, result.solution, {
       protocol,
@@ -360,7 +363,10 @@ async function serve(input: LineReader, forced: ArrayEncoding | undefined): Prom
     type: "ready",
     solver: { name: "gridproof-reference", version: "1" },
     supports: {
-      boundaryKinds: ["dirichlet", "neumann", "robin"],
+      // periodic sides exist in version 2 only
+      boundaryKinds: protocol === PROTOCOL_VERSION_2
+        ? ["dirichlet", "neumann", "robin", "periodic"]
+        : ["dirichlet", "neumann", "robin"],
       schemes: ["central", "upwind"],
       layouts: ["vertex"],
       encodings: ["numbers", "base64"],

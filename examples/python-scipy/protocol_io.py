@@ -99,8 +99,12 @@ def read_problem(req):
     problem["boundary"] = {}
     for side in SIDES:
         s = bnd.get(side)
-        if not isinstance(s, dict) or s.get("kind") not in ("dirichlet", "neumann", "robin"):
-            raise RequestError(f"boundary.{side}.kind: must be dirichlet, neumann or robin")
+        if not isinstance(s, dict) or s.get("kind") not in KINDS:
+            raise RequestError(f"boundary.{side}.kind: must be one of {', '.join(KINDS)}")
+        if s["kind"] == "periodic":
+            # no data: the side's neighbours are across the seam (west with east, south with north)
+            problem["boundary"][side] = {"kind": "periodic"}
+            continue
         n = along_y if side in ("west", "east") else along_x
         entry = {
             "kind": s["kind"],
@@ -115,6 +119,12 @@ def read_problem(req):
                 else:
                     entry[w] = decode_array(v, f"boundary.{side}.{w}", n)
         problem["boundary"][side] = entry
+    for one, other in (("west", "east"), ("south", "north")):
+        if (problem["boundary"][one]["kind"] == "periodic") != (
+            problem["boundary"][other]["kind"] == "periodic"
+        ):
+            raise RequestError(f"boundary: {one} and {other} must both be periodic or neither")
+    problem["singular"] = req.get("singular") is True
     return problem
 
 
@@ -143,6 +153,9 @@ def _read_conservative(req, problem, shape):
             field = f"conservative.faces.{axis}.{name}"
             arr = decode_array(group.get(name), field, fshape[0] * fshape[1])
             problem[f"f{axis}_{name}"] = arr.reshape(fshape)
+
+
+KINDS = ("dirichlet", "neumann", "robin", "periodic")
 
 
 def message(kind, protocol=PROTOCOL, **fields):

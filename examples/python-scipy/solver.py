@@ -28,6 +28,7 @@ import time
 
 import numpy as np
 import scipy
+import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
 import cells
@@ -55,6 +56,16 @@ def solve_free(A, rhs, mask, dvals):
     return u
 
 
+def solve_bordered(A, rhs, w):
+    """Solves the singular A u = rhs for the u with w.u = 0: the bordered system
+    [A 1; w^T 0] [u; lam] = [rhs; 0], non-singular when A's null space is the constants."""
+    n = rhs.size
+    ones = sp.csr_matrix(np.ones((n, 1)))
+    B = sp.bmat([[A, ones], [sp.csr_matrix(w.reshape(1, n)), None]], format="csc")
+    x = spla.spsolve(B, np.concatenate([rhs, [0.0]]))
+    return x[:n]
+
+
 def make_solver(layout, defect):
     """Returns (solve, ready) for the chosen layout and defect."""
     name = "python-scipy-" + layout + ("-defective" if defect else "")
@@ -62,7 +73,7 @@ def make_solver(layout, defect):
         "ready",
         solver={"name": name, "version": VERSION},
         supports={
-            "boundaryKinds": ["dirichlet", "neumann", "robin"],
+            "boundaryKinds": ["dirichlet", "neumann", "robin", "periodic"],
             "schemes": ["central", "upwind"],
             "layouts": [layout],
             "encodings": ["numbers", "base64"],
@@ -93,16 +104,18 @@ def make_solver(layout, defect):
                 reason=f"grid {nx}x{ny} is above this example's largest grid {LARGEST}x{LARGEST}",
             )
         problem = read_problem(req)
-        if vertex.is_singular(problem):
-            return message(
-                "not-applicable",
-                id=rid,
-                reason="only Neumann sides and e = 0: the solution is fixed only up to a "
-                "constant, and this example does not choose one",
-            )
         start = time.perf_counter()
         upwind = scheme == "upwind"
         conservative = problem["form"] == "conservative"
+        periodic = any(vertex.periodic_axes(problem))
+        mixed = "m" in problem and bool(np.any(problem["m"] != 0.0))
+        if periodic and (conservative or mixed or defect):
+            return message(
+                "not-applicable",
+                id=rid,
+                reason="this example has periodic sides in the plain non-conservative scheme "
+                "only (no conservative form, no mixed term, no seeded defect)",
+            )
         if defect and (conservative or "m" in problem):
             return message(
                 "not-applicable",
@@ -135,16 +148,28 @@ def make_solver(layout, defect):
                 )
         except ValueError as err:
             raise RequestError(str(err)) from None
-        if layout == "vertex" and "lines" not in problem:
-            u = solve_free(A, rhs, *vertex.dirichlet_values(problem))
+        singular = vertex.is_singular(problem)
+        if singular:
+            # fixed up to a constant: the bordered system [A 1; w^T 0] [u; lam] = [f; 0] picks
+            # the solution of zero volume-weighted mean (lam absorbs the data's discrete imbalance)
+            w = vertex.volume_weights(problem) if layout == "vertex" else np.ones(rhs.size)
+            u = solve_bordered(A, rhs, w)
+        elif layout == "vertex" and "lines" not in problem:
+            mask, dvals = vertex.dirichlet_values(problem)
+            u = solve_free(A, rhs, vertex.reduce(problem, mask), vertex.reduce(problem, dvals))
         else:
             u = spla.spsolve(A.tocsc(), rhs)
+        r0 = float(np.linalg.norm(rhs))
+        res = rhs - A @ u
+        if singular:
+            res = res - res.mean()  # the part of the data the constant shift lam took away
+        r1 = float(np.linalg.norm(res))
+        if layout == "vertex":
+            u = vertex.expand(problem, u)
         seconds = time.perf_counter() - start
         if not np.all(np.isfinite(u)):
             return message("error", id=rid, reason="spsolve returned non-finite values "
                            "(the assembled matrix is singular)")
-        r0 = float(np.linalg.norm(rhs))
-        r1 = float(np.linalg.norm(rhs - A @ u))
         log(f"{name}: {req.get('id')} n={A.shape[0]} residual {r1:.3e} in {seconds:.3f} s")
         notes = (
             f"scipy {scipy.__version__} spsolve (SuperLU), {layout} layout, {scheme} scheme, "

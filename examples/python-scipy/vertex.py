@@ -9,6 +9,9 @@ Node (i, j) sits at (x0 + i*hx, y0 + j*hy) and is unknown number j*(nx + 1) + i 
 - Neumann (du/dn = g, n outward) and Robin (alpha*u + beta*du/dn = g) sides: a ghost node outside
   the side takes its value from the central difference of the boundary condition, and the interior
   stencil is applied at the boundary node; the ghost is then eliminated ("folded") into the row.
+- Periodic pairs (west+east, south+north): node nx is the image of node 0, so the unknowns are
+  the nodes 0..nx-1 along that axis and the west neighbour of node 0 is node nx-1 (spacing
+  unchanged: the grid is uniform); `expand` appends the images to the solution.
 - Corners: if either side meeting there is Dirichlet, the corner is a Dirichlet node, with its value
   from the west/east side when that side is Dirichlet, otherwise from the south/north side. If both
   sides are Neumann/Robin, ghosts are folded in both directions, each from its own side's data.
@@ -93,21 +96,46 @@ def stencil(problem, upwind=False):
     return cc, cw, ce, cs, cn
 
 
-def csr_from_stencil(cc, cw, ce, cs, cn):
+def periodic_axes(problem):
+    """(px, py): whether west+east and south+north are periodic pairs."""
+    bc = problem["boundary"]
+    return bc["west"]["kind"] == "periodic", bc["south"]["kind"] == "periodic"
+
+
+def reduce(problem, arr):
+    """A (ny+1, nx+1) node array without the periodic images (the unknowns' layout)."""
+    px, py = periodic_axes(problem)
+    return arr[: arr.shape[0] - 1 if py else None, : arr.shape[1] - 1 if px else None]
+
+
+def expand(problem, u):
+    """The solution on all (nx+1)(ny+1) nodes from the unknowns: images copied from node 0."""
+    nx, ny = problem["nx"], problem["ny"]
+    px, py = periodic_axes(problem)
+    u = np.asarray(u).reshape(ny + (0 if py else 1), nx + (0 if px else 1))
+    if px:
+        u = np.concatenate([u, u[:, :1]], axis=1)
+    if py:
+        u = np.concatenate([u, u[:1, :]], axis=0)
+    return u.ravel()
+
+
+def csr_from_stencil(cc, cw, ce, cs, cn, wrap=(False, False)):
     """The sparse matrix of a 5-point stencil given as five (rows, columns) weight arrays, points
     numbered x fastest. Every non-zero off-diagonal weight must point inside the array (boundary
-    ghosts already folded in); the vertex and the cell-centred assemblies share this."""
+    ghosts already folded in), except across a periodic axis (wrap = (px, py)), where it wraps
+    around; the vertex and the cell-centred assemblies share this."""
     ny, nx = cc.shape
     n = nx * ny
     idx = np.arange(n).reshape(ny, nx)
     rows, cols, vals = [idx.ravel()], [idx.ravel()], [cc.ravel()]
     for w, di, dj in ((cw, -1, 0), (ce, 1, 0), (cs, 0, -1), (cn, 0, 1)):
         jj, ii = np.nonzero(w)
-        ok = (ii + di >= 0) & (ii + di < nx) & (jj + dj >= 0) & (jj + dj < ny)
+        ok = ((ii + di >= 0) & (ii + di < nx) | wrap[0]) & ((jj + dj >= 0) & (jj + dj < ny) | wrap[1])
         if not np.all(ok):
             raise AssertionError("a stencil weight points outside the grid after folding")
         rows.append(idx[jj, ii])
-        cols.append(idx[jj + dj, ii + di])
+        cols.append(idx[(jj + dj) % ny, (ii + di) % nx])
         vals.append(w[jj, ii])
     return sp.csr_matrix(
         (np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=(n, n)
@@ -141,7 +169,7 @@ def assemble(problem, upwind=False, defect=None):
         ("north", (ny, slice(None)), cn, cs, hy),
     )
     for side, where, ghost_w, mirror_w, h in folds:
-        if dirichlet_like(bc[side]):
+        if dirichlet_like(bc[side]) or bc[side]["kind"] == "periodic":
             continue
         alpha, beta = _robin(bc[side])
         g = np.asarray(bc[side]["values"], dtype=float)
@@ -158,8 +186,26 @@ def assemble(problem, upwind=False, defect=None):
     cc[mask], cw[mask], ce[mask], cs[mask], cn[mask] = 1.0, 0.0, 0.0, 0.0, 0.0
     rhs[mask] = dvals[mask]
 
-    A = csr_from_stencil(cc, cw, ce, cs, cn)
+    # periodic: drop the image nodes; their neighbours wrap across the seam
+    cc, cw, ce, cs, cn, rhs = (reduce(problem, w) for w in (cc, cw, ce, cs, cn, rhs))
+    A = csr_from_stencil(cc, cw, ce, cs, cn, wrap=periodic_axes(problem))
     return A, rhs.ravel()
+
+
+def volume_weights(problem):
+    """Control volumes of the unknowns: trapezoid weights, a whole cell across a periodic seam."""
+    (x0, x1, y0, y1) = problem["domain"]
+    nx, ny = problem["nx"], problem["ny"]
+    px, py = periodic_axes(problem)
+    wx = np.full(nx if px else nx + 1, (x1 - x0) / nx)
+    wy = np.full(ny if py else ny + 1, (y1 - y0) / ny)
+    if not px:
+        wx[0] /= 2
+        wx[-1] /= 2
+    if not py:
+        wy[0] /= 2
+        wy[-1] /= 2
+    return np.outer(wy, wx).ravel()
 
 
 def _seed_one_sided_defect(problem, cc, cw, ce, cs, cn, rhs, hx, hy):
@@ -173,7 +219,7 @@ def _seed_one_sided_defect(problem, cc, cw, ce, cs, cn, rhs, hx, hy):
         ("south", (0, slice(None)), cn, hy),
         ("north", (ny, slice(None)), cs, hy),
     ):
-        if dirichlet_like(bc[side]):
+        if dirichlet_like(bc[side]) or bc[side]["kind"] == "periodic":
             continue
         alpha, beta = _robin(bc[side])
         # du/dn ~ (u_boundary - u_inside)/h, n outward
@@ -185,7 +231,10 @@ def _seed_one_sided_defect(problem, cc, cw, ce, cs, cn, rhs, hx, hy):
 
 
 def is_singular(problem):
-    """True for a pure Neumann problem with e == 0 everywhere (solution only up to a constant)."""
+    """True when no side fixes u (Neumann, periodic, Robin with alpha = 0) and e == 0 everywhere:
+    the solution is fixed only up to a constant."""
+    if problem.get("singular"):
+        return True
     bc = problem["boundary"]
     if any(bc[s]["kind"] == "dirichlet" for s in SIDES):
         return False

@@ -23,6 +23,7 @@
 export { studentTCdf, studentTQuantile } from "./student_t.ts";
 export { vertexWeights } from "./vertex_weights.ts";
 export { type ErrorNormOptions, errorNorms } from "./error_norms.ts";
+export { weightedMean, withoutMean } from "./mean_removal.ts";
 export {
   boundaryBandMask,
   DEFAULT_BAND,

@@ -16,6 +16,7 @@ import {
   pointRegionNorms,
   residualMetrics,
   type SideData,
+  withoutMean,
 } from "../analysis/mod.ts";
 import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/mod.ts";
 import { PLACES } from "../result/mod.ts";
@@ -26,6 +27,10 @@ import { discreteQuantities } from "./quantities.ts";
 /**
  * Measures one outcome. The representative spacing is h = sqrt(area / N) (Celik et al. 2008,
  * published), with N the number of cells of a structured grid or of points of a free point set.
+ * For a singular case (`CompiledCase.singular`) the volume-weighted mean (weights: the outcome's
+ * point weights) is removed from both the computed and the exact field before anything is
+ * measured: norms, places, error map and quantities all see mean-free fields, and the record says
+ * `meanRemoved`.
  */
 export function measureOutcome(
   kase: CompiledCase,
@@ -71,12 +76,16 @@ export function measureOutcome(
   else if (metrics.stagnated) record.stopReason = "stagnated";
   if (outcome.status !== "ok") return record;
 
-  const exact = new Float64Array(outcome.values.length);
-  let scale = 0;
-  for (let k = 0; k < exact.length; k++) {
-    exact[k] = kase.exact(outcome.x[k], outcome.y[k]);
-    scale = Math.max(scale, Math.abs(exact[k]));
+  let exact: Float64Array = new Float64Array(outcome.values.length);
+  for (let k = 0; k < exact.length; k++) exact[k] = kase.exact(outcome.x[k], outcome.y[k]);
+  if (kase.singular) {
+    // fixed up to a constant: compare mean-free fields (weights: the points' control volumes)
+    exact = withoutMean(exact, outcome.weights);
+    outcome = { ...outcome, values: withoutMean(outcome.values, outcome.weights) };
+    record.meanRemoved = true;
   }
+  let scale = 0;
+  for (let k = 0; k < exact.length; k++) scale = Math.max(scale, Math.abs(exact[k]));
   const band = outcome.boundaryBand ?? new Uint8Array(outcome.values.length);
   record.errors = regionNorms(outcome.values, exact, band, outcome.weights);
   const spacing = outcome.layout === "points"

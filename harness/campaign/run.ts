@@ -12,7 +12,7 @@ import type { JobNote, Solver } from "../solvers/mod.ts";
 import { type JournaledSolve, JournalWriter, solveInputs, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";
 import type { MeasuringSolver } from "./reference_pool.ts";
-import { errorMap } from "../analysis/mod.ts";
+import { errorMap, vertexWeights, withoutMean } from "../analysis/mod.ts";
 
 /** One planned solve. */
 export interface PlannedSolve {
@@ -142,6 +142,15 @@ export async function runSolves(
   const settleDifference = (index: number, values: Float64Array, reference: Float64Array) => {
     const record = records[index]!;
     const p = plan[index];
+    if (p.kase.singular && values.length === reference.length) {
+      // each solver fixed its own constant: compare the mean-free fields
+      const { x0, x1, y0, y1 } = p.kase.domain;
+      const w = vertexWeights(p.nx, p.ny, (x1 - x0) / p.nx, (y1 - y0) / p.ny);
+      if (w.length === values.length) {
+        values = withoutMean(values, w);
+        reference = withoutMean(reference, w);
+      }
+    }
     const d = relativeDifference(values, reference, { domain: p.kase.domain, nx: p.nx, ny: p.ny });
     record.differenceFromReference = d?.difference ?? null;
     record.differenceAt = d?.at ?? null;

@@ -172,6 +172,11 @@ export function version1Misses(problem: SampledProblem): string | undefined {
   if (problem.lines) return "protocol 1 has no stretched grids (grid coordinates)";
   if (hasMixedTerm(problem.m)) return "protocol 1 has no mixed term (u_xy)";
   for (const side of SIDE_NAMES) {
+    if (problem.boundary[side].kind === "periodic") {
+      return `protocol 1 has no periodic sides (${side})`;
+    }
+  }
+  for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];
     if (b.kind !== "robin") continue;
     if (uniformWeight(b.alpha!) === undefined || uniformWeight(b.beta!) === undefined) {
@@ -200,7 +205,7 @@ function assembleRequest<A>(
   }
   const boundary = {} as Record<
     SideName,
-    { kind: SampledSide["kind"]; alpha?: number | A; beta?: number | A; values: A }
+    { kind: SampledSide["kind"]; alpha?: number | A; beta?: number | A; values?: A }
   >;
   // a Robin weight that is one value along the side goes as a number (the only shape of version 1)
   const weight = (w: Float64Array) => uniformWeight(w) ?? enc(w);
@@ -208,6 +213,8 @@ function assembleRequest<A>(
     const b = problem.boundary[side];
     boundary[side] = b.kind === "robin"
       ? { kind: b.kind, alpha: weight(b.alpha!), beta: weight(b.beta!), values: enc(b.values) }
+      : b.kind === "periodic"
+      ? { kind: b.kind }
       : { kind: b.kind, values: enc(b.values) };
   }
   const c = problem.coefficients;
@@ -217,6 +224,7 @@ function assembleRequest<A>(
   const form = problem.form ?? "non-conservative";
   const operator: Record<string, unknown> = {};
   if (protocol === PROTOCOL_VERSION_2) {
+    if (problem.singular) operator.singular = true;
     operator.form = form;
     operator.interfaces = {
       x: [...(problem.interfaces?.x ?? [])],
@@ -350,9 +358,13 @@ export function readSolveRequest(
   const boundary = {} as Record<SideName, SampledSide>;
   for (const side of SIDE_NAMES) {
     const b = message.boundary[side];
+    if (b.kind === "periodic") {
+      boundary[side] = { kind: "periodic", values: new Float64Array(0) };
+      continue;
+    }
     const along = side === "west" || side === "east" ? ny : nx;
     const length = layout === "vertex" ? along + 1 : along;
-    const values = read(b.values, `/boundary/${side}/values`, length);
+    const values = read(b.values!, `/boundary/${side}/values`, length);
     const weight = (w: number | WireArray | undefined, name: string) =>
       typeof w === "number"
         ? new Float64Array(length).fill(w)
@@ -371,6 +383,7 @@ export function readSolveRequest(
     source: read(message.source, "/source", count),
     boundary,
   };
+  if (message.singular === true) problem.singular = true;
   if (message.protocol === PROTOCOL_VERSION_2) {
     if (message.grid.x !== undefined && message.grid.y !== undefined) {
       problem.lines = {

@@ -54,8 +54,11 @@ export type SideName = "west" | "east" | "south" | "north";
 /** All sides in protocol order. */
 export const SIDE_NAMES: readonly SideName[] = ["west", "east", "south", "north"] as const;
 
-/** Boundary condition kinds. */
-export type BoundaryKindName = "dirichlet" | "neumann" | "robin";
+/**
+ * Boundary condition kinds. `periodic` (version 2 only) carries no values: west pairs with east,
+ * south with north, and the solver wraps its stencil across the seam.
+ */
+export type BoundaryKindName = "dirichlet" | "neumann" | "robin" | "periodic";
 
 /** Discretizations the harness checks. */
 export type SchemeHint = "central" | "upwind";
@@ -78,6 +81,7 @@ export interface SampledSide {
   alpha?: Float64Array;
   /** Robin β at the same points as `values` (robin only); on the wire like `alpha`. */
   beta?: Float64Array;
+  /** The side's data at its points; empty for a periodic side (none goes on the wire). */
   values: Float64Array;
 }
 
@@ -129,6 +133,11 @@ export interface SampledProblem {
    * cell layout (centres are midpoints of faces). Absent: uniform.
    */
   lines?: { x: Float64Array; y: Float64Array };
+  /**
+   * true when the solution is fixed only up to a constant (no side fixes u, no reaction term).
+   * Version 2 sends it as `singular`; absent: false.
+   */
+  singular?: boolean;
 }
 
 /**
@@ -234,9 +243,15 @@ export interface SolveRequestMessage {
       kind: BoundaryKindName;
       alpha?: number | WireArray;
       beta?: number | WireArray;
-      values: WireArray;
+      /** Absent for a periodic side. */
+      values?: WireArray;
     }
   >;
+  /**
+   * Version 2: true when the solution is fixed only up to a constant; the solver fixes it as it
+   * likes and the harness removes the mean anyway (docs/protocol.md).
+   */
+  singular?: boolean;
   expressions: ExpressionTexts;
   scheme: SchemeHint;
   tolerance: number;

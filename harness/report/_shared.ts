@@ -150,3 +150,14 @@ export function commandLine(command: string[] | undefined): string {
 export const CAUTION = "Code verification shows that the discrete equations are solved correctly " +
   "and converge at the expected order; it does not validate the physical model. Engineering use " +
   "must follow the applicable codes and standards and licensed review.";
+
+/**
+ * The note for a study whose solves were compared after mean removal (a singular case), or
+ * undefined when none was.
+ */
+export function meanRemovedNote(solves: { meanRemoved?: boolean }[]): string | undefined {
+  return solves.some((s) => s.meanRemoved === true)
+    ? "the solution is fixed only up to a constant: errors are measured after removing the " +
+      "volume-weighted mean from both the computed and the exact field"
+    : undefined;
+}

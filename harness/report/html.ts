@@ -19,6 +19,7 @@ import {
   caseInfo,
   CAUTION,
   commandLine,
+  meanRemovedNote,
   num,
   order,
   pairs,
@@ -531,6 +532,12 @@ export async function renderHtml(result: CampaignResult): Promise<string> {
       return `<h3>${esc(solver)}${
         study ? ` <span class="muted">(expected order ${num(study.expectedOrder)})</span>` : ""
       }</h3>${solveTable(solvesOf(result, id, solver))}${
+        meanRemovedNote(solvesOf(result, id, solver)) === undefined
+          ? ""
+          : `<p class="muted">Mean removed: ${
+            esc(meanRemovedNote(solvesOf(result, id, solver))!)
+          }.</p>`
+      }${
         study
           ? orderTable(study) + placeTable(study) + studyNotes(study) +
             verdictList(study.verdicts, false)

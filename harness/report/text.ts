@@ -11,6 +11,7 @@ import {
   bySeverity,
   caseIds,
   caseInfo,
+  meanRemovedNote,
   num,
   order,
   orderOf,
@@ -142,6 +143,8 @@ export function renderText(result: CampaignResult, options: TextOptions = {}): s
         rows.push(solveRow(s, pairwiseAt(study, max, s.nx), pairwiseAt(study, l2, s.nx)));
       }
       out.push(...table(rows, "    "));
+      const meanNote = meanRemovedNote(solves);
+      if (meanNote) out.push(`    mean removed: ${meanNote}`);
       if (study) {
         const fitted = [max, l2].filter((r) => r !== undefined).map((r) =>
           `${r!.norm === "l2" ? "L2" : r!.norm} ${order(r!.fitted.order)} ` +

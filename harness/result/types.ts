@@ -65,6 +65,12 @@ export interface SolveRecord {
   status: SolveStatus;
   /** Why the solve failed or does not apply (plain words); absent when ok. */
   reason?: string;
+  /**
+   * true when the case is singular (solution fixed up to a constant) and the volume-weighted mean
+   * was removed from both the computed and the exact field before measuring (and before the
+   * comparison with the reference solver).
+   */
+  meanRemoved?: boolean;
   /** Error norms against the exact solution per region (present when ok). */
   errors?: Record<Region, NormSet>;
   /** Quantities of interest computed from the discrete solution, by name. */

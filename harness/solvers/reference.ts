@@ -85,6 +85,8 @@ export function createReferenceSolver(options: ReferenceSolverOptions = {}): Sol
         const base = withAdvice(options.solveOptions ?? {}, task.case.solver);
         const result = solve(problem, {
           ...base,
+          // a singular case: the solver fixes the constant by a zero volume-weighted mean
+          ...(task.case.singular ? { singular: "mean-zero" as const } : {}),
           scheme: { ...base.scheme, upwind: task.scheme === "upwind" },
           stop: { ...base.stop, tolerance: task.tolerance },
         });

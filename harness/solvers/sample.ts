@@ -59,6 +59,7 @@ export function sampleCase(
   } else {
     problem.form = "non-conservative";
   }
+  if (compiled.singular) problem.singular = true;
   return problem;
 }
 
@@ -71,10 +72,13 @@ export function sampleCase(
  */
 export function version1Refusal(compiled: CompiledCase): string | undefined {
   const varying = SIDES.find((s) => compiled.boundary[s].weightsVary === true);
+  const periodic = SIDES.find((s) => compiled.boundary[s].kind === "periodic");
   const missing = compiled.form === "conservative"
     ? "no conservative form"
     : isStretchedCase(compiled)
     ? "no stretched grids (grid coordinates)"
+    : periodic !== undefined
+    ? `no periodic sides (${periodic})`
     : !noMixedTerm(compiled)
     ? "no mixed term (u_xy)"
     : varying !== undefined
@@ -95,7 +99,12 @@ function noMixedTerm(compiled: CompiledCase): boolean {
 function sampleVertex(compiled: CompiledCase, nx: number, ny: number): SampledProblem {
   const p = compiled.sample(nx, ny);
   const boundary = {} as Record<SideName, SampledSide>;
-  for (const side of SIDES) boundary[side] = { ...p.boundary[side] } as SampledSide;
+  for (const side of SIDES) {
+    const bc = p.boundary[side];
+    boundary[side] = bc.kind === "periodic"
+      ? { kind: "periodic", values: new Float64Array(0) }
+      : { ...bc } as SampledSide;
+  }
   const problem: SampledProblem = {
     domain: { ...p.domain },
     nx: p.nx,
@@ -339,6 +348,10 @@ function cellBoundary(
   const boundary = {} as Record<SideName, SampledSide>;
   for (const side of SIDES) {
     const bc = compiled.boundary[side];
+    if (bc.kind === "periodic") {
+      boundary[side] = { kind: "periodic", values: new Float64Array(0) };
+      continue;
+    }
     const vertical = side === "west" || side === "east";
     const count = vertical ? ny : nx;
     const robin = bc.kind === "robin";
