@@ -480,7 +480,7 @@ function assemble(
     boundary,
   };
   if (spec.mixed === undefined) delete spec.mixed;
-  const aspect = caseFile.aspect ?? 1;
+  const intervalRatio = caseFile.intervalRatio ?? 1;
   // Without convection (b ≡ d ≡ 0) upwinding changes nothing: the upwind scheme is the central
   // scheme, so it is expected to behave exactly like it (exact identity of the stencils).
   const noConvection = derivation.noConvection;
@@ -507,7 +507,7 @@ function assemble(
     expected,
     tags: [...caseFile.tags],
     grids: [...caseFile.grids],
-    aspect,
+    intervalRatio,
     exact,
     exactDx: piece((r) => r.ux),
     exactDy: piece((r) => r.uy),
@@ -524,7 +524,7 @@ function assemble(
       return readable().tex;
     },
     gridMisses: (nx: number, ny: number) => gridMisses(interfaces, domain, nx, ny),
-    gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * aspect)) }),
+    gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * intervalRatio)) }),
     sample: (nx: number, ny: number) =>
       stretched
         ? sampleStretched(spec, makeGrid(domain, "vertex", { x: nx, y: ny }, grid.mappings))
