@@ -150,3 +150,15 @@ Deno.test("the top-level exact solution keeps its name: only expected.* exact is
   assert.equal(value?.exact, doc.exact);
   assert.deepEqual(warnings, []);
 });
+
+Deno.test("a misspelled old name is pointed to the new name, and old names are not offered", () => {
+  const doc = JSON.parse(Deno.readTextFileSync(NEW));
+  doc.expected.central.tolerence = 0.2;
+  const { problems } = validateCaseText(JSON.stringify(doc, null, 2), "t.json");
+  assert.equal(problems.length, 1);
+  assert.equal(
+    problems[0].message,
+    'unknown field "tolerence"; did you mean "orderTolerance"? (valid fields here: formal, ' +
+      "achievable, exactToRoundOff, grids, orderTolerance, layouts)",
+  );
+});

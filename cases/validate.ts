@@ -15,7 +15,7 @@ import { closestName } from "./_suggest.ts";
 import { ALLOWED_FUNCTIONS } from "./expression.ts";
 import type { CaseFile, CaseProblem } from "./case_file.ts";
 import { quantityProblems } from "./validate_quantities.ts";
-import { renameOldFields } from "./old_names.ts";
+import { OLD_FIELD_NAMES, renameOldFields } from "./old_names.ts";
 
 let validator: ValidateFunction | undefined;
 
@@ -73,9 +73,11 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
   for (const e of errors) {
     if (e.keyword !== "additionalProperties") continue;
     const name = String((e.params as { additionalProperty: string }).additionalProperty);
-    const valid = Object.keys(
-      (e.parentSchema as { properties?: Record<string, unknown> }).properties ?? {},
-    );
+    // deprecated old names (old_names.ts) are read but not offered
+    const valid = Object.entries(
+      (e.parentSchema as { properties?: Record<string, { deprecated?: boolean }> }).properties ??
+        {},
+    ).filter(([, p]) => p.deprecated !== true).map(([key]) => key);
     const pointer = `${e.instancePath}/${name}`;
     if (name === "grids" && LAYOUT_OVERRIDE.test(e.instancePath)) {
       const scheme = e.instancePath.split("/")[2];
@@ -90,7 +92,12 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
       });
       continue;
     }
-    const near = closestName(name, valid);
+    // a misspelled old name (e.g. "tolerence") is pointed to the new name
+    const nearOld = closestName(name, Object.keys(OLD_FIELD_NAMES));
+    const near = closestName(name, valid) ??
+      (nearOld !== undefined && valid.includes(OLD_FIELD_NAMES[nearOld])
+        ? OLD_FIELD_NAMES[nearOld]
+        : undefined);
     if (near) suggestedFor.add(`${e.instancePath}/${near}`);
     problems.push({
       file,
