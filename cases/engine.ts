@@ -33,7 +33,7 @@ import { checkRobinWeights } from "./robin_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import { onLattice, sampleStretched } from "./sample_stretched.ts";
 import { caseMappings, mappingsFromData } from "./spacing.ts";
-import { type Axis, type AxisMapping, makeGrid } from "../grid/mod.ts";
+import { makeGrid } from "../grid/mod.ts";
 import type {
   CaseBoundary,
   CaseFormulas,
@@ -611,6 +611,7 @@ function formulasOf(
 }
 
 /** The readable formulas of a case: its trees derived again and simplified by mathjs (slow). */
+// deno-lint-ignore no-unused-vars -- unused since the stretched-grid merge; kept for its callers
 function readableFormulas(math: MathTools, trees: CaseTrees, caseFile: CaseFile): ReadableFormulas {
   const simple = trees.regions.map((r) =>
     deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })
