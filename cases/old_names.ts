@@ -93,14 +93,13 @@ export function renameOldFields(value: unknown, doc: LocatedJson, file: string):
       const oldPointer = `${pointer}/${r.old}`;
       const pos = doc.keyPositions.get(oldPointer) ?? doc.positions.get(oldPointer);
       const at = pos ? { line: pos.line, column: pos.column } : {};
-      const where = pointer ? ` in ${dotted(pointer)}` : "";
       if (Object.hasOwn(holder, r.new)) {
         reading.problems.push({
           file,
           field: dotted(oldPointer),
           ...at,
-          message: `both "${r.old}" (the old name) and "${r.new}" are given${where}; they name ` +
-            `the same field: keep "${r.new}" and remove "${r.old}"`,
+          message: `both "${r.old}" (the old name) and "${r.new}" are given; they name the ` +
+            `same field: keep "${r.new}" and remove "${r.old}"`,
         });
         continue;
       }
@@ -108,8 +107,8 @@ export function renameOldFields(value: unknown, doc: LocatedJson, file: string):
         file,
         field: dotted(oldPointer),
         ...at,
-        message: `deprecated field name "${r.old}"${where}: rename it to "${r.new}" ` +
-          `(same meaning; the old name is still read for now)`,
+        message: `deprecated field name "${r.old}": rename it to "${r.new}" (same meaning; the ` +
+          "old name is still read for now)",
       });
       renameKey(holder, r.old, r.new);
       copyPositions(doc, oldPointer, `${pointer}/${r.new}`);

@@ -247,6 +247,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {
       const parameters = parseParameterFlags(opts.param);
       const c = await loadCase(id, { parameters });
+      for (const w of c.warnings ?? []) console.error(terminalSafe(`gridproof: warning: ${w}`));
       console.log(terminalSafe(showCase(c, opts.tex === true)));
     });
   cases

@@ -67,7 +67,7 @@ Deno.test("gridproof cases check passes an old-name file with located deprecatio
   );
   assert.match(
     run.stderr,
-    /old-names\.json:\d+:\d+: expected\.central\.layouts\.cell\.observed: deprecated field name "observed" in expected\.central\.layouts\.cell: rename it to "achievable"/,
+    /old-names\.json:\d+:\d+: expected\.central\.layouts\.cell\.observed: deprecated field name "observed": rename it to "achievable"/,
   );
   assert.equal(run.stderr.match(/gridproof: warning: /g)?.length, 8, run.stderr);
   const renamed = await runCli(["cases", "check", fixture("new-names.json")]);

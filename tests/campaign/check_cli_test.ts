@@ -236,7 +236,7 @@ Deno.test("gridproof check reads old names (case fields, --tolerance) with depre
   );
   assert.match(
     run.stderr,
-    /gridproof: warning: testdata\/cases\/old-names\.json:\d+:\d+: expected\.central\.exact: deprecated field name "exact" in expected\.central: rename it to "exactToRoundOff"/,
+    /gridproof: warning: testdata\/cases\/old-names\.json:\d+:\d+: expected\.central\.exact: deprecated field name "exact": rename it to "exactToRoundOff"/,
   );
   const result = JSON.parse(await Deno.readTextFile(`${dir}/result.json`));
   // the old `tolerance` of expected.central (0.2, not the default 0.1) reached the study
