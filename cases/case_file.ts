@@ -68,7 +68,8 @@ export interface CaseFile {
   motivation: string;
   manufactured: string;
   domain: { x0: number; x1: number; y0: number; y1: number };
-  aspect?: number;
+  /** ny/nx, the ratio of interval counts (old name `aspect`). Default 1. */
+  intervalRatio?: number;
   /** The stretched grid family: per axis, its map (absent axes are uniform). */
   spacing?: { x?: AxisSpacingText; y?: AxisSpacingText };
   /** The operator's form. Default: "non-conservative". */

@@ -35,7 +35,7 @@ import { COMPATIBILITY_TOLERANCE, compatibilityBalance } from "./compatibility.t
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import { onLattice, sampleStretched } from "./sample_stretched.ts";
 import { caseMappings, mappingsFromData } from "./spacing.ts";
-import { type Axis, type AxisMapping, makeGrid } from "../grid/mod.ts";
+import { makeGrid } from "../grid/mod.ts";
 import type {
   CaseBoundary,
   CaseFormulas,
@@ -526,7 +526,7 @@ function assemble(
     boundary,
   };
   if (spec.mixed === undefined) delete spec.mixed;
-  const aspect = caseFile.aspect ?? 1;
+  const intervalRatio = caseFile.intervalRatio ?? 1;
   // Without convection (b ≡ d ≡ 0) upwinding changes nothing: the upwind scheme is the central
   // scheme, so it is expected to behave exactly like it (exact identity of the stencils).
   const noConvection = derivation.noConvection;
@@ -554,7 +554,7 @@ function assemble(
     expected,
     tags: [...caseFile.tags],
     grids: [...caseFile.grids],
-    aspect,
+    intervalRatio,
     exact,
     exactDx: piece((r) => r.ux),
     exactDy: piece((r) => r.uy),
@@ -571,7 +571,7 @@ function assemble(
       return readable().tex;
     },
     gridMisses: (nx: number, ny: number) => gridMisses(interfaces, domain, nx, ny),
-    gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * aspect)) }),
+    gridFor: (n: number) => ({ nx: n, ny: Math.max(2, Math.round(n * intervalRatio)) }),
     sample: (nx: number, ny: number) =>
       stretched
         ? sampleStretched(spec, makeGrid(domain, "vertex", { x: nx, y: ny }, grid.mappings))
@@ -658,6 +658,7 @@ function formulasOf(
 }
 
 /** The readable formulas of a case: its trees derived again and simplified by mathjs (slow). */
+// deno-lint-ignore no-unused-vars -- unused since the stretched-grid merge; kept for its callers
 function readableFormulas(math: MathTools, trees: CaseTrees, caseFile: CaseFile): ReadableFormulas {
   const simple = trees.regions.map((r) =>
     deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })

@@ -9,9 +9,9 @@ import type { CompiledCase, ExpectedOrder, LayoutName, SchemeName } from "./type
 /**
  * Returns what a case expects of a solver with the given scheme and layout: the case's
  * `expected[scheme]` with `expected[scheme].layouts[layout]` merged in. The override's `formal`,
- * `exact` and `tolerance` replace the scheme's; its `observed` is merged per norm (a norm it names
- * replaces the scheme's entry for that norm, the others stay). `grids` always come from the
- * scheme. The result has no `layouts` field and shares no object with the case.
+ * `exactToRoundOff` and `orderTolerance` replace the scheme's; its `achievable` is merged per norm
+ * (a norm it names replaces the scheme's entry for that norm, the others stay). `grids` always
+ * come from the scheme. The result has no `layouts` field and shares no object with the case.
  *
  * @param kase the compiled case
  * @param scheme the solver's discretization
@@ -21,8 +21,8 @@ import type { CompiledCase, ExpectedOrder, LayoutName, SchemeName } from "./type
  * ```ts
  * import { expectationFor, loadCase } from "./mod.ts";
  * const kase = await loadCase("quadratic-exact");
- * expectationFor(kase, "central", "vertex").exact; // true
- * expectationFor(kase, "central", "cell").exact; // false
+ * expectationFor(kase, "central", "vertex").exactToRoundOff; // true
+ * expectationFor(kase, "central", "cell").exactToRoundOff; // false
  * ```
  */
 export function expectationFor(
@@ -30,16 +30,16 @@ export function expectationFor(
   scheme: SchemeName,
   layout: LayoutName,
 ): ExpectedOrder {
-  const { layouts, observed, grids, ...rest } = kase.expected[scheme];
+  const { layouts, achievable, grids, ...rest } = kase.expected[scheme];
   const result: ExpectedOrder = structuredClone(rest);
-  if (observed) result.observed = structuredClone(observed);
+  if (achievable) result.achievable = structuredClone(achievable);
   if (grids) result.grids = [...grids];
   const override = layouts?.[layout];
   if (!override) return result;
-  const { reason: _reason, observed: layoutObserved, ...fields } = override;
+  const { reason: _reason, achievable: layoutAchievable, ...fields } = override;
   Object.assign(result, structuredClone(fields));
-  if (layoutObserved) {
-    result.observed = { ...result.observed, ...structuredClone(layoutObserved) };
+  if (layoutAchievable) {
+    result.achievable = { ...result.achievable, ...structuredClone(layoutAchievable) };
   }
   return result;
 }

@@ -4,22 +4,22 @@ import { loadCase } from "./load.ts";
 import type { ExpectedOrder, SchemeName } from "./types.ts";
 
 // The merge rules checked here are the ones docs/cases.md states ("Expectations per layout"):
-// formal, exact and tolerance replace the scheme's, observed is merged per norm, grids stay the
+// formal, exactToRoundOff and orderTolerance replace the scheme's, achievable is merged per norm, grids stay the
 // scheme's, and the result carries no layouts.
 const central: ExpectedOrder = {
   formal: 2,
-  observed: {
+  achievable: {
     max: { order: 1.5, reason: "scheme max" },
     l2: { order: 1.5, reason: "scheme l2" },
   },
   grids: [16, 32, 64],
-  tolerance: 0.2,
+  orderTolerance: 0.2,
   layouts: {
     cell: {
       reason: "cell differs",
-      exact: false,
-      tolerance: 0.3,
-      observed: { max: { order: 1, reason: "cell max" } },
+      exactToRoundOff: false,
+      orderTolerance: 0.3,
+      achievable: { max: { order: 1, reason: "cell max" } },
     },
     points: { reason: "points differs", formal: 1 },
   },
@@ -34,30 +34,30 @@ Deno.test("expectationFor() returns the scheme's expectation for a layout withou
   assert.deepEqual(expectationFor(kase, "upwind", "cell"), { formal: 1 });
 });
 
-Deno.test("expectationFor() merges a layout's observed per norm and replaces its other fields", () => {
+Deno.test("expectationFor() merges a layout's achievable per norm and replaces its other fields", () => {
   assert.deepEqual(expectationFor(kase, "central", "cell"), {
     formal: 2,
-    observed: {
+    achievable: {
       max: { order: 1, reason: "cell max" },
       l2: { order: 1.5, reason: "scheme l2" },
     },
-    exact: false,
+    exactToRoundOff: false,
     grids: [16, 32, 64],
-    tolerance: 0.3,
+    orderTolerance: 0.3,
   });
   assert.deepEqual(expectationFor(kase, "central", "points"), {
     formal: 1,
-    observed: central.observed,
+    achievable: central.achievable,
     grids: [16, 32, 64],
-    tolerance: 0.2,
+    orderTolerance: 0.2,
   });
 });
 
 Deno.test("expectationFor() shares no object with the case", () => {
   const got = expectationFor(kase, "central", "cell");
-  got.observed!.l2!.order = 0;
+  got.achievable!.l2!.order = 0;
   got.grids!.push(128);
-  assert.equal(central.observed?.l2?.order, 1.5);
+  assert.equal(central.achievable?.l2?.order, 1.5);
   assert.deepEqual(central.grids, [16, 32, 64]);
   assert.equal("layouts" in got, false);
 });
@@ -67,10 +67,10 @@ Deno.test("expectationFor() keeps quadratic-exact exact for the vertex layout on
   // the cell-centred Dirichlet ghost 2g − u₁ and the cell-centre average of nodal values make an
   // O(h²) error on a quadratic (both measured: see the case's reasons)
   const c = await loadCase("quadratic-exact");
-  assert.equal(expectationFor(c, "central", "vertex").exact, true);
+  assert.equal(expectationFor(c, "central", "vertex").exactToRoundOff, true);
   for (const layout of ["cell", "points"] as const) {
     const e = expectationFor(c, "central", layout);
-    assert.equal(e.exact, false, layout);
+    assert.equal(e.exactToRoundOff, false, layout);
     assert.equal(e.formal, 2, layout);
   }
 });

@@ -98,7 +98,7 @@ async function loadFile(
   options: LoadOptions,
 ): Promise<CompiledCase> {
   const text = await readText(path);
-  const { value, problems, located } = validateCaseText(text, label);
+  const { value, problems, warnings, located } = validateCaseText(text, label);
   if (!value) {
     throw new InputError(
       `${problems.length} problem${problems.length === 1 ? "" : "s"} in the case file`,
@@ -112,6 +112,7 @@ async function loadFile(
     ...(options.parameters ? { parameters: options.parameters } : {}),
     ...(options.cacheDir !== undefined ? { cacheDir: options.cacheDir } : {}),
   });
+  if (warnings.length) built.warnings = warnings.map(formatProblem);
   return built;
 }
 
@@ -222,6 +223,8 @@ export interface FileCheck {
   file: string;
   /** Formatted problems (`file:line:column: field: message`); empty when the file is fine. */
   problems: string[];
+  /** Formatted deprecation warnings (old field names); they do not make the file bad. */
+  warnings: string[];
 }
 
 /**
@@ -235,8 +238,10 @@ export async function checkCaseFiles(paths: readonly string[]): Promise<FileChec
   for (const id of libraryIds()) seen.set(id, `cases/library/${id}.json`);
   for (const path of paths) {
     const problems: string[] = [];
+    let warnings: string[] = [];
     try {
       const c = await loadFile(path, path, path, {});
+      warnings = c.warnings ?? [];
       const other = seen.get(c.id);
       if (other !== undefined) {
         problems.push(
@@ -260,7 +265,7 @@ export async function checkCaseFiles(paths: readonly string[]): Promise<FileChec
       } else if (error instanceof RangeError) problems.push(`${path}: ${error.message}`);
       else throw error;
     }
-    results.push({ file: path, problems });
+    results.push({ file: path, problems, warnings });
   }
   return results;
 }

@@ -29,12 +29,12 @@ export type SchemeName = "central" | "upwind";
 export type LayoutName = "vertex" | "cell" | "points";
 
 /** The fields of an {@link ExpectedOrder} a layout may override (not `grids`: they are the scheme's). */
-export type LayoutOverridable = "formal" | "observed" | "exact" | "tolerance";
+export type LayoutOverridable = "formal" | "achievable" | "exactToRoundOff" | "orderTolerance";
 
 /**
  * One layout's departure from its scheme's expectation, with the reason it departs (for example:
  * the cell-centred Dirichlet ghost `2g − u₁` is only second-order, so a quadratic is not reproduced
- * to round-off). `observed` is merged per norm into the scheme's; the other fields replace it.
+ * to round-off). `achievable` is merged per norm into the scheme's; the other fields replace it.
  */
 export type LayoutOverride = Partial<Pick<ExpectedOrder, LayoutOverridable>> & {
   /** Why this layout expects something else than the scheme says (the theory, or a measurement). */
@@ -45,22 +45,30 @@ export type LayoutOverride = Partial<Pick<ExpectedOrder, LayoutOverridable>> & {
 export interface ExpectedOrder {
   /** Formal order of the scheme (central 2, upwind 1). */
   formal: number;
-  /** Where theory says the observed order is lower: per norm, the order and the reason. */
-  observed?: Partial<Record<NormName, { order: number; reason: string }>>;
+  /**
+   * Where theory says the achievable order is lower than formal: per norm, the order and the
+   * reason (case file name; old name `observed`).
+   */
+  achievable?: Partial<Record<NormName, { order: number; reason: string }>>;
   /**
    * true for a case whose exact solution the scheme reproduces to round-off (an exactness check,
-   * not an order check): the verdict asks for errors at round-off level instead of an order.
+   * not an order check): the verdict asks for errors at round-off level instead of an order
+   * (old name `exact`).
    */
-  exact?: boolean;
+  exactToRoundOff?: boolean;
   /**
    * Grid sequence on which this scheme shows its order, when it differs from the case's `grids`
    * (a first-order scheme often needs finer grids to leave the pre-asymptotic range).
    */
   grids?: number[];
-  /** Allowed |observed − expected| order for this case; default: the campaign's (0.1). */
-  tolerance?: number;
   /**
-   * Per-layout overrides of `formal`, `observed`, `exact` and `tolerance`, each with its reason.
+   * Allowed |measured − expected| order for this case; default: the campaign's order tolerance
+   * (0.1). Old name `tolerance`.
+   */
+  orderTolerance?: number;
+  /**
+   * Per-layout overrides of `formal`, `achievable`, `exactToRoundOff` and `orderTolerance`, each
+   * with its reason.
    * Read an expectation for one layout with `expectationFor`, which merges them in.
    */
   layouts?: Partial<Record<LayoutName, LayoutOverride>>;
@@ -149,15 +157,24 @@ export interface CompiledCase {
   motivation: string;
   /** Where the case came from: "library" or the path of a user's file. */
   origin: string;
+  /**
+   * Deprecation warnings of the case file, formatted (`file:line:column: field: message`): old
+   * field names read under their new ones (`old_names.ts`). Absent when there are none. Library
+   * code never prints them; the CLI does.
+   */
+  warnings?: string[];
   domain: Domain;
   /** Parameter values in effect (defaults merged with overrides). */
   parameters: Record<string, number>;
   expected: Record<SchemeName, ExpectedOrder>;
   tags: string[];
-  /** Suggested grid sequence (intervals along x on the finest direction; ny follows the aspect). */
+  /** Suggested grid sequence (intervals along x; ny follows the interval ratio). */
   grids: number[];
-  /** Interior-grid aspect: ny = round(nx · aspect). 1 for square cells on a square. */
-  aspect: number;
+  /**
+   * Ratio of interval counts: ny = round(nx · intervalRatio) (case file `intervalRatio`, old name
+   * `aspect`). 1 gives square cells on a square domain.
+   */
+  intervalRatio: number;
   /**
    * The stretched grid family (the case file's `spacing`): per axis, the fixed map every grid of
    * the family comes from. Absent or empty: uniform grids. Grids of the case are made by
@@ -222,7 +239,7 @@ export interface CompiledCase {
   singular?: boolean;
   /** Advice for the reference solver (the case file's `solver`), when given. */
   solver?: { smoother?: string; cycle?: string; maxCycles?: number };
-  /** The grid for a suggested size: nx = n, ny = round(n · aspect). */
+  /** The grid for a suggested size: nx = n, ny = round(n · intervalRatio). */
   gridFor(n: number): { nx: number; ny: number };
   /** The exact solution at every node of an nx × ny grid (x fastest), one fused compiled pass. */
   sampleExact(nx: number, ny: number): Float64Array;

@@ -15,6 +15,7 @@ import { closestName } from "./_suggest.ts";
 import { ALLOWED_FUNCTIONS } from "./expression.ts";
 import type { CaseFile, CaseProblem } from "./case_file.ts";
 import { quantityProblems } from "./validate_quantities.ts";
+import { OLD_FIELD_NAMES, renameOldFields } from "./old_names.ts";
 
 let validator: ValidateFunction | undefined;
 
@@ -44,6 +45,11 @@ export function fieldPath(pointer: string): string {
 export interface CaseValidation {
   value?: CaseFile;
   problems: CaseProblem[];
+  /**
+   * Deprecation warnings: old field names read under their new names (`old_names.ts`). Library
+   * code never prints; the CLI shows them.
+   */
+  warnings: CaseProblem[];
   /** Positions of values and keys in the text, for later messages (absent for malformed JSON). */
   located?: LocatedJson;
 }
@@ -67,9 +73,11 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
   for (const e of errors) {
     if (e.keyword !== "additionalProperties") continue;
     const name = String((e.params as { additionalProperty: string }).additionalProperty);
-    const valid = Object.keys(
-      (e.parentSchema as { properties?: Record<string, unknown> }).properties ?? {},
-    );
+    // deprecated old names (old_names.ts) are read but not offered
+    const valid = Object.entries(
+      (e.parentSchema as { properties?: Record<string, { deprecated?: boolean }> }).properties ??
+        {},
+    ).filter(([, p]) => p.deprecated !== true).map(([key]) => key);
     const pointer = `${e.instancePath}/${name}`;
     if (name === "grids" && LAYOUT_OVERRIDE.test(e.instancePath)) {
       const scheme = e.instancePath.split("/")[2];
@@ -84,7 +92,12 @@ function schemaProblems(file: string, doc: LocatedJson, errors: ErrorObject[]): 
       });
       continue;
     }
-    const near = closestName(name, valid);
+    // a misspelled old name (e.g. "tolerence") is pointed to the new name
+    const nearOld = closestName(name, Object.keys(OLD_FIELD_NAMES));
+    const near = closestName(name, valid) ??
+      (nearOld !== undefined && valid.includes(OLD_FIELD_NAMES[nearOld])
+        ? OLD_FIELD_NAMES[nearOld]
+        : undefined);
     if (near) suggestedFor.add(`${e.instancePath}/${near}`);
     problems.push({
       file,
@@ -245,7 +258,7 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
       `unknown cycle "${advice.cycle}": use one of ${CYCLE_NAMES.join(", ")}`,
     );
   }
-  const aspect = c.aspect ?? 1;
+  const ratio = c.intervalRatio ?? 1;
   const sequences: [string, number[]][] = [["/grids", c.grids]];
   for (const scheme of ["central", "upwind"] as const) {
     const grids = c.expected[scheme]?.grids;
@@ -258,10 +271,11 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
       }
     }
     for (let k = 0; k < grids.length; k++) {
-      if (Math.round(grids[k] * aspect) < 2) {
+      if (Math.round(grids[k] * ratio) < 2) {
         push(
           `${pointer}/${k}`,
-          `grid ${grids[k]} gives ny = round(${grids[k]} · ${aspect}) < 2; use larger grids`,
+          `grid ${grids[k]} gives ny = round(${grids[k]} · intervalRatio ${ratio}) < 2; use ` +
+            "larger grids",
         );
       }
     }
@@ -272,7 +286,8 @@ function ruleProblems(file: string, doc: LocatedJson, c: CaseFile): CaseProblem[
       push(
         `/expected/${scheme}/layouts/${layout}`,
         `the ${layout} override changes nothing, it has only a reason; add the fields that ` +
-          "differ for this layout (formal, observed, exact, tolerance) or remove the override",
+          "differ for this layout (formal, achievable, exactToRoundOff, orderTolerance) or remove " +
+          "the override",
       );
     }
   }
@@ -336,6 +351,7 @@ export function validateCaseText(text: string, file: string): CaseValidation {
   } catch (error) {
     if (error instanceof JsonSyntaxError) {
       return {
+        warnings: [],
         problems: [{
           file,
           field: "",
@@ -347,11 +363,19 @@ export function validateCaseText(text: string, file: string): CaseValidation {
     }
     throw error;
   }
+  // old names become new ones before the schema (which still accepts both, for editors)
+  const { warnings, problems: both } = renameOldFields(doc.value, doc, file);
   const validate = schemaValidator();
   if (!validate(doc.value)) {
-    return { problems: schemaProblems(file, doc, validate.errors ?? []), located: doc };
+    return {
+      problems: [...both, ...schemaProblems(file, doc, validate.errors ?? [])],
+      warnings,
+      located: doc,
+    };
   }
   const value = doc.value as CaseFile;
-  const problems = ruleProblems(file, doc, value);
-  return problems.length ? { problems, located: doc } : { value, problems, located: doc };
+  const problems = [...both, ...ruleProblems(file, doc, value)];
+  return problems.length
+    ? { problems, warnings, located: doc }
+    : { value, problems, warnings, located: doc };
 }

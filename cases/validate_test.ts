@@ -82,21 +82,25 @@ Deno.test("validateCaseText() accepts per-layout overrides and locates their pro
 
   await t.step("a valid override", () => {
     const { value, problems } = withLayouts({
-      cell: { exact: false, formal: 2, reason: "ghost 2g − u₁ is second-order" },
-      points: { observed: { max: { order: 1.5, reason: "r" } }, tolerance: 0.2, reason: "r" },
+      cell: { exactToRoundOff: false, formal: 2, reason: "ghost 2g − u₁ is second-order" },
+      points: {
+        achievable: { max: { order: 1.5, reason: "r" } },
+        orderTolerance: 0.2,
+        reason: "r",
+      },
     });
     assert.deepEqual(problems, []);
-    assert.equal(value?.expected.central.layouts?.cell?.exact, false);
+    assert.equal(value?.expected.central.layouts?.cell?.exactToRoundOff, false);
   });
   await t.step("an override without its reason", () => {
     assert.match(
-      messages({ cell: { exact: false } }),
+      messages({ cell: { exactToRoundOff: false } }),
       /^l\.json:\d+:\d+: expected\.central\.layouts\.cell\.reason: missing field "reason" \(Why/m,
     );
   });
   await t.step("a misspelled layout", () => {
     assert.match(
-      messages({ cells: { exact: false, reason: "r" } }),
+      messages({ cells: { exactToRoundOff: false, reason: "r" } }),
       /expected\.central\.layouts\.cells: unknown field "cells"; did you mean "cell"\?/,
     );
   });
@@ -113,8 +117,11 @@ Deno.test("validateCaseText() accepts per-layout overrides and locates their pro
     );
   });
   await t.step("an empty reason and a wrong type", () => {
-    const text = messages({ cell: { exact: "no", reason: "" } });
-    assert.match(text, /expected\.central\.layouts\.cell\.exact: must be boolean, found "no"/);
+    const text = messages({ cell: { exactToRoundOff: "no", reason: "" } });
+    assert.match(
+      text,
+      /expected\.central\.layouts\.cell\.exactToRoundOff: must be boolean, found "no"/,
+    );
     assert.match(
       text,
       /expected\.central\.layouts\.cell\.reason: must NOT have fewer than 1 characters/,

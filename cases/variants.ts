@@ -298,7 +298,7 @@ export function variantEdits(
       })`,
       place: "the spacing of one direction (hx and hy mixed up)",
       edit: (f) => {
-        f.aspect = (y1 - y0) / (x1 - x0);
+        f.intervalRatio = (y1 - y0) / (x1 - x0);
       },
     });
   }

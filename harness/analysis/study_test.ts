@@ -211,7 +211,11 @@ Deno.test("buildStudy() fails imposed data that do not come back and names the r
 });
 
 Deno.test("buildStudy() judges exactness by round-off errors, not by order", async (t) => {
-  const spec: StudySpec = { ...SPEC, expected: { formal: 2, exact: true }, solutionScale: 2 };
+  const spec: StudySpec = {
+    ...SPEC,
+    expected: { formal: 2, exactToRoundOff: true },
+    solutionScale: 2,
+  };
   await t.step("round-off errors pass", () => {
     const study = buildStudy(GRIDS.map((n) => solveOf(n, () => 1e-13)), spec);
     assert.equal(byCriterion(study.verdicts, "exactness")[0].status, "pass");
@@ -245,7 +249,7 @@ Deno.test("buildStudy() honours a per-norm expected order with its reason", () =
     ...SPEC,
     expected: {
       formal: 2,
-      observed: {
+      achievable: {
         max: { order: 1, reason: "corner singularity" },
         l2: { order: 1, reason: "corner singularity" },
         l1: { order: 1, reason: "corner singularity" },

@@ -32,7 +32,7 @@ export interface CampaignOptions {
   jobs?: number;
   /** Relative residual tolerance asked of every solver. Default: 1e-10. */
   tolerance?: number;
-  /** Tolerance on observed orders. Default: 0.1; a case's own `expected.<scheme>.tolerance` takes precedence. */
+  /** Tolerance on observed orders. Default: 0.1; a case's own `expected.<scheme>.orderTolerance` takes precedence. */
   orderTolerance?: number;
   /**
    * Iterations that grow faster than the solver declares fail the "flat-iterations" criterion

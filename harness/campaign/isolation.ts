@@ -90,7 +90,7 @@ export async function isolateFailures(
       job.solver.info.scheme,
       job.solver.info.layout,
     );
-    const target = expected.observed?.max?.order ?? expected.formal;
+    const target = expected.achievable?.max?.order ?? expected.formal;
     const tol = job.study.orderTolerance;
     let seconds = 0;
     const variants = job.variants.map((v) => {

@@ -83,9 +83,9 @@ export function plannedInputs(p: PlannedSolve, tolerance: number): string {
   ]);
 }
 
-/** ny for a case on a grid with nx intervals: the case's aspect, at least 2. */
+/** ny for a case on a grid with nx intervals: the case's interval ratio, at least 2. */
 export function gridFor(kase: CompiledCase, nx: number): { nx: number; ny: number } {
-  return { nx, ny: Math.max(2, Math.round(nx * kase.aspect)) };
+  return { nx, ny: Math.max(2, Math.round(nx * kase.intervalRatio)) };
 }
 
 /** Plans every case × solver × grid. */

@@ -85,7 +85,7 @@ export function buildStudies(
         caseId: kase.id,
         solver: solver.info.name,
         expected,
-        tolerance: expected.tolerance ?? options.orderTolerance,
+        tolerance: expected.orderTolerance ?? options.orderTolerance,
         requestedTolerance: options.tolerance,
         iterationGrowth: solver.info.iterationGrowth,
         workStrictness: options.requireFlatIterations ? "fail" : "warn",

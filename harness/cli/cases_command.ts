@@ -45,8 +45,8 @@ export function caseListing(c: CaseFile): CaseListing {
   return {
     id: c.id,
     title: c.title,
-    expectedOrder: central.observed?.max?.order ?? central.formal,
-    exact: central.exact === true,
+    expectedOrder: central.achievable?.max?.order ?? central.formal,
+    exact: central.exactToRoundOff === true,
     boundary: {
       west: c.boundary.west.kind,
       east: c.boundary.east.kind,
@@ -62,8 +62,8 @@ export function caseListing(c: CaseFile): CaseListing {
 }
 
 function orderText(e: ExpectedOrder): string {
-  if (e.exact) return "exact";
-  const observed = Object.entries(e.observed ?? {}).map(([norm, o]) => `${norm} ${o?.order}`);
+  if (e.exactToRoundOff) return "exact";
+  const observed = Object.entries(e.achievable ?? {}).map(([norm, o]) => `${norm} ${o?.order}`);
   return observed.length ? `${e.formal} (${observed.join(", ")})` : String(e.formal);
 }
 
@@ -171,7 +171,7 @@ export function showCase(c: CompiledCase, tex: boolean): string {
       orderText(c.expected.upwind)
     }`,
   );
-  for (const [norm, o] of Object.entries(c.expected.central.observed ?? {})) {
+  for (const [norm, o] of Object.entries(c.expected.central.achievable ?? {})) {
     lines.push(`  ${norm}: ${o?.order} because ${o?.reason}`);
   }
   const grids = c.grids.map((n) => {
@@ -247,6 +247,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
     .action(async (id: string, opts: { tex?: boolean; param?: string[] }) => {
       const parameters = parseParameterFlags(opts.param);
       const c = await loadCase(id, { parameters });
+      for (const w of c.warnings ?? []) console.error(terminalSafe(`gridproof: warning: ${w}`));
       console.log(terminalSafe(showCase(c, opts.tex === true)));
     });
   cases
@@ -257,6 +258,7 @@ export function registerCasesCommand(program: Command, setExitCode: SetExitCode)
       const results = await checkCaseFiles(files);
       let bad = 0;
       for (const r of results) {
+        for (const w of r.warnings) console.error(terminalSafe(`gridproof: warning: ${w}`));
         if (r.problems.length === 0) {
           console.log(terminalSafe(`ok: ${r.file}`));
           continue;

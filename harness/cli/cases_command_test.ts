@@ -56,6 +56,35 @@ Deno.test("gridproof cases check passes a good file with exit code 0", async () 
   assert.match(run.stdout, /ok: testdata\/cases\/good\.json/);
 });
 
+Deno.test("gridproof cases check passes an old-name file with located deprecation warnings", async () => {
+  // docs/cases.md, "Renamed fields": old names are read, with one warning per old field
+  const run = await runCli(["cases", "check", fixture("old-names.json")]);
+  assert.equal(run.code, 0, run.stderr);
+  assert.match(run.stdout, /ok: testdata\/cases\/old-names\.json/);
+  assert.match(
+    run.stderr,
+    /^gridproof: warning: testdata\/cases\/old-names\.json:13:3: aspect: deprecated field name "aspect": rename it to "intervalRatio"/m,
+  );
+  assert.match(
+    run.stderr,
+    /old-names\.json:\d+:\d+: expected\.central\.layouts\.cell\.observed: deprecated field name "observed": rename it to "achievable"/,
+  );
+  assert.equal(run.stderr.match(/gridproof: warning: /g)?.length, 8, run.stderr);
+  const renamed = await runCli(["cases", "check", fixture("new-names.json")]);
+  assert.equal(renamed.code, 0, renamed.stderr);
+  assert.equal(renamed.stderr, "");
+});
+
+Deno.test("gridproof cases check refuses a file giving both the old and the new name", async () => {
+  const dir = await Deno.makeTempDir();
+  const doc = JSON.parse(await Deno.readTextFile(fixture("new-names.json")));
+  await Deno.writeTextFile(`${dir}/both.json`, JSON.stringify({ aspect: 2, ...doc }, null, 2));
+  assertBadInput(await runCli(["cases", "check", `${dir}/both.json`]), [
+    /both\.json:2:3: aspect: both "aspect" \(the old name\) and "intervalRatio" are given; they name the same field: keep "intervalRatio" and remove "aspect"/,
+  ]);
+  await Deno.remove(dir, { recursive: true });
+});
+
 Deno.test("gridproof cases check: malformed JSON names the line and column", async () => {
   assertBadInput(await runCli(["cases", "check", fixture("malformed-json.txt")]), [
     /malformed-json\.txt:46:3: malformed JSON: expected ',' or '}' after a field value/,

@@ -68,6 +68,8 @@ export interface CheckFlags {
   json?: boolean;
   format?: string;
   orderTolerance?: string;
+  residualTolerance?: string;
+  /** Deprecated alias of `residualTolerance`. */
   tolerance?: string;
   requireGridIndependence?: boolean;
   iterationAdvice?: boolean;
@@ -115,8 +117,17 @@ export function registerCheckCommand(program: Command, setExitCode: SetExitCode)
         "also write reports: comma-separated text,html,pdf,md,csv,junit (pdf needs chromium)",
       ),
     )
-    .option("--order-tolerance <t>", "allowed |observed − expected| order (default 0.1)")
-    .option("--tolerance <t>", "relative residual tolerance asked of every solver (default 1e-10)")
+    .option(
+      "--order-tolerance <t>",
+      "allowed |measured − expected| order, unless a case sets its orderTolerance (default 0.1)",
+    )
+    .option(
+      "--residual-tolerance <t>",
+      "relative residual tolerance asked of every solver (default 1e-10)",
+    )
+    .addOption(
+      new Option("--tolerance <t>", "deprecated: use --residual-tolerance").hideHelp(),
+    )
     .option(
       "--iteration-advice",
       "iterations that grow faster than the solver declares only warn (default: they fail)",
@@ -297,14 +308,31 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const orderTolerance = flags.orderTolerance === undefined
     ? undefined
     : parsePositive(flags.orderTolerance, "--order-tolerance");
-  const tolerance = flags.tolerance === undefined
+  // --tolerance is the old name of --residual-tolerance: read, with a warning
+  if (flags.tolerance !== undefined && flags.residualTolerance !== undefined) {
+    throw new InputError(
+      "both --residual-tolerance and its deprecated alias --tolerance are given; keep " +
+        "--residual-tolerance only",
+      { where: "--tolerance" },
+    );
+  }
+  const residualFlag = flags.tolerance !== undefined ? "--tolerance" : "--residual-tolerance";
+  const residualText = flags.residualTolerance ?? flags.tolerance;
+  const tolerance = residualText === undefined
     ? undefined
-    : parsePositive(flags.tolerance, "--tolerance");
+    : parsePositive(residualText, residualFlag);
   if (tolerance !== undefined && !(tolerance < 1)) {
     throw new InputError(
       `${tolerance} is not a relative residual reduction: give a number between 0 and 1, ` +
         `e.g. 1e-10`,
-      { where: "--tolerance" },
+      { where: residualFlag },
+    );
+  }
+  if (flags.tolerance !== undefined) {
+    console.error(
+      "gridproof: warning: --tolerance is deprecated: use --residual-tolerance (the relative " +
+        "residual tolerance asked of every solver; the allowed order deviation is " +
+        "--order-tolerance)",
     );
   }
   checkOutFolder(flags.out);
@@ -339,6 +367,9 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const baseline = flags.baseline === undefined ? undefined : await readResult(flags.baseline);
 
   const cases = await selectCases(flags);
+  for (const kase of cases) {
+    for (const w of kase.warnings ?? []) console.error(escapeTerminal(`gridproof: warning: ${w}`));
+  }
   // every grid of every case must fit before any solve starts
   for (const kase of cases) {
     for (const n of grids ?? kase.grids) {

@@ -221,7 +221,7 @@ export function registerSolveCommand(program: Command, setExitCode: SetExitCode)
     .option("--case <id|file>", "a built-in case id (see `gridproof cases`) or a case file (.json)")
     .option(
       "--n <N>",
-      "intervals along x (ny follows the case's aspect); default: finest suggested grid",
+      "intervals along x (ny follows the case's intervalRatio); default: finest suggested grid",
     )
     .option("--cycle <name>", `cycle: ${CYCLE_NAMES.join(", ")} (any letter case); default V`)
     .option(

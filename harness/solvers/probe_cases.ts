@@ -129,7 +129,7 @@ export function probeCase(set: ProbeBoundarySet): CompiledCase {
     expected: { central: { formal: 2 }, upwind: { formal: 1 } },
     tags: ["probe"],
     grids: [8, 16],
-    aspect: 2,
+    intervalRatio: 2,
     exact: u,
     exactDx: u,
     exactDy: (x, y) => 0.5 * u(x, y),

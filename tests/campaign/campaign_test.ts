@@ -183,7 +183,7 @@ Deno.test("check: a case's own order tolerance takes precedence over the campaig
   const kase = await loadCase("smooth-baseline");
   // the same first-order defect as above (order ≈ 1 against 2): it fails at the campaign's
   // default 0.1 and passes the order verdicts when the case itself allows ±1.1
-  kase.expected.central = { ...kase.expected.central, tolerance: 1.1 };
+  kase.expected.central = { ...kase.expected.central, orderTolerance: 1.1 };
   const result = await runCampaign([kase], [defectiveSolver()], { grids: [16, 32, 64, 128] });
   const study = result.studies[0];
   assert.equal(study.orderTolerance, 1.1);

@@ -63,6 +63,14 @@ Deno.test("gridproof check refuses bad flags with exit code 2 and says what to f
       /--tolerance: 2 is not a relative residual reduction: give a number between 0 and 1/,
     ],
     [
+      ["--cases", "quartic-poisson", "--residual-tolerance", "2"],
+      /--residual-tolerance: 2 is not a relative residual reduction/,
+    ],
+    [
+      ["--cases", "quartic-poisson", "--residual-tolerance", "1e-9", "--tolerance", "1e-9"],
+      /both --residual-tolerance and its deprecated alias --tolerance are given; keep --residual-tolerance only/,
+    ],
+    [
       ["--cases", "quartic-poisson", "--isolation-seconds", "soon"],
       /--isolation-seconds: "soon" is not a positive number/,
     ],
@@ -203,4 +211,36 @@ Deno.test("gridproof check refuses a case named twice, too many levels and a sol
   } finally {
     await Deno.remove(dir, { recursive: true });
   }
+});
+
+Deno.test("gridproof check reads old names (case fields, --tolerance) with deprecation warnings", async () => {
+  // docs/cases.md, "Renamed fields": the old-name fixture is compiled exactly like its new-name
+  // twin (cases/old_names_test.ts); here the CLI shows the warnings and runs the case
+  const dir = await Deno.makeTempDir();
+  const run = await gridproof([
+    "check",
+    "--out",
+    dir,
+    "--no-progress",
+    "--case-file",
+    "testdata/cases/old-names.json",
+    "--grids",
+    "8,16,32",
+    "--tolerance",
+    "1e-11",
+  ]);
+  assert.equal(run.code, 0, run.stdout + run.stderr);
+  assert.match(
+    run.stderr,
+    /gridproof: warning: --tolerance is deprecated: use --residual-tolerance/,
+  );
+  assert.match(
+    run.stderr,
+    /gridproof: warning: testdata\/cases\/old-names\.json:\d+:\d+: expected\.central\.exact: deprecated field name "exact": rename it to "exactToRoundOff"/,
+  );
+  const result = JSON.parse(await Deno.readTextFile(`${dir}/result.json`));
+  // the old `tolerance` of expected.central (0.2, not the default 0.1) reached the study
+  const study = result.studies.find((s: { caseId: string }) => s.caseId === "old-names");
+  assert.equal(study.orderTolerance, 0.2);
+  await Deno.remove(dir, { recursive: true });
 });

@@ -56,7 +56,7 @@ export function testCase(options: { allDirichlet?: boolean; id?: string } = {}):
     expected: { central: { formal: 2 }, upwind: { formal: 1 } },
     tags: [],
     grids: [8, 16, 32],
-    aspect: 2,
+    intervalRatio: 2,
     exact: u,
     exactDx: u,
     exactDy: (x, y) => 0.5 * u(x, y),

@@ -16,7 +16,7 @@ export const asymptoticRange: Criterion = {
   judge({ input, options }) {
     const strict: Strictness = options.asymptoticRange ?? "warn";
     if (strict === "off") return [];
-    if (options.expected.exact) {
+    if (options.expected.exactToRoundOff) {
       return [{
         criterion: "asymptotic-range",
         status: "not-applicable",

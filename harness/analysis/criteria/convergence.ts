@@ -77,7 +77,7 @@ export const convergence: Criterion = {
       if (reduction <= requested * REDUCTION_SLACK) continue;
       const shown = `its residual fell by ${e1(reduction)} where ${e1(requested)} was requested`;
       if (
-        !options.expected.exact && discretization !== null &&
+        !options.expected.exactToRoundOff && discretization !== null &&
         reduction <= NEGLIGIBLE_SHARE * discretization
       ) {
         short.push(

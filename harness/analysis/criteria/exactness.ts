@@ -20,7 +20,7 @@ export const exactness: Criterion = {
   measures: "a solution the scheme reproduces exactly comes back to round-off",
   judge(context) {
     const { input, options, blockers } = context;
-    if (!options.expected.exact) return [];
+    if (!options.expected.exactToRoundOff) return [];
     const rel = options.exactTolerance?.rel ?? 1e-9;
     const abs = options.exactTolerance?.abs ?? 1e-12;
     const scale = options.solutionScale ?? 1;

@@ -21,7 +21,7 @@ export const iterativeError: Criterion = {
   measures: "the iterative error is well below the discretization error on every grid",
   precondition: true,
   judge({ input, options, blockers }) {
-    if (options.expected.exact) return [];
+    if (options.expected.exactToRoundOff) return [];
     const scale = options.solutionScale ?? 1;
     const rows: { grid: string; iterative: number; discretization: number }[] = [];
     input.solves.forEach((s, i) => {

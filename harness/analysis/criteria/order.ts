@@ -60,7 +60,7 @@ function trendWords(t: OrderTrend, expected: number): string {
 function judgeNorm(context: JudgeContext, norm: NormName) {
   const { input, options, blockers } = context;
   const tol = options.tolerance ?? 0.1;
-  const override = options.expected.observed?.[norm];
+  const override = options.expected.achievable?.[norm];
   const expected = override?.order ?? options.expected.formal;
   const rec: OrderRecord | undefined = input.orders.find((o) =>
     o.region === "all" && o.norm === norm
@@ -138,7 +138,7 @@ export const order: Criterion = {
   name: "order",
   measures: "the error falls at the expected order as the grid is refined",
   judge(context) {
-    if (context.options.expected.exact) {
+    if (context.options.expected.exactToRoundOff) {
       return [{
         criterion: "order",
         status: "not-applicable",

@@ -21,10 +21,10 @@ export type NormName = keyof NormSet;
 export interface OrderExpectation {
   /** Formal order of the scheme. */
   formal: number;
-  /** Norms where theory says the observed order is lower, with the order and the reason. */
-  observed?: Partial<Record<NormName, { order: number; reason: string }>>;
+  /** Norms where theory says the achievable order is lower, with the order and the reason. */
+  achievable?: Partial<Record<NormName, { order: number; reason: string }>>;
   /** The scheme reproduces the exact solution to round-off: judge exactness, not order. */
-  exact?: boolean;
+  exactToRoundOff?: boolean;
 }
 
 /** What the criteria look at: one case × solver over its grids, coarsest first. */
