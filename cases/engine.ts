@@ -33,7 +33,7 @@ import { checkRobinWeights } from "./robin_check.ts";
 import { checkGridSize, sampleProblem, sampleProblemParallel, type SamplerSpec } from "./sample.ts";
 import { onLattice, sampleStretched } from "./sample_stretched.ts";
 import { caseMappings, mappingsFromData } from "./spacing.ts";
-import { type Axis, type AxisMapping, makeGrid } from "../grid/mod.ts";
+import { makeGrid } from "../grid/mod.ts";
 import type {
   CaseBoundary,
   CaseFormulas,
@@ -611,7 +611,11 @@ function formulasOf(
 }
 
 /** The readable formulas of a case: its trees derived again and simplified by mathjs (slow). */
-function readableFormulas(math: MathTools, trees: CaseTrees, caseFile: CaseFile): ReadableFormulas {
+function readableFormulas(
+  math: MathTools,
+  trees: CaseTrees,
+  _caseFile: CaseFile,
+): ReadableFormulas {
   const simple = trees.regions.map((r) =>
     deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })
   );

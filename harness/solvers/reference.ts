@@ -5,6 +5,7 @@
  */
 import {
   type CycleName,
+  discreteResidual,
   type SmootherName,
   solve,
   type SolveOptions,
@@ -33,6 +34,28 @@ function withAdvice(
     out.stop = { ...base.stop, maxCycles: advice.maxCycles };
   }
   return out;
+}
+
+/**
+ * The local truncation error of the reference scheme at every node: τ = A·u − f, the residual of
+ * the exact solution sampled at the nodes in the discrete operator the solve used
+ * (`discreteResidual`). Its interior rows are the difference equation in the units of the PDE
+ * (the stencil divided by the spacings, f the source at the node), so τ there needs no further
+ * scaling to compare with f; boundary rows are left to the measure step to leave out. Null when
+ * the case has no exact solution at some node (not finite).
+ */
+function truncationAtNodes(
+  task: SolveTask,
+  problem: Parameters<typeof discreteResidual>[0],
+  x: Float64Array,
+  y: Float64Array,
+): Float64Array | null {
+  const exact = new Float64Array(x.length);
+  for (let k = 0; k < exact.length; k++) {
+    exact[k] = task.case.exact(x[k], y[k]);
+    if (!Number.isFinite(exact[k])) return null;
+  }
+  return discreteResidual(problem, exact, { upwind: task.scheme === "upwind" });
 }
 
 /** Options of {@link createReferenceSolver}. */
@@ -89,6 +112,7 @@ export function createReferenceSolver(options: ReferenceSolverOptions = {}): Sol
           stop: { ...base.stop, tolerance: task.tolerance },
         });
         const points = casePoints(task.case, "vertex", task.nx, task.ny);
+        const truncation = truncationAtNodes(task, problem, points.x, points.y);
         return Promise.resolve({
           status: "ok",
           layout: "vertex",
@@ -99,6 +123,7 @@ export function createReferenceSolver(options: ReferenceSolverOptions = {}): Sol
           weights: points.weights,
           boundaryBand: points.boundaryBand,
           values: result.solution,
+          ...(truncation ? { truncation } : {}),
           residualHistory: result.residualHistory,
           iterations: result.cycles,
           converged: result.converged,
