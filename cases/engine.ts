@@ -658,8 +658,11 @@ function formulasOf(
 }
 
 /** The readable formulas of a case: its trees derived again and simplified by mathjs (slow). */
-// deno-lint-ignore no-unused-vars -- unused since the stretched-grid merge; kept for its callers
-function readableFormulas(math: MathTools, trees: CaseTrees, caseFile: CaseFile): ReadableFormulas {
+function readableFormulas(
+  math: MathTools,
+  trees: CaseTrees,
+  _caseFile: CaseFile,
+): ReadableFormulas {
   const simple = trees.regions.map((r) =>
     deriveRegion(math, r.op, r.exact, trees.sides, { simplify: true })
   );

@@ -92,6 +92,17 @@ export function buildStudy(solves: readonly SolveRecord[], spec: StudySpec): Stu
       orders.push(orderRecord(region, norm, h, e, { points: spec.points ?? 3 }));
     }
   }
+  const truncationOrders = sorted.some((s) => s.truncation)
+    ? (["max", "l2"] as const).map((norm) =>
+      orderRecord(
+        "interior",
+        norm,
+        h,
+        sorted.map((s) => (s.status === "ok" && s.truncation ? s.truncation[norm] : null)),
+        { points: spec.points ?? 3 },
+      )
+    )
+    : null;
   const names: string[] = [];
   for (const s of sorted) {
     for (const name of Object.keys(s.quantities ?? {})) if (!names.includes(name)) names.push(name);
@@ -141,6 +152,7 @@ export function buildStudy(solves: readonly SolveRecord[], spec: StudySpec): Stu
     expectedOrder: spec.expected.formal,
     orderTolerance: spec.tolerance ?? 0.1,
     orders,
+    ...(truncationOrders ? { truncationOrders } : {}),
     quantities,
     coverage,
     scaling,

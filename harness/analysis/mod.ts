@@ -37,6 +37,7 @@ export { PLACE_LAYERS, placeNorms, placeOfPoints } from "./places.ts";
 export { IMPOSED_BOUND, imposedDataCheck, type SideData } from "./imposed_data.ts";
 export { betterOrder, REORDER_GAIN, REORDERINGS } from "./reorderings.ts";
 export { errorMap } from "./error_map.ts";
+export { truncationNorms } from "./truncation_norms.ts";
 export { type FittedOrder, fittedOrder } from "./fitted_order.ts";
 export { asymptoticRange, orderRecord } from "./order_record.ts";
 export { type GciPair, richardsonExtrapolate, roacheGci } from "./richardson.ts";

@@ -16,6 +16,7 @@ import {
   pointRegionNorms,
   residualMetrics,
   type SideData,
+  truncationNorms,
   withoutMean,
 } from "../analysis/mod.ts";
 import type { NormSet, Place, Region, SideName, SolveRecord } from "../result/mod.ts";
@@ -104,6 +105,13 @@ export function measureOutcome(
     const order = betterOrder(outcome.values, exact, mx, my);
     if (order !== null) record.outputOrder = order;
     record.errorMap = errorMap(outcome.values, exact, mx, my);
+  }
+  if (
+    outcome.layout === "vertex" && outcome.truncation &&
+    outcome.truncation.length === outcome.values.length
+  ) {
+    const norms = truncationNorms(outcome.truncation, outcome.weights, outcome.nx, outcome.ny);
+    if (norms) record.truncation = norms;
   }
   if (outcome.layout === "vertex") {
     const data = dirichletData(kase, outcome.nx, outcome.ny);

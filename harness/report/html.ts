@@ -41,6 +41,7 @@ import {
 } from "./findings.ts";
 import { type PlotSpec, renderSvg, reportPlots } from "./plots.ts";
 import { formulaMathml, texMathml } from "./formulas.ts";
+import { SUPRACONVERGENCE, truncationReading } from "./truncation.ts";
 
 const STYLE = `
 :root { color-scheme: light; --fail: #b3261e; --undecided: #6a1b9a; --warn: #8a5a00; --pass: #1e6b34; --na: #666; }
@@ -130,6 +131,11 @@ function studyNotes(study: StudyRecord): string {
   if (study.added) notes.push(`Grids added to decide: ${study.added.reason}.`);
   if (study.isolation) notes.push(`Isolation: ${study.isolation.finding}.`);
   if (study.diagnosis) notes.push(`Diagnosis: ${study.diagnosis}.`);
+  const truncation = truncationReading(study);
+  if (truncation) {
+    notes.push(`The ${truncation.line}.`);
+    if (truncation.lower) notes.push(SUPRACONVERGENCE);
+  }
   return notes.map((n) => `<p class="muted">${esc(n)}</p>`).join("");
 }
 

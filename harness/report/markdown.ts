@@ -26,6 +26,7 @@ import {
   pairsPhrase,
   type WarningGroup,
 } from "./findings.ts";
+import { SUPRACONVERGENCE, truncationReading } from "./truncation.ts";
 
 /** Failures or undecided studies, one bullet per case × solver × criterion (norms folded in). */
 function findingItems(items: Finding[]): string[] {
@@ -157,6 +158,16 @@ export function renderMarkdown(result: CampaignResult): string {
     "| --- | --- | ---: | ---: | ---: | --- |",
     ...rows.map((r) => r.line),
   );
+  const truncation = result.studies
+    .map((study) => ({ study, reading: truncationReading(study) }))
+    .filter((t) => t.reading !== null);
+  if (truncation.length > 0) {
+    out.push("", "**Truncation and solution orders** (the verdicts judge the solution order)", "");
+    for (const { study, reading } of truncation) {
+      out.push(`- ${md(study.caseId)} · ${md(study.solver)}: ${md(reading!.line)}`);
+    }
+    if (truncation.some((t) => t.reading!.lower)) out.push("", SUPRACONVERGENCE);
+  }
   out.push("", `> **Caution.** ${CAUTION}`);
   return out.join("\n") + "\n";
 }

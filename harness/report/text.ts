@@ -20,6 +20,7 @@ import {
   seconds,
   STATUS_WORD,
 } from "./_shared.ts";
+import { SUPRACONVERGENCE, truncationReading } from "./truncation.ts";
 
 /** Options of {@link renderText}. */
 export interface TextOptions {
@@ -155,6 +156,11 @@ export function renderText(result: CampaignResult, options: TextOptions = {}): s
             `    fitted order over the finest ${max?.fitted.points ?? l2?.fitted.points} grids: ` +
               fitted.join(", "),
           );
+        }
+        const truncation = truncationReading(study);
+        if (truncation) {
+          out.push(`    ${truncation.line}`);
+          if (truncation.lower) out.push(`    ${SUPRACONVERGENCE}`);
         }
         if (study.added) out.push(`    grids added to decide: ${oneLine(study.added.reason)}`);
         if (study.isolation) out.push(`    isolation: ${oneLine(study.isolation.finding)}`);

@@ -73,6 +73,13 @@ export interface SolveRecord {
   meanRemoved?: boolean;
   /** Error norms against the exact solution per region (present when ok). */
   errors?: Record<Region, NormSet>;
+  /**
+   * The local truncation error over the interior nodes: τ = A·u − f, the residual of the exact
+   * solution in the solver's discrete operator, in the units of the PDE's source. `max` is
+   * max |τ|, `l2` the volume-weighted RMS sqrt(Σ w·τ² / Σ w). Present for solvers that give τ
+   * (the reference solver); absent in results written before it existed.
+   */
+  truncation?: { max: number; l2: number };
   /** Quantities of interest computed from the discrete solution, by name. */
   quantities?: Record<string, number>;
   /** ‖r‖ history as the solver reported it (may be empty for solvers that give none). */
@@ -260,6 +267,12 @@ export interface StudyRecord {
   expectedOrder: number;
   orderTolerance: number;
   orders: OrderRecord[];
+  /**
+   * Observed orders of the local truncation error (`SolveRecord.truncation`), region "interior",
+   * norms "max" and "l2", fitted like the solution error's; reported beside the solution order,
+   * never judged. Absent when no solve of the study gave a truncation error.
+   */
+  truncationOrders?: OrderRecord[];
   quantities: QuantityRecord[];
   /** Fraction of GCI bands that contained the true error (null when none computed). */
   coverage: number | null;

@@ -83,6 +83,12 @@ export interface SolveOutcome {
    */
   boundaryBand?: Uint8Array;
   values: Float64Array;
+  /**
+   * The local truncation error per point, same layout as `values` (vertex layouts): the residual
+   * of the exact solution in the solver's discrete operator, in the units of the PDE's source.
+   * The reference solver gives it; absent otherwise.
+   */
+  truncation?: Float64Array;
   /** Residual norms as the solver reported them (empty when none). */
   residualHistory: number[];
   iterations: number | null;
