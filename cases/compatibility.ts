@@ -34,6 +34,7 @@
  */
 import type { Domain, Side } from "../reference-solver/mod.ts";
 import type { CompiledCase, PointFn } from "./types.ts";
+import { gaussLegendre } from "./gauss_legendre.ts";
 
 /** Panels of 8 Gauss–Legendre nodes per direction. */
 export const PANELS = 16;
@@ -41,37 +42,10 @@ export const PANELS = 16;
 /** Imbalance, relative to the sum of the integrals' absolute values, above which data is refused. */
 export const COMPATIBILITY_TOLERANCE = 1e-8;
 
-// 8-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4)
-const NODES = [
-  -0.9602898564975363,
-  -0.7966664774136267,
-  -0.5255324099163290,
-  -0.1834346424956498,
-  0.1834346424956498,
-  0.5255324099163290,
-  0.7966664774136267,
-  0.9602898564975363,
-];
-const WEIGHTS = [
-  0.1012285362903763,
-  0.2223810344533745,
-  0.3137066458778873,
-  0.3626837833783620,
-  0.3626837833783620,
-  0.3137066458778873,
-  0.2223810344533745,
-  0.1012285362903763,
-];
-
 /** Quadrature points and weights on [a, b]. */
 function rule(a: number, b: number): { t: number[]; w: number[] } {
-  const t: number[] = [], w: number[] = [];
-  const h = (b - a) / PANELS;
-  for (let p = 0; p < PANELS; p++) {
-    const mid = a + (p + 0.5) * h;
-    for (let k = 0; k < 8; k++) t.push(mid + 0.5 * h * NODES[k]), w.push(0.5 * h * WEIGHTS[k]);
-  }
-  return { t, w };
+  const { x, w } = gaussLegendre(a, b, PANELS);
+  return { t: x, w };
 }
 
 /** The two sides of the balance and what is left. */

@@ -83,7 +83,7 @@ export {
   exportCase,
   type ExportLanguage,
 } from "./export/mod.ts";
-export { type CaseVariant, caseVariants, variantEdits } from "./variants.ts";
+export { type CaseVariant, caseVariants, sideMidpoint, variantEdits } from "./variants.ts";
 export { compileExpression, type CompileExpressionOptions } from "./compile_expression.ts";
 export {
   compileExpr,
@@ -104,3 +104,4 @@ export {
   MAX_EXPRESSION_DEPTH,
   MAX_EXPRESSION_LENGTH,
 } from "./expression.ts";
+export { gaussLegendre } from "./gauss_legendre.ts";

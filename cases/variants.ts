@@ -180,24 +180,33 @@ function conservativeEdits(kase: CompiledCase): Edit[] {
   return out;
 }
 
+/** The midpoint of a side of the rectangle, (x, y). */
+export function sideMidpoint(
+  domain: { x0: number; x1: number; y0: number; y1: number },
+  side: Side,
+): [number, number] {
+  const { x0, x1, y0, y1 } = domain;
+  return side === "west"
+    ? [x0, (y0 + y1) / 2]
+    : side === "east"
+    ? [x1, (y0 + y1) / 2]
+    : side === "south"
+    ? [(x0 + x1) / 2, y0]
+    : [(x0 + x1) / 2, y1];
+}
+
 /**
  * The Robin weights frozen along a side: each side whose α or β varies gets them at the side's
  * midpoint, one side at a time and (with two or more such sides) all at once. A defect that
  * restores its order here lives in where the solver takes the weights along the side.
  */
 function robinWeightEdits(kase: CompiledCase): Edit[] {
-  const { x0, x1, y0, y1 } = kase.domain;
-  const middle: Record<Side, [number, number]> = {
-    west: [x0, (y0 + y1) / 2],
-    east: [x1, (y0 + y1) / 2],
-    south: [(x0 + x1) / 2, y0],
-    north: [(x0 + x1) / 2, y1],
-  };
+  const middle = (side: Side) => sideMidpoint(kase.domain, side);
   const varying = SIDES.filter((s) => kase.boundary[s].weightsVary === true);
   const frozen = (s: Side) => {
     const b = kase.boundary[s];
     const round = (v: number) => Number(v.toPrecision(15));
-    return { alpha: round(b.alpha!(...middle[s])), beta: round(b.beta!(...middle[s])) };
+    return { alpha: round(b.alpha!(...middle(s))), beta: round(b.beta!(...middle(s))) };
   };
   const out: Edit[] = varying.map((s) => {
     const w = frozen(s);

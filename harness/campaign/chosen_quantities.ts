@@ -16,7 +16,7 @@
 import type { QuantitySpec } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import type { DiscreteField } from "./quantities.ts";
-import { gaussLegendre } from "./gauss_legendre.ts";
+import { gaussLegendre } from "../../cases/mod.ts";
 import {
   cubicPointValue,
   lineWeights,

@@ -29,7 +29,7 @@
 import type { CompiledCase } from "../../cases/types.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
 import { discreteQuantity, exactQuantity } from "./chosen_quantities.ts";
-import { gaussLegendre } from "./gauss_legendre.ts";
+import { gaussLegendre } from "../../cases/mod.ts";
 
 export { gaussLegendre };
 

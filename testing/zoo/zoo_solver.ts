@@ -13,8 +13,8 @@ import {
   type Solver,
   type SolveTask,
 } from "../../harness/solvers/mod.ts";
-import type { CompiledCase } from "../../cases/mod.ts";
-import { type Side, SIDES } from "../../reference-solver/mod.ts";
+import { type CompiledCase, sideMidpoint } from "../../cases/mod.ts";
+import { SIDES } from "../../reference-solver/mod.ts";
 import { assembleCell, assembleVertex } from "./assemble.ts";
 import {
   assembleConservativeCell,
@@ -166,18 +166,12 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
 
 /** The case with each Robin side's α and β frozen to their values at the side's midpoint. */
 function weightsPerSide(kase: CompiledCase): CompiledCase {
-  const { x0, x1, y0, y1 } = kase.domain;
-  const middle: Record<Side, [number, number]> = {
-    west: [x0, (y0 + y1) / 2],
-    east: [x1, (y0 + y1) / 2],
-    south: [(x0 + x1) / 2, y0],
-    north: [(x0 + x1) / 2, y1],
-  };
   const boundary = { ...kase.boundary };
   for (const side of SIDES) {
     const b = boundary[side];
     if (b.kind !== "robin") continue;
-    const alpha = b.alpha!(...middle[side]), beta = b.beta!(...middle[side]);
+    const alpha = b.alpha!(...sideMidpoint(kase.domain, side)),
+      beta = b.beta!(...sideMidpoint(kase.domain, side));
     boundary[side] = { ...b, alpha: () => alpha, beta: () => beta };
   }
   // a view, not a copy: copying would run the case's lazy getters (formulas simplify with mathjs)

@@ -1,6 +1,6 @@
 /**
- * Composite Gauss–Legendre quadrature: the exact values of the quantities of interest integrate
- * the manufactured solution with it.
+ * Composite Gauss–Legendre quadrature of the manufactured expressions: the exact values of the
+ * quantities of interest and the compatibility balance of singular cases integrate with it.
  *
  * @module
  */
