@@ -9,7 +9,7 @@ import assert from "node:assert/strict";
 import { libraryIds } from "../../cases/mod.ts";
 import { buildCExample, findScipyPython, runGridproof } from "../../testing/mod.ts";
 
-/** Solvers that speak protocol 1 (solvers.json): they decline the conservative, mixed-term and varying-Robin cases. */
+/** Solvers that speak protocol 1 (solvers.json): they decline the conservative, mixed-term, varying-Robin, stretched and periodic cases. */
 const VERSION_1 = new Set(["deno-sor", "deno-sor-points", "c-gauss-seidel"]);
 /** The cases a version-1 solver cannot be sent (docs/protocol.md, "Moving to version 2"). */
 const NEEDS_VERSION_2 = new Set([
@@ -19,6 +19,11 @@ const NEEDS_VERSION_2 = new Set([
   "layered-jump-100",
   "layered-jump-10000",
   "variable-robin-edge",
+  // issue 14: grid lines of a stretched family, periodic sides, a singular conservative case
+  "stretched-wall-layer",
+  "geometric-stretch",
+  "periodic-channel",
+  "pure-neumann-pressure",
 ]);
 
 const SCIPY = await findScipyPython();
