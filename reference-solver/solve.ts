@@ -5,6 +5,7 @@
  * @module
  */
 import type { Problem } from "./problem.ts";
+import { convergenceFactors } from "./factors.ts";
 import type { SolveOptions, SolverDescription, SolveResult, StopReason } from "./options.ts";
 import { validateProblem } from "./validate.ts";
 import { isStretched } from "./validate_stretched.ts";
@@ -183,19 +184,13 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
     }
   }
   const seconds = (performance.now() - t0) / 1000;
-  const last = history[history.length - 1];
-  const factors = history.slice(1).map((v, k) => v / history[k]);
-  const tail = factors.slice(-3);
   const result: SolveResult = {
     solution: op.unpad(u),
     converged: reason === "converged",
     reason,
     cycles,
     residualHistory: history,
-    averageFactor: cycles === 0 ? 0 : Math.pow(last / r0, 1 / cycles),
-    asymptoticFactor: tail.length === 0
-      ? 0
-      : Math.pow(tail.reduce((p, v) => p * v, 1), 1 / tail.length),
+    ...convergenceFactors(history, r0, cycles),
     seconds,
     description: describe(h, o),
     setupSeconds,

@@ -18,6 +18,7 @@
  * @module
  */
 import type { Problem } from "./problem.ts";
+import { convergenceFactors } from "./factors.ts";
 import type { SolveResult, StopReason } from "./options.ts";
 import type { ResolvedSolveOptions } from "./resolve_options.ts";
 import { stretchedResidual, toNodes, toUnknowns } from "./discretize_stretched.ts";
@@ -119,19 +120,13 @@ export function solveStretched(
     }
   }
   const seconds = (performance.now() - t0) / 1000;
-  const last = history[history.length - 1];
-  const factors = history.slice(1).map((v, k) => v / history[k]);
-  const tail = factors.slice(-3);
   const result: SolveResult = {
     solution: toNodes(op, u),
     converged: reason === "converged",
     reason,
     cycles,
     residualHistory: history,
-    averageFactor: cycles === 0 ? 0 : Math.pow(last / r0, 1 / cycles),
-    asymptoticFactor: tail.length === 0
-      ? 0
-      : Math.pow(tail.reduce((p, v) => p * v, 1), 1 / tail.length),
+    ...convergenceFactors(history, r0, cycles),
     seconds,
     description: {
       solver: "gridproof-multigrid",
