@@ -17,7 +17,19 @@ Cell layout (grid lines are faces, centres p_i their midpoints, widths w_i): the
 
 and u_x by the 3-point formula on the centres. At a Dirichlet face the neighbour is the face
 itself (value g at distance w/2); at a Neumann face the face derivative is the data (outward
-normal). Robin sides, the mixed term and the conservative form are declined on stretched grids.
+normal). Robin sides and the mixed term are declined on stretched grids.
+
+Conservative form div(K grad u) + bx*u_x + by*u_y + sigma*u = f with a diagonal K (k12 = 0; a
+cross term is declined), K from the request at the faces (cell layout) or edge midpoints (vertex
+layout). Each point balances the fluxes through the faces of its control volume:
+
+    [k11_e (u_E - u_P)/he - k11_w (u_P - u_W)/hw] / w + (same in y) + bx*u_x + by*u_y + sigma*u = f,
+
+vertex layout: he, hw the node spacings and w = (hw + he)/2, Dirichlet sides only (identity rows);
+cell layout: he, hw the distances between centres and w the cell width; at a Dirichlet face the
+neighbour is the face value g at distance w/2, at a Neumann face the flux is the data (the conormal
+flux (K grad u).n). The first-order terms are those of the non-conservative form above; at a
+Neumann face their face derivative is the data divided by k11 (k22) there.
 """
 
 import numpy as np
@@ -104,7 +116,12 @@ def _cell_axis(faces, kinds):
 
 
 def _unsupported(problem):
-    if problem["form"] != "non-conservative" or np.any(problem.get("m", 0) != 0):
+    if problem["form"] == "conservative":
+        if np.any(problem["k12"] != 0) or np.any(problem["fx_k12"] != 0) or np.any(
+            problem["fy_k12"] != 0
+        ):
+            return "on stretched grids this example solves the conservative form with a diagonal K"
+    elif np.any(problem.get("m", 0) != 0):
         return "on stretched grids this example solves the non-conservative form without u_xy"
     kinds = {s["kind"] for s in problem["boundary"].values()}
     if problem["layout"] == "vertex" and kinds != {"dirichlet"}:
@@ -119,8 +136,87 @@ def unsupported(problem):
     return _unsupported(problem)
 
 
+def _flux_vertex(x, y, fx, fy):
+    """The diffusion rows of the conservative form on the nodes (boundary rows zero)."""
+    mx, my = x.size, y.size
+    D = sp.lil_matrix((mx * my, mx * my))
+    for j in range(1, my - 1):
+        hs, hn = y[j] - y[j - 1], y[j + 1] - y[j]
+        wy = (hs + hn) / 2
+        for i in range(1, mx - 1):
+            hw, he = x[i] - x[i - 1], x[i + 1] - x[i]
+            wx = (hw + he) / 2
+            k = j * mx + i
+            for nb, kf, h, w in ((k - 1, fx[j, i - 1], hw, wx), (k + 1, fx[j, i], he, wx),
+                                 (k - mx, fy[j - 1, i], hs, wy), (k + mx, fy[j, i], hn, wy)):
+                D[k, nb] += kf / (h * w)
+                D[k, k] -= kf / (h * w)
+    return D.tocsr()
+
+
+def _flux_cell(x, y, fx, fy, bc):
+    """The diffusion rows of the conservative form on the cells, and the data's part of the rhs."""
+    px, py = (x[:-1] + x[1:]) / 2, (y[:-1] + y[1:]) / 2
+    wx, wy = np.diff(x), np.diff(y)
+    nx, ny = px.size, py.size
+    D = sp.lil_matrix((nx * ny, nx * ny))
+    known = np.zeros(nx * ny)
+    for j in range(ny):
+        for i in range(nx):
+            k = j * nx + i
+            faces = (
+                # (neighbour or None, K at the face, distance, width, side, position along it)
+                (k - 1 if i > 0 else None, fx[j, i], px[i] - px[i - 1] if i > 0 else wx[i] / 2,
+                 wx[i], "west", j),
+                (k + 1 if i < nx - 1 else None, fx[j, i + 1],
+                 px[i + 1] - px[i] if i < nx - 1 else wx[i] / 2, wx[i], "east", j),
+                (k - nx if j > 0 else None, fy[j, i], py[j] - py[j - 1] if j > 0 else wy[j] / 2,
+                 wy[j], "south", i),
+                (k + nx if j < ny - 1 else None, fy[j + 1, i],
+                 py[j + 1] - py[j] if j < ny - 1 else wy[j] / 2, wy[j], "north", i),
+            )
+            for nb, kf, h, w, side, pos in faces:
+                if nb is not None:
+                    D[k, nb] += kf / (h * w)
+                    D[k, k] -= kf / (h * w)
+                elif bc[side]["kind"] == "neumann":
+                    known[k] += bc[side]["values"][pos] / w  # the outward flux is the data
+                else:  # Dirichlet: the face value at half a cell
+                    D[k, k] -= kf / (h * w)
+                    known[k] += kf * bc[side]["values"][pos] / (h * w)
+    return D.tocsr(), known
+
+
+def _assemble_conservative(problem, upwind):
+    """A (CSR) and rhs of the conservative form on a stretched grid (module doc)."""
+    x, y = problem["lines"]
+    fx, fy = problem["fx_k11"], problem["fy_k22"]
+    if problem["layout"] == "vertex":
+        flux = _flux_vertex(x, y, fx, fy)
+        zero = np.zeros(problem["b"].size)
+        # the first-order terms, reaction and Dirichlet rows of the non-conservative assembly;
+        # the flux rows of the boundary nodes are zero, so the identity rows stay
+        A, rhs = assemble({**problem, "form": "non-conservative", "a": zero, "c": zero}, upwind)
+        return (A + flux).tocsr(), rhs
+    flux, known = _flux_cell(x, y, fx, fy, problem["boundary"])
+    # the first-order terms of the non-conservative assembly; at a Neumann face its data must be
+    # the normal derivative, the conormal flux divided by k11 (k22) there
+    bc = {s: dict(v) for s, v in problem["boundary"].items()}
+    for side, k_side in (("west", fx[:, 0]), ("east", fx[:, -1]), ("south", fy[0, :]),
+                         ("north", fy[-1, :])):
+        if bc[side]["kind"] == "neumann":
+            bc[side]["values"] = np.asarray(bc[side]["values"], float) / k_side
+    zero = np.zeros(problem["b"].size)
+    A, rhs = assemble(
+        {**problem, "form": "non-conservative", "a": zero, "c": zero, "boundary": bc}, upwind
+    )
+    return (A + flux).tocsr(), rhs - known
+
+
 def assemble(problem, upwind=False):
     """A (CSR) and rhs of the stretched problem on its layout; Dirichlet rows (vertex) are u = g."""
+    if problem["form"] == "conservative":
+        return _assemble_conservative(problem, upwind)
     x, y = problem["lines"]
     a, b, c, d, e = (problem[k].ravel() for k in "abcde")
     f = problem["f"].ravel().astype(float).copy()
