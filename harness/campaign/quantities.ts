@@ -59,6 +59,21 @@ export const QUANTITIES = [
   { name: "east-flux", label: "integral of the outward normal derivative over the east side" },
 ] as const;
 
+/**
+ * The built-in quantities' names and labels for a case: on a stretched family `point` is the
+ * cubic interpolation on the mapped lines (see the module doc), elsewhere {@link QUANTITIES}.
+ */
+export function builtInQuantities(stretched: boolean): { name: string; label: string }[] {
+  return QUANTITIES.map((q) =>
+    stretched && q.name === "point"
+      ? {
+        name: q.name,
+        label: "u at the centre of the domain, cubic interpolation on the mapped lines",
+      }
+      : q
+  );
+}
+
 /** Relative position of the `point` quantity inside the domain. */
 const PROBE = { sx: 0.5, sy: 0.5 };
 

@@ -47,6 +47,8 @@ for (const [what, make, count] of CASES) {
     });
     const quantities = result.studies[0].quantities;
     assert.equal(quantities.length, count, quantities.map((q) => q.name).join(", "));
+    // the report says how the centre value is read on mapped lines
+    assert.match(quantities.find((q) => q.name === "point")!.label, /cubic interpolation/);
     for (const q of quantities) {
       const errors = q.values.map((v) => Math.abs(v! - q.exact!));
       if (q.name === "maximum") {
