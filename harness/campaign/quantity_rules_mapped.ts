@@ -26,7 +26,8 @@
  *       ℓ₂′(0) = −(d₀ + d₁)/((d₂ − d₀)(d₂ − d₁)),
  *
  *   and since d grows inward, the outward derivative is ∂u/∂n = −Σ uᵢ ℓᵢ′(0): exact for
- *   quadratics on any spacing, error O(h²) (the cubic term: u‴·d₁d₂·(…)/6 for vertex nodes). On
+ *   quadratics on any spacing, error O(h²) (on vertex grids, d₀ = 0, it is u‴·d₁d₂/6 at leading
+ *   order: the derivative of the interpolation error at a node). On
  *   equal steps, vertex d = (0, h, 2h) gives (3u₀ − 4u₁ + u₂)/(2h) and cell d = (h/2, 3h/2, 5h/2)
  *   gives (2u₀ − 3u₁ + u₂)/h, the uniform rules. A cell grid's value on the side is the same
  *   quadratic at d = 0, Σ uᵢ ℓᵢ(0) with ℓ₀(0) = d₁d₂/((d₀ − d₁)(d₀ − d₂)) (15/8, −10/8, 3/8 on
