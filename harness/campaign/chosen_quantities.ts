@@ -8,7 +8,8 @@
  * data prescribe — with the case's K at the side's points; of the non-conservative form, ∂u/∂n.
  * Exact values: composite 8-point Gauss–Legendre quadrature of the exact expressions (the
  * solution and its derivatives the engine derived symbolically), in pieces split at the material
- * interfaces so that every piece is smooth. Discrete rules: `quantity_rules.ts`. On a solver's own
+ * interfaces so that every piece is smooth. Discrete rules: `quantity_rules.ts` (on a stretched
+ * family's mapped lines, `quantity_rules_mapped.ts`). On a solver's own
  * points (`points` layout) no grid rule applies: the value is left out and the study says so.
  *
  * @module
@@ -16,7 +17,7 @@
 import type { QuantitySpec } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import type { DiscreteField } from "./quantities.ts";
-import { gaussLegendre } from "../../cases/mod.ts";
+import { caseGrid, gaussLegendre, isStretchedCase } from "../../cases/mod.ts";
 import {
   cubicPointValue,
   lineWeights,
@@ -24,6 +25,7 @@ import {
   sideDerivatives,
   type StructuredField,
 } from "./quantity_rules.ts";
+import { mappedLineWeights } from "./quantity_rules_mapped.ts";
 
 /** What a flux measures: the normal derivative ∂u/∂n, or the conormal flux (K∇u)·n. */
 export type FluxMeasure = "normal" | "conormal";
@@ -161,17 +163,29 @@ export function exactQuantity(
   return sum;
 }
 
-/** The solver's field as a structured grid, or null on its own points. */
-export function structured(field: DiscreteField, domain: CompiledCase["domain"]) {
+/**
+ * The solver's field as a structured grid, or null on its own points. A stretched family's field
+ * (a map other than uniform in `mappings`) carries its mapped grid lines; a uniform one none, so
+ * its rules stay those of equal steps.
+ */
+export function structured(
+  field: DiscreteField,
+  domain: CompiledCase["domain"],
+  mappings?: CompiledCase["mappings"],
+): StructuredField | null {
   if (field.layout === "points") return null;
   const cell = field.layout === "cell";
-  return {
+  const grid: StructuredField = {
     layout: field.layout,
     values: field.values,
     ni: cell ? field.nx : field.nx + 1,
     nj: cell ? field.ny : field.ny + 1,
     domain,
-  } satisfies StructuredField;
+  };
+  if (isStretchedCase({ mappings })) {
+    grid.lines = caseGrid({ domain, mappings }, field.nx, field.ny, field.layout).lines;
+  }
+  return grid;
 }
 
 /**
@@ -179,17 +193,17 @@ export function structured(field: DiscreteField, domain: CompiledCase["domain"])
  * solver's own points or on a grid too small for the rule.
  *
  * @param field The solver's values and where they sit.
- * @param kase The case (its domain, and K for a conormal flux).
+ * @param kase The case (its domain, its stretched family's maps, and K for a conormal flux).
  * @param spec The quantity.
  * @param measure What a flux measures (default: {@link fluxMeasure} of the case).
  */
 export function discreteQuantity(
   field: DiscreteField,
-  kase: Pick<CompiledCase, "domain" | "conservative">,
+  kase: Pick<CompiledCase, "domain" | "conservative" | "mappings">,
   spec: QuantitySpec,
   measure: FluxMeasure = kase.conservative ? "conormal" : "normal",
 ): number | null {
-  const grid = structured(field, kase.domain);
+  const grid = structured(field, kase.domain, kase.mappings);
   if (!grid) return null;
   const q = resolve(spec, kase.domain);
   if (q.kind === "point") return cubicPointValue(grid, q.x, q.y);
@@ -200,7 +214,9 @@ export function discreteQuantity(
   const vertical = q.side === "west" || q.side === "east";
   const [nx, ny] = NORMAL[q.side];
   const k = measure === "conormal" ? kase.conservative : undefined;
-  const w = lineWeights(grid.layout, d.lo, d.h, d.n, q.from, q.to);
+  const w = d.lines
+    ? mappedLineWeights(grid.layout, d.lines, q.from, q.to)
+    : lineWeights(grid.layout, d.lo, d.h, d.n, q.from, q.to);
   let sum = 0;
   for (let m = 0; m < w.length; m++) {
     if (w[m] === 0) continue;

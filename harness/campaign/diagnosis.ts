@@ -1,7 +1,7 @@
 /**
- * A cross-case reading of a solver's failures: which ingredient (a boundary kind on a side, an
- * operator term, a variable coefficient, a full conductivity tensor, material interfaces,
- * non-square cells) is present in every case whose order
+ * A cross-case reading of a solver's failures: which ingredient (a boundary kind on a side, a
+ * periodic pair, a stretched axis, an operator term, a variable coefficient, a full conductivity
+ * tensor, material interfaces, non-square cells) is present in every case whose order
  * failed and absent from every case whose order passed — or from all but a few of them (at most a
  * quarter, at least one), which are named: a defect does not act where its ingredient's data
  * vanish. It adds a diagnosis to the failing
@@ -29,8 +29,29 @@ const KIND_WORD: Record<string, string> = {
 /** The ingredients of a case, each named in the trade's words and the case's symbols. */
 export function ingredients(kase: CompiledCase): Ingredient[] {
   const out: Ingredient[] = [];
-  if (SIDES.some((s) => kase.boundary[s].kind !== "dirichlet")) {
+  if (SIDES.some((s) => kase.boundary[s].kind === "neumann" || kase.boundary[s].kind === "robin")) {
     out.push({ key: "derivative", words: "a Neumann or Robin side" });
+  }
+  // a periodic pair and a stretched axis live in their own code paths of a solver (the seam's
+  // wrap-around, the differences on unequal steps), so each is an ingredient of its own
+  for (const [lo, hi] of [["west", "east"], ["south", "north"]] as const) {
+    if (kase.boundary[lo].kind === "periodic") {
+      out.push({
+        key: `periodic:${lo}`,
+        words: `the periodic sides, the seam between ${lo} and ${hi}`,
+      });
+    }
+  }
+  const stretched = (["x", "y"] as const).filter((axis) => {
+    const m = kase.mappings?.[axis];
+    return m !== undefined && m.kind !== "uniform";
+  });
+  if (stretched.length > 0) out.push({ key: "stretched-any", words: "a stretched grid family" });
+  for (const axis of stretched) {
+    out.push({
+      key: `stretched:${axis}`,
+      words: `a grid stretched along ${axis} (unequal steps on the mapped lines)`,
+    });
   }
   for (const kind of ["dirichlet", "neumann", "robin"]) {
     const sides = SIDES.filter((s) => kase.boundary[s].kind === kind);
@@ -121,6 +142,9 @@ export function diagnoseAcrossCases(studies: StudyRecord[], cases: CompiledCase[
     }).filter((x, _, all) =>
       // "a Neumann or Robin side" only when neither kind alone does as well
       x.i.key !== "derivative" || !all.some((y) => y.i.key === "neumann" || y.i.key === "robin")
+    ).filter((x, _, all) =>
+      // a stretched family in general only when no one axis does as well (the axis says where)
+      x.i.key !== "stretched-any" || !all.some((y) => y.i.key.startsWith("stretched:"))
     );
     const fl = failing.map((s) => s.caseId).join(", ");
     const pl = passing.map((s) => s.caseId).join(", ");

@@ -5,7 +5,7 @@
  * @module
  */
 import type { CompiledCase } from "../../cases/types.ts";
-import { caseGrid, isStretchedCase } from "../../cases/mod.ts";
+import { caseGrid } from "../../cases/mod.ts";
 import {
   betterOrder,
   errorMap,
@@ -119,15 +119,9 @@ export function measureOutcome(
       record.imposed = imposedDataCheck(outcome.values, outcome, data, scale);
     }
   }
-  // the point and flux quantities interpolate on equal steps: on a stretched family only the
-  // volume-weighted integral and the largest value are measured (read as free points), and the
-  // case's own quantities are not measured yet
-  const stretched = isStretchedCase(kase);
-  record.quantities = discreteQuantities(
-    stretched ? { ...outcome, layout: "points" } : outcome,
-    kase.domain,
-  );
-  for (const spec of stretched ? [] : chosenSpecs(kase)) {
+  // a stretched family's rules run on its mapped lines (kase.mappings)
+  record.quantities = discreteQuantities(outcome, kase.domain, kase.mappings);
+  for (const spec of chosenSpecs(kase)) {
     const value = discreteQuantity(outcome, kase, spec);
     if (value !== null) record.quantities[spec.name] = value;
   }

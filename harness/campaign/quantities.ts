@@ -5,13 +5,16 @@
  * - `integral`: ∫∫ u dx dy (the solver's own quadrature weights: trapezoid on vertex grids,
  *   midpoint on cell grids, given weights on free points);
  * - `point`: u at the centre of the domain by bilinear interpolation of the grid values
- *   (structured layouts only). The centre is a node of every vertex grid with even counts, so
+ *   (structured layouts only; on a stretched family, where the centre is no node, by the cubic
+ *   Lagrange interpolation of `quantity_rules.ts` on the mapped lines, O(h⁴)). The centre is a node of every vertex grid with even counts, so
  *   the value converges smoothly; an off-node point mixes in an interpolation error whose
  *   constant changes with the node's position from grid to grid (non-monotone convergence);
  * - `maximum`: the largest value of u, refined on structured grids by the peak of the quadratic
  *   fitted to the 3×3 (or 3-point, on a side) neighbourhood of the largest value: the peak of
  *   the fit is within O(h³) of the peak of the sampled function (its gradient vanishes there),
- *   so the discretization error, O(h²), dominates and the order is clean (derived). On a
+ *   so the discretization error, O(h²), dominates and the order is clean (derived). The fit is
+ *   in grid units, so on a stretched family it fits u as a function of the map's uniform
+ *   parameter, smooth under a smooth map, whose peak value is the same (derived). On a
  *   solver's own points it is the largest point value, unrefined (free points have no stencil to
  *   fit): second order at an interior peak, but only first order when the peak lies on a side the
  *   points do not reach — e.g. cell centres, h/2 inside, where the gradient is not zero (derived
@@ -19,7 +22,8 @@
  * - `east-flux`: ∫ ∂u/∂n dy over the east side, with the one-sided second-order derivative
  *   (3u_N − 4u_{N−1} + u_{N−2})/(2h) on vertex grids and (2u_1 − 3u_2 + u_3)/h from the three
  *   cell centres nearest the face on cell grids (both exact for quadratics in x — derived by
- *   Lagrange interpolation), trapezoid/midpoint in y (structured layouts only).
+ *   Lagrange interpolation), trapezoid/midpoint in y (structured layouts only; on a stretched
+ *   family the same rules on unequal steps).
  *
  * Apart from that case of the maximum, all are second-order accurate functionals of a
  * second-order solution (common practice), so their observed orders and GCIs are meaningful.
@@ -28,7 +32,8 @@
  */
 import type { CompiledCase } from "../../cases/types.ts";
 import type { SolveOutcome } from "../solvers/mod.ts";
-import { discreteQuantity, exactQuantity } from "./chosen_quantities.ts";
+import { discreteQuantity, exactQuantity, structured } from "./chosen_quantities.ts";
+import { cubicPointValue } from "./quantity_rules.ts";
 import { gaussLegendre } from "../../cases/mod.ts";
 
 export { gaussLegendre };
@@ -54,13 +59,38 @@ export const QUANTITIES = [
   { name: "east-flux", label: "integral of the outward normal derivative over the east side" },
 ] as const;
 
+/**
+ * The built-in quantities' names and labels for a case: on a stretched family `point` is the
+ * cubic interpolation on the mapped lines (see the module doc), elsewhere {@link QUANTITIES}.
+ */
+export function builtInQuantities(stretched: boolean): { name: string; label: string }[] {
+  return QUANTITIES.map((q) =>
+    stretched && q.name === "point"
+      ? {
+        name: q.name,
+        label: "u at the centre of the domain, cubic interpolation on the mapped lines",
+      }
+      : q
+  );
+}
+
 /** Relative position of the `point` quantity inside the domain. */
 const PROBE = { sx: 0.5, sy: 0.5 };
 
-/** Computes every quantity that applies to the field's layout. */
+/**
+ * Computes every quantity that applies to the field's layout.
+ *
+ * @param field the solver's values and where they sit
+ * @param domain the rectangle
+ * @param mappings a stretched family's per-axis maps (default: none, equal steps); on mapped
+ *   lines `point` is the cubic interpolation in physical coordinates (the centre is no node) and
+ *   `east-flux` takes the rules on unequal steps (`quantity_rules_mapped.ts`)
+ * @returns the values by name
+ */
 export function discreteQuantities(
   field: DiscreteField,
   domain: { x0: number; x1: number; y0: number; y1: number },
+  mappings?: CompiledCase["mappings"],
 ): Record<string, number> {
   const { values, weights } = field;
   let integral = 0;
@@ -71,6 +101,19 @@ export function discreteQuantities(
   }
   const out: Record<string, number> = { integral, maximum };
   if (field.layout === "points") return out;
+  const grid = structured(field, domain, mappings);
+  if (grid?.lines) {
+    const point = cubicPointValue(
+      grid,
+      domain.x0 + PROBE.sx * (domain.x1 - domain.x0),
+      domain.y0 + PROBE.sy * (domain.y1 - domain.y0),
+    );
+    if (point !== null) out.point = point;
+    const flux = discreteQuantity(field, { domain, mappings }, EAST_FLUX, "normal");
+    if (flux !== null) out["east-flux"] = flux;
+    out.maximum = refinedMaximum(values, grid.ni, grid.nj);
+    return out;
+  }
   const { nx, ny } = field;
   const hx = (domain.x1 - domain.x0) / nx;
   const hy = (domain.y1 - domain.y0) / ny;

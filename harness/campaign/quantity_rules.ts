@@ -26,8 +26,19 @@
  *   on cell grids the face values extrapolated by the same quadratic, `(15u₀ − 10u₁ + 3u₂)/8`.
  *   The flux density is then integrated along the side with {@link lineWeights}.
  *
+ * A field with `lines` (a stretched family's mapped grid lines) takes the same rules written on
+ * unequal steps (`quantity_rules_mapped.ts`, with the derivation of the one-sided derivative);
+ * without them every value is computed as before, bit for bit.
+ *
  * @module
  */
+import {
+  derivativeWeights,
+  lagrangeWeights,
+  mappedLineWeights,
+  mappedPositions,
+  sideWeights,
+} from "./quantity_rules_mapped.ts";
 
 /** Where values sit along one grid line: nodes (`vertex`) or cell centres (`cell`). */
 export type LineLayout = "vertex" | "cell";
@@ -40,6 +51,11 @@ export interface StructuredField {
   nj: number;
   /** The domain the grid covers. */
   domain: { x0: number; x1: number; y0: number; y1: number };
+  /**
+   * The grid lines per axis (vertex nodes or cell faces, nx + 1 and ny + 1 numbers) when the
+   * steps are unequal; absent (default): equal steps across the domain.
+   */
+  lines?: { x: ArrayLike<number>; y: ArrayLike<number> };
 }
 
 /**
@@ -107,12 +123,16 @@ export function rectangleIntegral(
   ya: number,
   yb: number,
 ): number {
-  const { layout, values, ni, nj, domain } = field;
+  const { layout, values, ni, nj, domain, lines } = field;
   const nx = layout === "vertex" ? ni - 1 : ni;
   const ny = layout === "vertex" ? nj - 1 : nj;
   const hx = (domain.x1 - domain.x0) / nx, hy = (domain.y1 - domain.y0) / ny;
-  const wx = lineWeights(layout, domain.x0, hx, nx, xa, xb);
-  const wy = lineWeights(layout, domain.y0, hy, ny, ya, yb);
+  const wx = lines
+    ? mappedLineWeights(layout, lines.x, xa, xb)
+    : lineWeights(layout, domain.x0, hx, nx, xa, xb);
+  const wy = lines
+    ? mappedLineWeights(layout, lines.y, ya, yb)
+    : lineWeights(layout, domain.y0, hy, ny, ya, yb);
   let sum = 0;
   for (let j = 0; j < nj; j++) {
     if (wy[j] === 0) continue;
@@ -147,8 +167,13 @@ export function cubicPointValue(field: StructuredField, x: number, y: number): n
   const ny = layout === "vertex" ? nj - 1 : nj;
   const hx = (domain.x1 - domain.x0) / nx, hy = (domain.y1 - domain.y0) / ny;
   const off = layout === "vertex" ? 0 : 0.5;
-  const [i0, wx] = cubicStencil(domain.x0 + off * hx, hx, ni, x);
-  const [j0, wy] = cubicStencil(domain.y0 + off * hy, hy, nj, y);
+  const { lines } = field;
+  const [i0, wx] = lines
+    ? lagrangeWeights(mappedPositions(layout, lines.x), x)
+    : cubicStencil(domain.x0 + off * hx, hx, ni, x);
+  const [j0, wy] = lines
+    ? lagrangeWeights(mappedPositions(layout, lines.y), y)
+    : cubicStencil(domain.y0 + off * hy, hy, nj, y);
   let sum = 0;
   for (let b = 0; b < 4; b++) {
     let row = 0;
@@ -165,16 +190,18 @@ export type SideName = "west" | "east" | "south" | "north";
  * The derivatives of u at the points of one side (module doc), ordered by increasing coordinate
  * along the side: the outward normal derivative `dn`, the tangential derivative `dt` (along +y on
  * west and east, +x on south and north), and where the points are (`t`, along the side) with the
- * line's spacing. Null when fewer than 3 values lie along the normal or the side.
+ * line's spacing (on unequal steps, `lines`: the side's grid lines, and `h` their mean step).
+ * Null when fewer than 3 values lie along the normal or the side.
  */
 export function sideDerivatives(
   field: StructuredField,
   side: SideName,
-): { dn: Float64Array; dt: Float64Array; t: number[]; lo: number; h: number; n: number } | null {
+): SideDerivatives | null {
   const { layout, values, ni, nj, domain } = field;
   const vertical = side === "west" || side === "east";
   const across = vertical ? ni : nj, along = vertical ? nj : ni;
   if (across < 3 || along < 3) return null;
+  if (field.lines) return mappedSideDerivatives(field, side, field.lines);
   const n = layout === "vertex" ? along - 1 : along;
   const lo = vertical ? domain.y0 : domain.x0;
   const h = ((vertical ? domain.y1 : domain.x1) - lo) / n;
@@ -205,4 +232,60 @@ export function sideDerivatives(
     } else dt[k] = (onSide[k + 1] - onSide[k - 1]) / (2 * h);
   }
   return { dn, dt, t: linePositions(layout, lo, h, n), lo, h, n };
+}
+
+/** What {@link sideDerivatives} returns. */
+export interface SideDerivatives {
+  /** The outward normal derivative at each point of the side. */
+  dn: Float64Array;
+  /** The tangential derivative at each point of the side. */
+  dt: Float64Array;
+  /** Where the points are along the side. */
+  t: ArrayLike<number>;
+  /** The side's first line, its mean step and its number of intervals. */
+  lo: number;
+  h: number;
+  n: number;
+  /** The side's grid lines when the steps are unequal. */
+  lines?: ArrayLike<number>;
+}
+
+/** {@link sideDerivatives} on unequal steps (rules in `quantity_rules_mapped.ts`). */
+function mappedSideDerivatives(
+  field: StructuredField,
+  side: SideName,
+  lines: { x: ArrayLike<number>; y: ArrayLike<number> },
+): SideDerivatives {
+  const { layout, values, ni, nj } = field;
+  const vertical = side === "west" || side === "east";
+  const across = vertical ? ni : nj, along = vertical ? nj : ni;
+  const far = side === "east" || side === "north";
+  const normalLines = vertical ? lines.x : lines.y, sideLines = vertical ? lines.y : lines.x;
+  const p = mappedPositions(layout, normalLines);
+  const wall = far ? normalLines[normalLines.length - 1] : normalLines[0];
+  // distances inward from the side of the three values nearest it
+  const depth = (d: number) => Math.abs(p[far ? across - 1 - d : d] - wall);
+  const weights = sideWeights(depth(0), depth(1), depth(2));
+  const at = (d: number, k: number) => {
+    const r = far ? across - 1 - d : d;
+    return vertical ? values[k * ni + r] : values[r * ni + k];
+  };
+  const dn = new Float64Array(along), onSide = new Float64Array(along);
+  for (let k = 0; k < along; k++) {
+    const u0 = at(0, k), u1 = at(1, k), u2 = at(2, k);
+    dn[k] = weights.dn[0] * u0 + weights.dn[1] * u1 + weights.dn[2] * u2;
+    onSide[k] = layout === "vertex"
+      ? u0
+      : weights.value[0] * u0 + weights.value[1] * u1 + weights.value[2] * u2;
+  }
+  const t = mappedPositions(layout, sideLines);
+  const dt = new Float64Array(along);
+  for (let k = 0; k < along; k++) {
+    // the middle of three neighbours, or the first or last three at the ends
+    const c = Math.min(Math.max(k - 1, 0), along - 3);
+    const [a, b, e] = derivativeWeights(t[c], t[c + 1], t[c + 2], t[k]);
+    dt[k] = a * onSide[c] + b * onSide[c + 1] + e * onSide[c + 2];
+  }
+  const n = sideLines.length - 1, lo = sideLines[0];
+  return { dn, dt, t, lo, h: (sideLines[n] - lo) / n, n, lines: sideLines };
 }

@@ -8,14 +8,14 @@
  *
  * @module
  */
-import { expectationFor } from "../../cases/mod.ts";
+import { expectationFor, isStretchedCase } from "../../cases/mod.ts";
 import type { CompiledCase } from "../../cases/types.ts";
 import { buildStudy, pairwiseOrders } from "../analysis/mod.ts";
 import type { RankComparison, SideName, SolveRecord, StudyRecord, Verdict } from "../result/mod.ts";
 import type { Solver } from "../solvers/mod.ts";
 import { diagnoseAcrossCases } from "./diagnosis.ts";
 import { chosenSpecs, exactQuantity, fluxMeasure, quantityLabel } from "./chosen_quantities.ts";
-import { exactQuantities, QUANTITIES } from "./quantities.ts";
+import { builtInQuantities, exactQuantities } from "./quantities.ts";
 
 /** Options of {@link buildStudies}. */
 export interface StudiesOptions {
@@ -61,8 +61,9 @@ export function buildStudies(
   for (const kase of cases) {
     const exact = exactQuantities(kase);
     const scale = Math.max(Math.abs(exact.maximum), maxAbs(kase));
+    const builtIn = builtInQuantities(isStretchedCase(kase));
     const quantities: Record<string, { label: string; exact: number }> = Object.fromEntries(
-      QUANTITIES.map((q) => [q.name, { label: q.label, exact: exact[q.name] }]),
+      builtIn.map((q) => [q.name, { label: q.label, exact: exact[q.name] }]),
     );
     // the case's own quantities, after the built-in ones
     for (const spec of chosenSpecs(kase)) {

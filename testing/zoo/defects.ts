@@ -58,6 +58,18 @@ export interface Discretization {
    * the side's midpoint ("side-midpoint": a code that keeps one film coefficient per edge).
    */
   robinWeights: "point" | "side-midpoint";
+  /**
+   * Stretched and periodic grids (`assemble_mapped.ts`): the west neighbour of the first column
+   * across a periodic seam — the last column inside the period ("wrap"), the image node nx of
+   * node 0 itself on vertex grids ("image"), or none, the wrap-around term dropped as if the seam
+   * were a zero-gradient side, on cell grids ("dropped").
+   */
+  periodicSeam: "wrap" | "image" | "dropped";
+  /**
+   * Stretched grids: the y differences on the real steps of the mapped lines ("mapped") or the
+   * uniform three-point formula with the mean step (y1 − y0)/ny at the mapped points ("mean").
+   */
+  ySpacing: "mapped" | "mean";
 }
 
 /** The second-order central scheme the brief asks for. */
@@ -78,6 +90,8 @@ export const CORRECT_DISCRETIZATION: Discretization = {
   faceConductivity: "face",
   neumannData: "conormal",
   robinWeights: "point",
+  periodicSeam: "wrap",
+  ySpacing: "mapped",
 };
 
 /** What a solve reports: values (x fastest unless a defect says otherwise) and its history. */
@@ -264,6 +278,29 @@ export const DEFECTS = {
       "the whole side; invisible while they are constant",
     place: "the Robin sides (their weights vary along the side)",
     discretization: { robinWeights: "side-midpoint" },
+  },
+  "periodic-seam-image": {
+    description: "vertex: across the periodic seam the first node couples to node nx — its own " +
+      "image, equal to it — instead of node nx − 1, the last node inside the period (the image " +
+      "node counted as a neighbour)",
+    place: "the periodic sides (the seam between west and east)",
+    layouts: ["vertex"],
+    discretization: { periodicSeam: "image" },
+  },
+  "periodic-seam-dropped": {
+    description:
+      "cell: the wrap-around term of the periodic seam is dropped — the first and last " +
+      "cells see a zero-gradient side instead of each other",
+    place: "the periodic sides (the seam between west and east)",
+    layouts: ["cell"],
+    discretization: { periodicSeam: "dropped" },
+  },
+  "stretched-y-mean-spacing": {
+    description: "the y differences use the uniform three-point formula with the mean spacing " +
+      "(y1 − y0)/ny at the mapped points, while x takes the real steps (stretching added for one " +
+      "axis only)",
+    place: "the stretched axis y (its differences assume equal steps)",
+    discretization: { ySpacing: "mean" },
   },
 } as const satisfies Record<string, Defect>;
 

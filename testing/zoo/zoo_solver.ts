@@ -7,8 +7,8 @@
  * @module
  */
 import {
+  casePoints,
   emptyOutcome,
-  gridPoints,
   type SolveOutcome,
   type Solver,
   type SolveTask,
@@ -21,6 +21,7 @@ import {
   assembleConservativeVertex,
   conservativeDeclines,
 } from "./assemble_conservative.ts";
+import { assembleMapped, mappedDeclines, needsMapped } from "./assemble_mapped.ts";
 import { solveBanded } from "./banded.ts";
 import {
   CORRECT_DISCRETIZATION,
@@ -44,7 +45,8 @@ export interface ZooSolverOptions {
 
 /**
  * Makes a zoo solver. Each solve assembles the central scheme (non-conservative form) or the
- * finite-volume scheme (conservative form, `assemble_conservative.ts`) from the case's
+ * finite-volume scheme (conservative form, `assemble_conservative.ts`), or on a stretched family
+ * or with a periodic west–east pair the scheme on unequal steps (`assemble_mapped.ts`), from the case's
  * coefficients, source and boundary data (never its exact solution), solves it by banded Gaussian
  * elimination and reports the residual history [‖f‖, ‖f − A·u‖] with one iteration, unless the
  * defect rewrites the outcome. Upwind tasks, and conservative cases the finite-volume scheme
@@ -102,7 +104,12 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
         ));
       }
       const conservative = task.case.form === "conservative";
-      const declined = conservative ? conservativeDeclines(task.case) : null;
+      const mapped = needsMapped(task.case);
+      const declined = mapped
+        ? mappedDeclines(task.case)
+        : conservative
+        ? conservativeDeclines(task.case)
+        : null;
       if (declined !== null) {
         return Promise.resolve(emptyOutcome("not-applicable", declined, grid, {
           seconds: seconds(),
@@ -112,7 +119,9 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
       try {
         const assemble = conservative ? assembleConservative : assembleGeneral;
         const kase = disc.robinWeights === "side-midpoint" ? weightsPerSide(task.case) : task.case;
-        const system = assemble(kase, task.nx, task.ny, disc);
+        const system = mapped
+          ? assembleMapped(kase, task.nx, task.ny, disc, layout)
+          : assemble(kase, task.nx, task.ny, disc);
         const { u, pivoted } = solveBanded(system);
         const direct: Finished = {
           values: u,
@@ -131,7 +140,7 @@ export function createZooSolver(options: ZooSolverOptions): Solver {
           my: vertex ? task.ny + 1 : task.ny,
           tolerance: task.tolerance,
         }) ?? direct;
-        const points = gridPoints(layout, task.case.domain, task.nx, task.ny);
+        const points = casePoints(task.case, layout, task.nx, task.ny);
         return Promise.resolve({
           status: "ok",
           layout,

@@ -6,6 +6,7 @@
  */
 import assert from "node:assert/strict";
 import { buildCase, type CompiledCase, loadLibrary } from "../../cases/mod.ts";
+import { testCase } from "../../cases/_test_case.ts";
 import type { SolveOutcome } from "../../harness/solvers/mod.ts";
 import { createZooSolver, type DefectName, DEFECTS } from "./mod.ts";
 
@@ -114,6 +115,34 @@ Deno.test("createZooSolver() reproduces quadratic-exact to round-off on vertex g
   }
 });
 
+Deno.test("createZooSolver() reproduces a quadratic to round-off on a stretched vertex family with a Neumann side", async () => {
+  // exact identity: the three-point differences on unequal steps are exact for quadratics
+  // (assemble_mapped.ts), and so is the north side's mirrored ghost node: the central difference
+  // over two equal distances gives u_y = x − y of the quadratic exactly
+  const c = await buildCase(
+    testCase({
+      id: "stretched-quadratic",
+      coefficients: { a: "1 + x", b: "0.5", c: "2 - y", d: "-x", e: "-1" },
+      exact: "x^2 + x*y - 0.5*y^2 + 1",
+      spacing: {
+        x: { kind: "geometric", ratio: 1.2, cells: 8 },
+        y: { kind: "tanh", strength: 2, toward: "end" },
+      },
+      boundary: {
+        west: { kind: "dirichlet" },
+        east: { kind: "dirichlet" },
+        south: { kind: "dirichlet" },
+        north: { kind: "neumann" },
+      },
+    }),
+    { origin: "test" },
+  );
+  for (const n of [8, 16]) {
+    const err = maxError(c, await solveOn(c, n, "vertex"));
+    assert.ok(err < 1e-11, `n=${n}: max error ${err}`);
+  }
+});
+
 Deno.test("createZooSolver() returns vertex Dirichlet data exactly", async () => {
   for (const id of ["variable-all", "mixed-boundaries"]) {
     const c = byId(id);
@@ -194,6 +223,9 @@ Deno.test("every seeded defect changes the outcome measurably on a library case"
     ["cross-diffusion-sign", "rotated-anisotropy"],
     ["neumann-gradient-data", "conservative-smooth"],
     ["robin-weights-per-side", "variable-robin-edge"],
+    ["periodic-seam-image", "periodic-channel"],
+    ["periodic-seam-dropped", "periodic-channel"],
+    ["stretched-y-mean-spacing", "stretched-wall-layer"],
   ];
   assert.deepEqual(rows.map((r) => r[0]).sort(), Object.keys(DEFECTS).sort());
   for (const [defect, id] of rows) {
