@@ -7,6 +7,7 @@
 import type { Hierarchy } from "./hierarchy.ts";
 import type { CycleName } from "./options.ts";
 import { removeMean, residual } from "./_kernels.ts";
+import { correctAndSweep } from "./_kernels_pipelined.ts";
 
 /** Sweeps before and after the coarse-grid correction, and FMG settings. */
 export interface CycleParams {
@@ -26,7 +27,9 @@ export interface CycleParams {
  * interpolate and correct, relax ν2 times. On a singular level the restricted residual has its
  * mean removed first (compatibility with the constant null space). After red–black pre-smoothing
  * on a five-point level (`Level.redBlack`) the residual is restricted fused, from its red nodes
- * only (the black ones are zero), and never stored. Every cycle is this one function with a
+ * only (the black ones are zero), and never stored; after the coarse solve the correction is added
+ * at the black nodes only, fused into the first post-smoothing pass (`correctAndSweep`: the red
+ * nodes are overwritten by the sweep without being read). Every cycle is this one function with a
  * different coarse solve.
  */
 function correct(
@@ -51,8 +54,12 @@ function correct(
   }
   Lc.u.fill(0);
   solveCoarse(l + 1);
-  L.transfer!.interpolateAdd(Lc.u, L.u);
-  L.smoother!.smooth(L.u, L.f, params.post);
+  // Level.redBlack: five-point red–black level, bilinear transfer coarsened both ways.
+  if (L.redBlack && params.post > 0) correctAndSweep(L.op, Lc.u, L.u, L.f, params.post);
+  else {
+    L.transfer!.interpolateAdd(Lc.u, L.u);
+    L.smoother!.smooth(L.u, L.f, params.post);
+  }
 }
 
 /**

@@ -75,7 +75,9 @@ export interface Level {
    * True when the level's smoother is red–black on a five-point, non-singular level and its
    * transfer restricts the residual fused (`Transfer.restrictResidual`): after any red–black sweep
    * the black residuals are zero, so the cycle restricts without storing the residual and the
-   * stop test measures the red residuals only.
+   * stop test measures the red residuals only. Such a transfer is always the bilinear one of
+   * `transfer.ts` coarsened both ways, so the cycle also adds the correction fused into the first
+   * post-smoothing sweep (`correctAndSweep`).
    */
   redBlack?: boolean;
 }
