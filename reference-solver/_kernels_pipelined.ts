@@ -20,6 +20,7 @@
  * @module
  */
 import type { LevelOperator } from "./level.ts";
+import { restrictRedRow } from "./_kernels.ts";
 
 /**
  * Relaxes the red nodes (i + j even) of row j and the black nodes of row j − 1, interleaved, each
@@ -124,5 +125,49 @@ export function correctAndSweep(
   for (let t = 0; t <= last; t++) {
     if (t <= ny) correctBlackRow(coarse, u, t, cnx, cs, fs);
     for (let sw = 0; sw < sweeps; sw++) pairRow(op, u, f, t - 1 - 2 * sw);
+  }
+}
+
+/**
+ * `sweeps` ≥ 1 red–black sweeps followed by the fused red-residual full-weighting restriction
+ * (`restrictRedResidual`), in one pass: coarse row J is restricted as soon as the last sweep has
+ * finished fine row 2J + 2. Equals `redBlackSweeps` then `restrictRedResidual` bit for bit (the
+ * restriction reads only final values, computed by the same row function). The caller applies
+ * the boundary rescaling and the coarse Dirichlet zeros afterwards.
+ *
+ * @param op The fine five-point level (nx, ny even).
+ * @param u The fine iterate, relaxed in place.
+ * @param f The fine right-hand side.
+ * @param sweeps Pre-smoothing sweeps, at least 1.
+ * @param out The coarse right-hand side (padded, stride cs), every coarse node written.
+ * @param cs The coarse stride nx/2 + 3.
+ * @param rowA Work row of length nx/2 + 2; rowB a second one.
+ */
+export function sweepAndRestrict(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  sweeps: number,
+  out: Float64Array,
+  cs: number,
+  rowA: Float64Array,
+  rowB: Float64Array,
+): void {
+  const ny = op.ny, cny = ny >> 1;
+  let prev = rowA, next = rowB;
+  prev.fill(0);
+  let J = 0;
+  const last = ny + 1 + 2 * (sweeps - 1);
+  for (let t = 0; t <= last; t++) {
+    for (let sw = 0; sw < sweeps; sw++) pairRow(op, u, f, t - 2 * sw);
+    // Rows 0 … t − 2·sweeps + 1 are final; coarse row J reads fine rows up to 2J + 2.
+    const done = t - 2 * sweeps + 1;
+    while (J <= cny && Math.min(2 * J + 2, ny) <= done) {
+      restrictRedRow(op, u, f, out, cs, J, prev, next);
+      const tmp = prev;
+      prev = next;
+      next = tmp;
+      J++;
+    }
   }
 }

@@ -1,8 +1,8 @@
 import assert from "node:assert/strict";
 import { ALL_DIRICHLET, LAPLACE, manufactured, SMOOTH, VARIABLE } from "./_test_problems.ts";
 import { discretize } from "./discretize.ts";
-import { interpolateAddBoth, redBlackSweep } from "./_kernels.ts";
-import { correctAndSweep, redBlackSweeps } from "./_kernels_pipelined.ts";
+import { interpolateAddBoth, redBlackSweep, restrictRedResidual } from "./_kernels.ts";
+import { correctAndSweep, redBlackSweeps, sweepAndRestrict } from "./_kernels_pipelined.ts";
 import type { Side } from "./problem.ts";
 import type { SideSpec } from "./_test_problems.ts";
 
@@ -97,6 +97,32 @@ Deno.test("correctAndSweep() equals bilinear correction then red–black sweeps 
         const bare = rough(op, 99);
         for (let s = 0; s < sweeps; s++) redBlackSweep(op, bare, rhs);
         assert.notEqual(firstDifference(plain, bare), -1);
+      });
+    }
+  }
+});
+
+Deno.test("sweepAndRestrict() equals red–black sweeps then the red-residual restriction bit for bit", async (t) => {
+  for (const c of CASES) {
+    for (const sweeps of [1, 2, 3]) {
+      await t.step(`${c.name}, ${sweeps} pre-sweep(s)`, () => {
+        const { op, rhs } = discretize(manufactured(c.coef, SMOOTH, c, c.sides), c.upwind);
+        const cnx = c.nx / 2, cny = c.ny / 2, cs = cnx + 3, len = cs * (cny + 3);
+        const plain = rough(op, 31), fused = plain.slice();
+        const outPlain = new Float64Array(len), outFused = new Float64Array(len).fill(NaN);
+        const rows = () => [new Float64Array(cnx + 2), new Float64Array(cnx + 2)] as const;
+        for (let s = 0; s < sweeps; s++) redBlackSweep(op, plain, rhs);
+        restrictRedResidual(op, plain, rhs, outPlain, cs, ...rows());
+        sweepAndRestrict(op, fused, rhs, sweeps, outFused, cs, ...rows());
+        assert.equal(firstDifference(plain, fused), -1);
+        // Every coarse node is written (NaN left anywhere would differ), halo aside.
+        for (let J = 0; J <= cny; J++) {
+          for (let I = 0; I <= cnx; I++) {
+            const k = (J + 1) * cs + I + 1;
+            assert.ok(Object.is(outPlain[k], outFused[k]), `coarse (${I}, ${J})`);
+          }
+        }
+        assert.ok(outPlain.some((v) => Math.abs(v) > 1e-6), "the restricted residual is not zero");
       });
     }
   }

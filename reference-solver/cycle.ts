@@ -25,9 +25,10 @@ export interface CycleParams {
  * Coarse-grid correction on level l for levels[l].u, levels[l].f: relax ν1 times, restrict the
  * residual, solve the error equation on level l + 1 with `solveCoarse` (exactly on the coarsest),
  * interpolate and correct, relax ν2 times. On a singular level the restricted residual has its
- * mean removed first (compatibility with the constant null space). After red–black pre-smoothing
- * on a five-point level (`Level.redBlack`) the residual is restricted fused, from its red nodes
- * only (the black ones are zero), and never stored; after the coarse solve the correction is added
+ * mean removed first (compatibility with the constant null space). On a five-point red–black level
+ * (`Level.redBlack`) the pre-smoothing sweeps and the restriction of the residual run in one pass
+ * (`sweepAndRestrict`): the residual is restricted from its red nodes only (the black ones are
+ * zero after the sweep) and never stored; after the coarse solve the correction is added
  * at the black nodes only, fused into the first post-smoothing pass (`correctAndSweep`: the red
  * nodes are overwritten by the sweep without being read). Every cycle is this one function with a
  * different coarse solve.
@@ -44,9 +45,10 @@ function correct(
     return;
   }
   const Lc = h.levels[l + 1];
-  L.smoother!.smooth(L.u, L.f, params.pre);
-  if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f);
+  // Level.redBlack: the pre-smoothing sweeps and the restriction in one pass over memory.
+  if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f, params.pre);
   else {
+    L.smoother!.smooth(L.u, L.f, params.pre);
     if (L.r.length !== L.op.length) L.r = L.op.vector();
     residual(L.op, L.u, L.f, L.r);
     if (L.op.singular) removeMean(L.op, L.r);
