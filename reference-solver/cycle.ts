@@ -99,11 +99,20 @@ function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleP
  * offers it; otherwise the transfer's own interpolation, e.g. operator-dependent), run `fmgCyclesPerLevel` cycles of
  * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u. Coarse
  * levels take their own `rhs`; the finest level uses levels[0].f as the caller left it.
+ *
+ * @throws {RangeError} For a hierarchy built for another cycle (its coarse levels share rhs and f).
  */
 export function fullMultigrid(h: Hierarchy, params: CycleParams): void {
   const levels = h.levels;
   const last = levels.length - 1;
   const type = params.fmgCycle ?? "V", times = params.fmgCyclesPerLevel ?? 1;
+  for (let l = 1; l <= last; l++) {
+    if (levels[l].f === levels[l].rhs) {
+      throw new RangeError(
+        'Cannot run full multigrid on this hierarchy: its coarse levels keep no right-hand side of their own; build it with cycle.type "fmg"',
+      );
+    }
+  }
   const C = levels[last];
   if (last > 0) C.f.set(C.rhs);
   C.direct!.solve(C.u, C.f);
