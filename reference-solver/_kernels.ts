@@ -427,32 +427,19 @@ export function restrictRedResidual(
 }
 
 /**
- * sum + the squared residuals f − A·u at the red nodes (i + j even) of row j of a five-point level,
- * added one by one in order (so that a caller going row by row gets the same sum as one loop).
- */
-export function redResidualRowSum(
-  op: LevelOperator,
-  u: Float64Array,
-  f: Float64Array,
-  j: number,
-  sum: number,
-): number {
-  const { W, E, S, N, C, nx, stride: s } = op;
-  const base = (j + 1) * s + 1;
-  for (let k = base + (j & 1); k <= base + nx; k += 2) {
-    const t = f[k] -
-      (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
-    sum += t * t;
-  }
-  return sum;
-}
-
-/**
  * ‖f − A·u‖₂ over the red nodes (i + j even) of a five-point level: the whole residual norm when
  * the black residuals are zero, as right after a red–black sweep (up to their round-off).
  */
 export function redResidualNorm2(op: LevelOperator, u: Float64Array, f: Float64Array): number {
+  const { W, E, S, N, C, nx, ny, stride: s } = op;
   let sum = 0;
-  for (let j = 0; j <= op.ny; j++) sum = redResidualRowSum(op, u, f, j, sum);
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * s + 1;
+    for (let k = base + (j & 1); k <= base + nx; k += 2) {
+      const t = f[k] -
+        (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
+      sum += t * t;
+    }
+  }
   return Math.sqrt(sum);
 }

@@ -20,7 +20,7 @@
  * @module
  */
 import type { LevelOperator } from "./level.ts";
-import { redResidualRowSum, restrictRedRow } from "./_kernels.ts";
+import { restrictRedRow } from "./_kernels.ts";
 
 /**
  * Relaxes the red nodes (i + j even) of row j and the black nodes of row j − 1, interleaved, each
@@ -104,18 +104,13 @@ function correctBlackRow(
 /**
  * fine += P·coarse (bilinear, both directions coarsened) followed by `sweeps` ≥ 1 red–black
  * sweeps, in one pass, with the correction added at the black nodes only (module doc). Equals
- * `interpolateAddBoth` then `sweeps` calls of `redBlackSweep` bit for bit. With `norm`, the same
- * pass also sums the squared residuals at the red nodes, row j once rows j − 1 … j + 1 are final,
- * in the order of `redResidualNorm2`, and returns that norm (the same number bit for bit; the
- * whole residual norm up to the black nodes' round-off).
+ * `interpolateAddBoth` then `sweeps` calls of `redBlackSweep` bit for bit.
  *
  * @param op The fine five-point level (nx = 2·cnx, ny = 2·cny).
  * @param coarse The coarse correction (padded, stride cnx + 3).
  * @param u The fine iterate (padded), corrected and relaxed in place.
  * @param f The fine right-hand side.
  * @param sweeps Post-smoothing sweeps, at least 1.
- * @param norm Whether to compute the red residual norm (default false).
- * @returns The red residual norm with `norm`, otherwise NaN.
  */
 export function correctAndSweep(
   op: LevelOperator,
@@ -123,21 +118,14 @@ export function correctAndSweep(
   u: Float64Array,
   f: Float64Array,
   sweeps: number,
-  norm = false,
-): number {
+): void {
   const { nx, ny, stride: fs } = op;
   const cnx = nx >> 1, cs = cnx + 3;
   const last = ny + 2 + 2 * (sweeps - 1);
-  let sum = 0, j = 0;
   for (let t = 0; t <= last; t++) {
     if (t <= ny) correctBlackRow(coarse, u, t, cnx, cs, fs);
     for (let sw = 0; sw < sweeps; sw++) pairRow(op, u, f, t - 1 - 2 * sw);
-    if (!norm) continue;
-    // Rows 0 … t − 2·sweeps are final; the residual of row j reads rows j − 1 … j + 1.
-    const done = t - 2 * sweeps;
-    while (j <= ny && Math.min(j + 1, ny) <= done) sum = redResidualRowSum(op, u, f, j++, sum);
   }
-  return norm ? Math.sqrt(sum) : NaN;
 }
 
 /**

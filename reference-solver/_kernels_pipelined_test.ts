@@ -1,12 +1,7 @@
 import assert from "node:assert/strict";
 import { ALL_DIRICHLET, LAPLACE, manufactured, SMOOTH, VARIABLE } from "./_test_problems.ts";
 import { discretize } from "./discretize.ts";
-import {
-  interpolateAddBoth,
-  redBlackSweep,
-  redResidualNorm2,
-  restrictRedResidual,
-} from "./_kernels.ts";
+import { interpolateAddBoth, redBlackSweep, restrictRedResidual } from "./_kernels.ts";
 import { correctAndSweep, redBlackSweeps, sweepAndRestrict } from "./_kernels_pipelined.ts";
 import type { Side } from "./problem.ts";
 import type { SideSpec } from "./_test_problems.ts";
@@ -83,7 +78,7 @@ Deno.test("redBlackSweeps() equals consecutive red–black sweeps bit for bit", 
   }
 });
 
-Deno.test("correctAndSweep() equals bilinear correction then red–black sweeps, and its norm the red residual norm, bit for bit", async (t) => {
+Deno.test("correctAndSweep() equals bilinear correction then red–black sweeps bit for bit", async (t) => {
   for (const c of CASES) {
     for (const sweeps of [1, 2]) {
       await t.step(`${c.name}, ${sweeps} post-sweep(s)`, () => {
@@ -96,11 +91,8 @@ Deno.test("correctAndSweep() equals bilinear correction then red–black sweeps,
         const plain = rough(op, 99), fused = plain.slice();
         interpolateAddBoth(coarse, plain, cnx, cny, cnx + 3, op.stride);
         for (let s = 0; s < sweeps; s++) redBlackSweep(op, plain, rhs);
-        const norm = correctAndSweep(op, coarse, fused, rhs, sweeps, true);
+        correctAndSweep(op, coarse, fused, rhs, sweeps);
         assert.equal(firstDifference(plain, fused), -1);
-        // The norm taken in the same pass is redResidualNorm2 of the result, bit for bit.
-        assert.ok(Object.is(norm, redResidualNorm2(op, plain, rhs)), `${norm}`);
-        assert.ok(Number.isNaN(correctAndSweep(op, coarse, fused.slice(), rhs, sweeps)));
         // Without the correction the result differs: the test sees a missing correction.
         const bare = rough(op, 99);
         for (let s = 0; s < sweeps; s++) redBlackSweep(op, bare, rhs);

@@ -57,11 +57,8 @@ function correct(
   Lc.u.fill(0);
   solveCoarse(l + 1);
   // Level.redBlack: five-point red–black level, bilinear transfer coarsened both ways.
-  if (L.redBlack && params.post > 0) {
-    // On the finest level the same pass leaves the stop test's norm (Hierarchy.finestRedNorm).
-    const norm = correctAndSweep(L.op, Lc.u, L.u, L.f, params.post, l === 0);
-    if (l === 0) h.finestRedNorm = norm;
-  } else {
+  if (L.redBlack && params.post > 0) correctAndSweep(L.op, Lc.u, L.u, L.f, params.post);
+  else {
     L.transfer!.interpolateAdd(Lc.u, L.u);
     L.smoother!.smooth(L.u, L.f, params.post);
   }

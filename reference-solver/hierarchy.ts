@@ -95,12 +95,6 @@ export interface Hierarchy {
   coarseOperator: CoarseOperatorName;
   /** The interpolation between levels (the resolved choice, never "auto"). */
   interpolation: InterpolationName;
-  /**
-   * ‖f − A·u‖₂ over the red nodes of the finest level, left by the last fused post-smoothing pass
-   * on it (`correctAndSweep` on a `redBlack` level with post ≥ 1): the stop test's norm without a
-   * pass of its own. NaN until such a pass ran; a caller resets it before a cycle.
-   */
-  finestRedNorm: number;
 }
 
 /**
@@ -353,7 +347,7 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
     // Memory (issue 16): the fused path never stores a residual on this level.
     if (!(L.redBlack && options.cycle.pre > 0)) L.r = L.op.vector();
   }
-  return { levels, coarseOperator, interpolation, finestRedNorm: NaN };
+  return { levels, coarseOperator, interpolation };
 }
 
 /**

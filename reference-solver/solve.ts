@@ -138,11 +138,7 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
   // After red–black post-smoothing the black residuals are zero: measure the red ones only.
   const redOnly = L.redBlack === true && o.cycle.post > 0;
   const measure = (after: boolean): number => {
-    if (!singular) {
-      if (!after || !redOnly) return residualNorm2(op, u, f);
-      // The cycle's last pass measured it (the same sum, see `correctAndSweep`).
-      return Number.isNaN(h.finestRedNorm) ? redResidualNorm2(op, u, f) : h.finestRedNorm;
-    }
+    if (!singular) return after && redOnly ? redResidualNorm2(op, u, f) : residualNorm2(op, u, f);
     residual(op, u, f, r);
     const mean = removeMean(op, r);
     addToNodes(op, f, -mean);
@@ -160,7 +156,6 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
     let slow = 0;
     let floorGate = -1;
     while (cycles < o.stop.maxCycles) {
-      h.finestRedNorm = NaN;
       (cycles === 0 ? first : next)(h, params);
       if (singular) removeTrapezoidMean(op, u);
       cycles++;
