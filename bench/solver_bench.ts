@@ -16,7 +16,14 @@
  *   that pass to the error of the fully converged solution (`fmgErrorRatio`);
  * - peak resident memory of the process right after the full solves at this n (VmHWM from
  *   /proc/self/status on Linux): the sampled problem plus the solver, before the benchmark's own
- *   extra allocations at that n.
+ *   extra allocations at that n;
+ * - the plain C V-cycle of `vcycle.c` in three rounds alternating with ours (best of each), and
+ *   the ratio `vCycleRatioToC`;
+ * - FMG's work units both timed (FMG seconds over one fine sweep's) and counted from the kernels'
+ *   flops (`workUnits`, reference-solver/work_units.ts);
+ * - after the last n, the true peak of `gridproof solve --case smooth-baseline --n <largest>`
+ *   through the harness (`harness_peak.ts`, GNU time), per node in total and above the n = 64
+ *   run's fixed cost.
  * Timed runs are repeated (best of `--repeat`, default 2) because the machine is shared.
  * Prints a table, or with `--json` one JSON object per line.
  *
@@ -29,11 +36,13 @@ import {
   resolveOptions,
   solve,
   type SolveResult,
+  workUnits,
 } from "../reference-solver/mod.ts";
 import { benchProblem } from "./bench_problem.ts";
 import { compileYardstick, type Yardstick } from "./c_yardstick.ts";
 import { freshProcessRun } from "./fresh_process.ts";
 import { peakResidentBytes, procText } from "./_proc.ts";
+import { harnessPeak } from "./harness_peak.ts";
 
 interface Row {
   n: number;
@@ -68,6 +77,10 @@ interface Row {
   fmgAlgebraicRatio: number;
   /** Seconds of one FMG pass over the seconds of one red–black sweep on the finest grid. */
   fmgWorkUnits: number;
+  /** Work units of one FMG pass counted from the kernels' flops (`workUnits`, one WU = one sweep). */
+  fmgCountedWorkUnits: number;
+  /** Work units of one V(2,1) cycle, counted likewise. */
+  vCycleCountedWorkUnits: number;
   /** One fine red–black sweep: the work unit. */
   sweepSeconds: number;
   /** A fresh process: its first solve, its second, and its peak resident memory (see fresh_process.ts). */
@@ -164,12 +177,21 @@ function measure(n: number, repeat: number, c: Yardstick): Row {
   };
   const fmgSolve = best(repeat, exact, () => solve(problem, { cycle: { type: "fmg" } }));
   // Triad and cycle measured alternately, best of 5 each, so both see the same machine load.
-  const h = buildHierarchy(problem, resolveOptions());
+  // Built for FMG (coarse levels keep their own rhs); the V-cycle timed on it is the same.
+  const h = buildHierarchy(problem, resolveOptions({ cycle: { type: "fmg" } }));
   const params = { pre: 2, post: 1, fmgCycle: "V" as const, fmgCyclesPerLevel: 1 };
   let triad = Infinity, cycleSeconds = Infinity, fmgSeconds = Infinity, sweep = Infinity;
   const L0 = h.levels[0];
   const reps = cycleReps(unknowns);
-  for (let rep = 0; rep < reps; rep++) {
+  // Three rounds, each our cycles then the C cycles, best of all: both sides see the same load.
+  const rounds = 3, perRound = Math.ceil(reps / rounds);
+  const canC = c.ok && Number.isInteger(Math.log2(n)) && n >= 8;
+  let cRun: { secondsPerCycle: number; residuals: number[] } | null = null;
+  for (let rep = 0; rep < perRound * rounds; rep++) {
+    if (canC && c.ok && rep % perRound === perRound - 1) {
+      const run = c.run(n, perRound);
+      if (cRun === null || run.secondsPerCycle < cRun.secondsPerCycle) cRun = run;
+    }
     if (rep < 5) triad = Math.min(triad, triadSeconds(unknowns));
     let t0 = performance.now();
     cycle(h, 0, 1, params);
@@ -182,9 +204,6 @@ function measure(n: number, repeat: number, c: Yardstick): Row {
     fullMultigrid(h, params);
     fmgSeconds = Math.min(fmgSeconds, (performance.now() - t0) / 1000);
   }
-  // The C yardstick right after, at the same n and with as many timed cycles.
-  let cRun = null;
-  if (c.ok && Number.isInteger(Math.log2(n)) && n >= 8) cRun = c.run(n, reps);
   let agreement = null;
   if (cRun !== null) {
     const ours = solve(problem, { stop: { maxCycles: 5, tolerance: 1e-300 } }).residualHistory;
@@ -220,6 +239,8 @@ function measure(n: number, repeat: number, c: Yardstick): Row {
     cResidualAgreement: agreement,
     fmgAlgebraicRatio: fmg.algebraic,
     fmgWorkUnits: fmgSeconds / sweep,
+    fmgCountedWorkUnits: workUnits(h, "fmg", params),
+    vCycleCountedWorkUnits: workUnits(h, "V", params),
     sweepSeconds: sweep,
     freshFirstSolveSeconds: fresh.ok ? fresh.firstSolveSeconds : null,
     freshSecondSolveSeconds: fresh.ok ? fresh.secondSolveSeconds : null,
@@ -250,6 +271,37 @@ function parseArgs(args: string[]): { json: boolean; ns: number[]; repeat: numbe
   return { json, ns, repeat };
 }
 
+/**
+ * The true peak through the harness at the largest n (`harness_peak.ts`): per node in total, and
+ * above the same command's peak at n = 64 (the fixed cost of the process).
+ */
+function harnessRow(n: number, json: boolean): void {
+  const what = `solve --case smooth-baseline --n ${n}`;
+  const big = harnessPeak(n), small = harnessPeak(64);
+  if (!big.ok || !small.ok) {
+    const note = !big.ok ? big.reason : !small.ok ? small.reason : "";
+    if (json) console.log(JSON.stringify({ harnessPeak: what, note }));
+    else console.log(`harness peak: n/a (${note})`);
+    return;
+  }
+  const nodes = (n + 1) ** 2, smallNodes = 65 ** 2;
+  const row = {
+    harnessPeak: what,
+    peakMiB: big.peakBytes / 2 ** 20,
+    peakBytesPerNode: big.peakBytes / nodes,
+    aboveFixedBytesPerNode: (big.peakBytes - small.peakBytes) / (nodes - smallNodes),
+    fixedMiB: small.peakBytes / 2 ** 20,
+    goalBytesPerNode: 100,
+  };
+  if (json) return console.log(JSON.stringify(row));
+  console.log(
+    `harness peak (VmHWM by GNU time), ${what}: ${row.peakMiB.toFixed(0)} MiB = ` +
+      `${row.peakBytesPerNode.toFixed(0)} B/node in total, ` +
+      `${row.aboveFixedBytesPerNode.toFixed(0)} B/node above the n = 64 run's ` +
+      `${row.fixedMiB.toFixed(0)} MiB (goal 100)`,
+  );
+}
+
 const fix = (v: number | null, d: number) => (v === null ? "n/a" : v.toFixed(d));
 
 function main(): void {
@@ -268,7 +320,7 @@ function main(): void {
     "fmg+V solve s",
     "fmg err ratio",
     "fmg alg/disc (goal 0.5)",
-    "fmg WU (goal 10)",
+    "fmg WU timed/counted (goal 10)",
     "1st/2nd solve, fresh",
     "solve B/node (goal 100)",
     "problem B/node",
@@ -302,13 +354,14 @@ function main(): void {
         `${r.fmgSolveSeconds.toFixed(3)} (${r.fmgSolveCycles})`,
         r.fmgErrorRatio.toFixed(3),
         r.fmgAlgebraicRatio.toFixed(3),
-        r.fmgWorkUnits.toFixed(1),
+        `${r.fmgWorkUnits.toFixed(1)}/${r.fmgCountedWorkUnits.toFixed(2)}`,
         fresh,
         fix(r.solvePeakBytesPerNode, 0),
         fix(r.problemBytesPerNode, 0),
         fix(r.peakRssMiB, 0),
       ].join(" | "));
     }
+    harnessRow(ns[ns.length - 1], json);
   } finally {
     if (c.ok) c.dispose();
   }

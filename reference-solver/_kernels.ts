@@ -341,9 +341,51 @@ function oddColumnResiduals(
 ): void {
   const { W, E, S, N, C, stride: s } = op;
   const cnx = op.nx >> 1;
+  if (W === E && S === N) {
+    for (let I = 0, k = (j + 1) * s + 2; I < cnx; I++, k += 2) {
+      row[I + 1] = f[k] -
+        (C[k] * u[k] + W[k] * (u[k - 1] + u[k + 1]) + S[k] * (u[k - s] + u[k + s]));
+    }
+    return;
+  }
   for (let I = 0, k = (j + 1) * s + 2; I < cnx; I++, k += 2) {
     row[I + 1] = f[k] -
       (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
+  }
+}
+
+/**
+ * Coarse row J of {@link restrictRedResidual}: `prev` holds the odd-column residuals of fine row
+ * 2J − 1 (zeros for J = 0); `next` receives those of row 2J + 1 (zeros for J = cny), and the
+ * caller swaps the two before row J + 1. Reads u on fine rows 2J − 1 … 2J + 2 only.
+ */
+export function restrictRedRow(
+  op: LevelOperator,
+  u: Float64Array,
+  f: Float64Array,
+  out: Float64Array,
+  cs: number,
+  J: number,
+  prev: Float64Array,
+  next: Float64Array,
+): void {
+  const { W, E, S, N, C, stride: s } = op;
+  const cnx = op.nx >> 1, cny = op.ny >> 1;
+  if (J < cny) oddColumnResiduals(op, u, f, 2 * J + 1, next);
+  else next.fill(0);
+  const cb = (J + 1) * cs + 1;
+  if (W === E && S === N) {
+    for (let I = 0, k = (2 * J + 1) * s + 1; I <= cnx; I++, k += 2) {
+      const rc = f[k] -
+        (C[k] * u[k] + W[k] * (u[k - 1] + u[k + 1]) + S[k] * (u[k - s] + u[k + s]));
+      out[cb + I] = 0.0625 * (4 * rc + prev[I] + prev[I + 1] + next[I] + next[I + 1]);
+    }
+    return;
+  }
+  for (let I = 0, k = (2 * J + 1) * s + 1; I <= cnx; I++, k += 2) {
+    const rc = f[k] -
+      (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
+    out[cb + I] = 0.0625 * (4 * rc + prev[I] + prev[I + 1] + next[I] + next[I + 1]);
   }
 }
 
@@ -373,19 +415,11 @@ export function restrictRedResidual(
   rowA: Float64Array,
   rowB: Float64Array,
 ): void {
-  const { W, E, S, N, C, stride: s } = op;
-  const cnx = op.nx >> 1, cny = op.ny >> 1;
+  const cny = op.ny >> 1;
   let prev = rowA, next = rowB;
   prev.fill(0);
   for (let J = 0; J <= cny; J++) {
-    if (J < cny) oddColumnResiduals(op, u, f, 2 * J + 1, next);
-    else next.fill(0);
-    const cb = (J + 1) * cs + 1;
-    for (let I = 0, k = (2 * J + 1) * s + 1; I <= cnx; I++, k += 2) {
-      const rc = f[k] -
-        (C[k] * u[k] + W[k] * u[k - 1] + E[k] * u[k + 1] + S[k] * u[k - s] + N[k] * u[k + s]);
-      out[cb + I] = 0.0625 * (4 * rc + prev[I] + prev[I + 1] + next[I] + next[I + 1]);
-    }
+    restrictRedRow(op, u, f, out, cs, J, prev, next);
     const t = prev;
     prev = next;
     next = t;

@@ -16,23 +16,41 @@
  * @module
  */
 
-/** v at the midpoint between coarse positions m and m + 1 of a line of `count` + 1 values. */
-function midpoint(
+/**
+ * out[o + i·so] = the value at the midpoint between positions m and m + 1 of `count` + 1 values
+ * v[b + t·sb] (t = 0 … count), for the `len` lines i = 0 … len − 1 whose values start at
+ * b + i·si: one loop per formula, no branch inside it.
+ */
+function midpoints(
   v: Float64Array,
-  base: number,
-  step: number,
+  b: number,
+  sb: number,
+  si: number,
+  out: Float64Array,
+  o: number,
+  so: number,
   m: number,
   count: number,
-): number {
-  const p = base + m * step;
-  if (count < 3) return 0.5 * (v[p] + v[p + step]);
-  if (m === 0) {
-    return 0.0625 * (5 * v[p] + 15 * v[p + step] - 5 * v[p + 2 * step] + v[p + 3 * step]);
+  len: number,
+): void {
+  const p = b + m * sb;
+  if (count < 3) {
+    for (let i = 0, q = p, k = o; i < len; i++, q += si, k += so) {
+      out[k] = 0.5 * (v[q] + v[q + sb]);
+    }
+  } else if (m === 0) {
+    for (let i = 0, q = p, k = o; i < len; i++, q += si, k += so) {
+      out[k] = 0.0625 * (5 * v[q] + 15 * v[q + sb] - 5 * v[q + 2 * sb] + v[q + 3 * sb]);
+    }
+  } else if (m === count - 1) {
+    for (let i = 0, q = p, k = o; i < len; i++, q += si, k += so) {
+      out[k] = 0.0625 * (5 * v[q + sb] + 15 * v[q] - 5 * v[q - sb] + v[q - 2 * sb]);
+    }
+  } else {
+    for (let i = 0, q = p, k = o; i < len; i++, q += si, k += so) {
+      out[k] = 0.0625 * (9 * (v[q] + v[q + sb]) - v[q - sb] - v[q + 2 * sb]);
+    }
   }
-  if (m === count - 1) {
-    return 0.0625 * (5 * v[p + step] + 15 * v[p] - 5 * v[p - step] + v[p - 2 * step]);
-  }
-  return 0.0625 * (9 * (v[p] + v[p + step]) - v[p - step] - v[p + 2 * step]);
 }
 
 /**
@@ -63,21 +81,26 @@ export function interpolateCubic(
   for (let J = 0; J <= cny; J++) {
     const cb = (J + 1) * cs + 1, fb = (cy * J + 1) * fs + 1;
     if (cx === 1) {
-      for (let I = 0; I <= cnx; I++) fine[fb + I] = coarse[cb + I];
+      fine.set(coarse.subarray(cb, cb + cnx + 1), fb);
       continue;
     }
-    for (let I = 0; I < cnx; I++) {
-      fine[fb + 2 * I] = coarse[cb + I];
-      fine[fb + 2 * I + 1] = midpoint(coarse, cb, 1, I, cnx);
+    for (let I = 0; I <= cnx; I++) fine[fb + 2 * I] = coarse[cb + I];
+    // Midpoints along x: the one-sided formulas at I = 0 and cnx − 1, the interior one between.
+    if (cnx < 3) midpoints(coarse, cb, 1, 1, fine, fb + 1, 2, 0, cnx, cnx);
+    else {
+      midpoints(coarse, cb, 1, 1, fine, fb + 1, 2, 0, cnx, 1);
+      for (let I = 1; I < cnx - 1; I++) {
+        const q = cb + I;
+        fine[fb + 2 * I + 1] = 0.0625 *
+          (9 * (coarse[q] + coarse[q + 1]) - coarse[q - 1] - coarse[q + 2]);
+      }
+      midpoints(coarse, cb, 1, 1, fine, fb + 2 * cnx - 1, 2, cnx - 1, cnx, 1);
     }
-    fine[fb + 2 * cnx] = coarse[cb + cnx];
   }
   if (cy === 1) return;
-  const fnx = cx * cnx;
+  // Midpoints along y: whole fine rows at once from the coinciding rows 2J (stride 2·fs).
+  const len = cx * cnx + 1;
   for (let J = 0; J < cny; J++) {
-    const fb = (2 * J + 2) * fs + 1;
-    for (let i = 0; i <= fnx; i++) {
-      fine[fb + i] = midpoint(fine, fs + 1 + i, 2 * fs, J, cny);
-    }
+    midpoints(fine, fs + 1, 2 * fs, 1, fine, (2 * J + 2) * fs + 1, 1, J, cny, len);
   }
 }

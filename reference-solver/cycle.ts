@@ -7,6 +7,7 @@
 import type { Hierarchy } from "./hierarchy.ts";
 import type { CycleName } from "./options.ts";
 import { removeMean, residual } from "./_kernels.ts";
+import { correctAndSweep } from "./_kernels_pipelined.ts";
 
 /** Sweeps before and after the coarse-grid correction, and FMG settings. */
 export interface CycleParams {
@@ -24,9 +25,12 @@ export interface CycleParams {
  * Coarse-grid correction on level l for levels[l].u, levels[l].f: relax ν1 times, restrict the
  * residual, solve the error equation on level l + 1 with `solveCoarse` (exactly on the coarsest),
  * interpolate and correct, relax ν2 times. On a singular level the restricted residual has its
- * mean removed first (compatibility with the constant null space). After red–black pre-smoothing
- * on a five-point level (`Level.redBlack`) the residual is restricted fused, from its red nodes
- * only (the black ones are zero), and never stored. Every cycle is this one function with a
+ * mean removed first (compatibility with the constant null space). On a five-point red–black level
+ * (`Level.redBlack`) the pre-smoothing sweeps and the restriction of the residual run in one pass
+ * (`sweepAndRestrict`): the residual is restricted from its red nodes only (the black ones are
+ * zero after the sweep) and never stored; after the coarse solve the correction is added
+ * at the black nodes only, fused into the first post-smoothing pass (`correctAndSweep`: the red
+ * nodes are overwritten by the sweep without being read). Every cycle is this one function with a
  * different coarse solve.
  */
 function correct(
@@ -41,9 +45,10 @@ function correct(
     return;
   }
   const Lc = h.levels[l + 1];
-  L.smoother!.smooth(L.u, L.f, params.pre);
-  if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f);
+  // Level.redBlack: the pre-smoothing sweeps and the restriction in one pass over memory.
+  if (L.redBlack && params.pre > 0) L.transfer!.restrictResidual!(L.op, L.u, L.f, Lc.f, params.pre);
   else {
+    L.smoother!.smooth(L.u, L.f, params.pre);
     if (L.r.length !== L.op.length) L.r = L.op.vector();
     residual(L.op, L.u, L.f, L.r);
     if (L.op.singular) removeMean(L.op, L.r);
@@ -51,8 +56,12 @@ function correct(
   }
   Lc.u.fill(0);
   solveCoarse(l + 1);
-  L.transfer!.interpolateAdd(Lc.u, L.u);
-  L.smoother!.smooth(L.u, L.f, params.post);
+  // Level.redBlack: five-point red–black level, bilinear transfer coarsened both ways.
+  if (L.redBlack && params.post > 0) correctAndSweep(L.op, Lc.u, L.u, L.f, params.post);
+  else {
+    L.transfer!.interpolateAdd(Lc.u, L.u);
+    L.smoother!.smooth(L.u, L.f, params.post);
+  }
 }
 
 /**
@@ -90,11 +99,20 @@ function oneCycle(h: Hierarchy, l: number, type: "V" | "W" | "F", params: CycleP
  * offers it; otherwise the transfer's own interpolation, e.g. operator-dependent), run `fmgCyclesPerLevel` cycles of
  * `fmgCycle` there, and so on up to the finest, whose result is left in levels[0].u. Coarse
  * levels take their own `rhs`; the finest level uses levels[0].f as the caller left it.
+ *
+ * @throws {RangeError} For a hierarchy built for another cycle (its coarse levels share rhs and f).
  */
 export function fullMultigrid(h: Hierarchy, params: CycleParams): void {
   const levels = h.levels;
   const last = levels.length - 1;
   const type = params.fmgCycle ?? "V", times = params.fmgCyclesPerLevel ?? 1;
+  for (let l = 1; l <= last; l++) {
+    if (levels[l].f === levels[l].rhs) {
+      throw new RangeError(
+        'Cannot run full multigrid on this hierarchy: its coarse levels keep no right-hand side of their own; build it with cycle.type "fmg"',
+      );
+    }
+  }
   const C = levels[last];
   if (last > 0) C.f.set(C.rhs);
   C.direct!.solve(C.u, C.f);

@@ -50,7 +50,9 @@ export interface Level {
    * Right-hand side of this level's own problem, used by full multigrid: rediscretized levels take
    * their injected f and boundary data; a Galerkin level takes R·(rhs − A·g) of the level above
    * (g its Dirichlet values, so the boundary data enter the coarse rows) and the injected
-   * Dirichlet values in its Dirichlet rows.
+   * Dirichlet values in its Dirichlet rows. On the coarse levels of a hierarchy built for any
+   * cycle but `fmg` it is the same array as `f` (no full multigrid will read it, and f is
+   * overwritten by every restriction); `fullMultigrid` refuses such a hierarchy.
    */
   rhs: Float64Array;
   /** Iterate on the finest level, error of the coarse-grid equation on coarser ones. */
@@ -75,7 +77,9 @@ export interface Level {
    * True when the level's smoother is red–black on a five-point, non-singular level and its
    * transfer restricts the residual fused (`Transfer.restrictResidual`): after any red–black sweep
    * the black residuals are zero, so the cycle restricts without storing the residual and the
-   * stop test measures the red residuals only.
+   * stop test measures the red residuals only. Such a transfer is always the bilinear one of
+   * `transfer.ts` coarsened both ways, so the cycle also adds the correction fused into the first
+   * post-smoothing sweep (`correctAndSweep`).
    */
   redBlack?: boolean;
 }
@@ -294,6 +298,7 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
   const restriction = options.transfer.restriction;
   const interpolation = interpolationFor(problem, coarseOperator, options.transfer.interpolation);
   let p = problem;
+  const keepCoarseRhs = options.cycle.type === "fmg";
   for (let depth = 0;; depth++) {
     let op: LevelOperator, rhs: Float64Array;
     const above = levels[depth - 1];
@@ -319,7 +324,9 @@ export function buildHierarchy(problem: Problem, options: ResolvedSolveOptions):
       op,
       rhs,
       u: op.vector(),
-      f: depth === 0 ? rhs : op.vector(),
+      // Only full multigrid reads a coarse level's own rhs; other cycles overwrite f by every
+      // restriction, so it may take the rhs array (memory, issue 16).
+      f: depth === 0 || !keepCoarseRhs ? rhs : op.vector(),
       r: new Float64Array(0), // allocated below where the cycle stores a residual
       coarsening,
     };

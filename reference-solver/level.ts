@@ -139,3 +139,33 @@ export function levelLayout(nx: number, ny: number): Pick<
     },
   };
 }
+
+/**
+ * Moves the node values of a padded vector to its front, in place, and returns them as a view of
+ * (nx + 1)(ny + 1) values in the public layout (x fastest, no halo) on the same buffer: the result
+ * of `unpad` without a new array, for a padded vector that is not needed any more (the solution
+ * of a finished solve). Each row moves to a lower or equal index, so copying rows in order never
+ * overwrites a value not yet moved.
+ *
+ * @param op Grid counts and stride of the vector's level.
+ * @param padded The padded vector; its contents are destroyed.
+ * @returns A view on `padded.buffer` holding the node values.
+ *
+ * @example
+ * ```ts
+ * import { levelLayout, unpadInPlace } from "./level.ts";
+ * const l = levelLayout(2, 1), v = l.pad(Float64Array.of(1, 2, 3, 4, 5, 6));
+ * if (unpadInPlace(l, v).join() !== "1,2,3,4,5,6") throw new Error("unpad");
+ * ```
+ */
+export function unpadInPlace(
+  op: Pick<LevelOperator, "nx" | "ny" | "stride">,
+  padded: Float64Array,
+): Float64Array {
+  const { nx, ny, stride } = op;
+  for (let j = 0; j <= ny; j++) {
+    const base = (j + 1) * stride + 1;
+    padded.copyWithin(j * (nx + 1), base, base + nx + 1);
+  }
+  return padded.subarray(0, (nx + 1) * (ny + 1));
+}

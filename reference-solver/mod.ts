@@ -47,6 +47,8 @@
  * - `CYCLES`, `cycle(h, level, gamma, params)` (V: γ = 1, W: γ = 2), `fCycle`, `fullMultigrid`
  *   on a `Hierarchy` from `buildHierarchy(problem, resolveOptions(options))`; level 0 is the finest.
  * - `createDirectSolver(level)` (banded LU of a level, factorized once) and `bandedLU`.
+ * - `workUnits(h, kind, params)`: a cycle's or an FMG pass's work units counted from the kernels'
+ *   floating-point operations (one WU = one finest-grid sweep).
  * - A two-grid method with an exact coarse solve: `solve(p, { coarse: { maxLevels: 2 } })`.
  *
  * @example
@@ -150,3 +152,4 @@ export {
   fCycle,
   fullMultigrid,
 } from "./cycle.ts";
+export { type CountedCycle, workUnits } from "./work_units.ts";

@@ -14,6 +14,7 @@ import {
   lineYSweep,
   redBlackSweep,
 } from "./_kernels.ts";
+import { redBlackSweeps } from "./_kernels_pipelined.ts";
 
 /** A smoother bound to one level. */
 export interface Smoother {
@@ -67,6 +68,8 @@ export const SMOOTHERS = {
   }),
   "red-black": (level) => ({
     smooth(u, f, sweeps) {
+      // Five-point: all sweeps in one pass over memory (`_kernels_pipelined.ts`, same result).
+      if (!isNinePoint(level)) return redBlackSweeps(level, u, f, sweeps);
       for (let s = 0; s < sweeps; s++) redBlackSweep(level, u, f);
     },
     describe: () =>

@@ -12,6 +12,7 @@ import { isStretched } from "./validate_stretched.ts";
 import { solveStretched } from "./stretched_solve.ts";
 import { type ResolvedSolveOptions, resolveOptions } from "./resolve_options.ts";
 import { buildHierarchy, type Hierarchy } from "./hierarchy.ts";
+import { unpadInPlace } from "./level.ts";
 import { type CycleParams, CYCLES } from "./cycle.ts";
 import {
   addToNodes,
@@ -185,7 +186,8 @@ export function solve(problem: Problem, options?: SolveOptions): SolveResult {
   }
   const seconds = (performance.now() - t0) / 1000;
   const result: SolveResult = {
-    solution: op.unpad(u),
+    // Memory (issue 16): the finished iterate becomes the solution in place, no new array.
+    solution: unpadInPlace(op, u),
     converged: reason === "converged",
     reason,
     cycles,

@@ -28,6 +28,7 @@ import type { LevelOperator } from "./level.ts";
 import type { RestrictionName } from "./options.ts";
 import { interpolateAddBoth, restrictRedResidual } from "./_kernels.ts";
 import { interpolateCubic } from "./cubic_interpolation.ts";
+import { sweepAndRestrict } from "./_kernels_pipelined.ts";
 
 /** A transfer pair between a fine level and its coarse level. */
 export interface Transfer {
@@ -46,13 +47,15 @@ export interface Transfer {
    * coarse ← R·(f − A·u) for a five-point fine level whose black residuals are zero (right after a
    * red–black sweep), without storing the fine residual (`restrictRedResidual` in `_kernels.ts`).
    * Present only where that is the same restriction: full weighting with grid scaling, both
-   * directions coarsened.
+   * directions coarsened. With `sweeps` ≥ 1, first relaxes u by that many red–black sweeps fused
+   * into the same pass over memory (`sweepAndRestrict`; same result as sweeping first).
    */
   restrictResidual?(
     op: LevelOperator,
     u: Float64Array,
     f: Float64Array,
     coarse: Float64Array,
+    sweeps?: number,
   ): void;
   /** Plain JSON record. */
   describe(): Record<string, unknown>;
@@ -264,8 +267,15 @@ export function createTransfer(
   return {
     ...(fused
       ? {
-        restrictResidual(op: LevelOperator, u: Float64Array, f: Float64Array, out: Float64Array) {
-          restrictRedResidual(op, u, f, out, cs, rowA, rowB);
+        restrictResidual(
+          op: LevelOperator,
+          u: Float64Array,
+          f: Float64Array,
+          out: Float64Array,
+          sweeps = 0,
+        ) {
+          if (sweeps > 0) sweepAndRestrict(op, u, f, sweeps, out, cs, rowA, rowB);
+          else restrictRedResidual(op, u, f, out, cs, rowA, rowB);
           boundaryRows(out);
         },
       }
