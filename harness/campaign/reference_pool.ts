@@ -85,7 +85,8 @@ export function createPooledReferenceSolver(
     scheme: "central",
     // multigrid: h-independent convergence, held to flat iteration counts
     iterationGrowth: 0,
-    description: { solveOptions: structuredClone(options.solveOptions ?? {}), workers: count },
+    // the worker count stays out: a result must not depend on --jobs
+    description: { solveOptions: structuredClone(options.solveOptions ?? {}) },
   };
   const idle: Worker[] = [];
   const all: Worker[] = [];

@@ -12,6 +12,7 @@ import type { JobNote, Solver } from "../solvers/mod.ts";
 import { type JournaledSolve, JournalWriter, solveInputs, solveKey } from "./journal.ts";
 import { measureOutcome, relativeDifference } from "./measure.ts";
 import type { MeasuringSolver } from "./reference_pool.ts";
+import { SolveQueue } from "./schedule.ts";
 import { errorMap, vertexWeights, withoutMean } from "../analysis/mod.ts";
 
 /** One planned solve. */
@@ -132,11 +133,16 @@ export async function runSolves(
     }
   });
 
-  // Smallest grids first: every worker's first solves are cheap, so its JIT warm-up does not
-  // land on (and distort the timing of) a large solve.
-  const order = plan.map((_, k) => k).filter((k) => records[k] === undefined)
-    .sort((p, q) => plan[p].nx * plan[p].ny - plan[q].nx * plan[q].ny || p - q);
-  let cursor = 0;
+  // Smallest grids first, so every worker's JIT warm-up lands on a cheap solve; then the longest
+  // predicted solve first, so the campaign's most expensive one does not start last (schedule.ts)
+  const studyOf = (p: PlannedSolve) => `${p.kase.id}\u0000${p.solver.info.name}`;
+  const queue = new SolveQueue(
+    plan.map((p) => ({ study: studyOf(p), unknowns: p.nx * p.ny })),
+    { jobs, pending: plan.map((_, k) => k).filter((k) => records[k] === undefined) },
+  );
+  records.forEach((r, k) => {
+    if (r) queue.finished({ ...queue.solves[k], seconds: r.seconds });
+  });
 
   const compareKey = (p: PlannedSolve) => `${p.kase.id}\u0000${p.nx}\u0000${p.ny}`;
   const settleDifference = (index: number, values: Float64Array, reference: Float64Array) => {
@@ -158,8 +164,8 @@ export async function runSolves(
   };
 
   async function worker(): Promise<void> {
-    while (cursor < order.length && !options.signal?.aborted) {
-      const index = order[cursor++];
+    while (queue.size > 0 && !options.signal?.aborted) {
+      const index = queue.next()!;
       const p = plan[index];
       const key = solveKey({ caseId: p.kase.id, solver: p.solver.info.name, nx: p.nx, ny: p.ny });
       const earlierJob = options.submitted?.get(key);
@@ -191,6 +197,7 @@ export async function runSolves(
       if (options.signal?.aborted) return;
       const record = measured ?? measureOutcome(p.kase, p.solver.info.name, outcome, tolerance);
       records[index] = record;
+      queue.finished({ ...queue.solves[index], seconds: record.seconds });
       if (outcome.status === "ok" && outcome.layout === "vertex") {
         const key = compareKey(p);
         if (p.solver.info.kind === "reference") {
@@ -215,6 +222,6 @@ export async function runSolves(
     }
   }
 
-  await Promise.all(Array.from({ length: Math.min(jobs, Math.max(order.length, 1)) }, worker));
+  await Promise.all(Array.from({ length: Math.min(jobs, Math.max(queue.size, 1)) }, worker));
   return records.filter((r): r is SolveRecord => r !== undefined);
 }

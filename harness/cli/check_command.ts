@@ -38,7 +38,13 @@ import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
 import { solverBuild } from "./solver_build.ts";
 import { findChromium } from "./pdf.ts";
-import { escapeTerminal, foundLines, rendererFor, wrapWords } from "../report/mod.ts";
+import {
+  escapeTerminal,
+  foundLines,
+  loadHtmlRenderer,
+  rendererFor,
+  wrapWords,
+} from "../report/mod.ts";
 import {
   environmentRecord,
   outputWidth,
@@ -226,7 +232,8 @@ export async function selectSolvers(
   const all: Solver[] = [reference];
   const specs = flags.solvers === undefined ? [] : await loadSolverFile(flags.solvers);
   for (const spec of specs) {
-    all.push(createSolver(spec, { solverFileDir: spec.solverFileDir }));
+    // one session process per job, so overlapping solves of one solver do not wait in turn
+    all.push(createSolver(spec, { solverFileDir: spec.solverFileDir, sessions: jobs }));
   }
   let chosen = all;
   if (flags.solver !== undefined) {
@@ -413,6 +420,8 @@ export async function runCheck(flags: CheckFlags): Promise<CampaignResult> {
   const onTerminate = onSignal(143);
   Deno.addSignalListener("SIGINT", onInterrupt);
   Deno.addSignalListener("SIGTERM", onTerminate);
+  // the HTML renderer loads while the solves run, not after them (a failure shows when it renders)
+  if (formats.some((f) => f === "html" || f === "pdf")) loadHtmlRenderer().catch(() => {});
   let result: CampaignResult;
   try {
     result = await runCampaign(cases, solvers, {

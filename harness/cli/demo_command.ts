@@ -17,7 +17,7 @@ import type { CampaignResult } from "../result/mod.ts";
 import { createExternalSolver, loadSolverFile, type Solver } from "../solvers/mod.ts";
 import type { SetExitCode } from "./exit.ts";
 import { writeReport } from "./report_command.ts";
-import { foundLines, wrapWords } from "../report/mod.ts";
+import { foundLines, loadHtmlRenderer, wrapWords } from "../report/mod.ts";
 import { solverBuild } from "./solver_build.ts";
 import {
   environmentRecord,
@@ -149,11 +149,15 @@ async function runDemo(out: string, jobs: number): Promise<boolean> {
   const specs = await loadSolverFile(fileURLToPath(SOLVER_FILE));
   const solvers: Solver[] = [
     createPooledReferenceSolver({ workers: jobs }),
-    ...specs.map((spec) => createExternalSolver(spec, { solverFileDir: spec.solverFileDir })),
+    ...specs.map((spec) =>
+      createExternalSolver(spec, { solverFileDir: spec.solverFileDir, sessions: jobs })
+    ),
   ];
   for (const [k, spec] of specs.entries()) {
     solvers[k + 1].info.build = await solverBuild(spec, fileURLToPath(SOLVER_FILE));
   }
+  // the HTML renderer loads while the solves run, not after them (a failure shows when it renders)
+  loadHtmlRenderer().catch(() => {});
   let result: CampaignResult;
   try {
     result = await runCampaign(cases, solvers, {

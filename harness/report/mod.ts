@@ -24,7 +24,7 @@ export { renderText, type TextOptions } from "./text.ts";
 export { CSV_COLUMNS, renderCsv } from "./csv.ts";
 export { renderJunit } from "./junit.ts";
 export { renderMarkdown } from "./markdown.ts";
-export { renderHtml } from "./html.ts";
+export { loadHtmlRenderer, renderHtml } from "./html_on_demand.ts";
 export {
   type Renderer,
   rendererFor,

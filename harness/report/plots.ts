@@ -4,8 +4,9 @@
  *
  * @module
  */
-import * as vega from "vega";
-import * as vl from "vega-lite";
+// Vega and Vega-Lite take about 0.3 s to load: loaded on the first plot drawn, so that every
+// command that draws none (check without an HTML report, the other formats) starts without them
+import type * as vl from "vega-lite";
 import type { CampaignResult, NormSet } from "../result/mod.ts";
 import { caseIds, pairs, solvesOf } from "./_shared.ts";
 
@@ -500,7 +501,8 @@ export async function renderSvg(spec: vl.TopLevelSpec, idPrefix: string): Promis
   const problems: string[] = [];
   // deno-lint-ignore no-explicit-any
   const logger = quietLogger(problems) as any;
-  const compiled = vl.compile(spec, { logger }).spec;
+  const [vega, vegaLite] = await Promise.all([import("vega"), import("vega-lite")]);
+  const compiled = vegaLite.compile(spec, { logger }).spec;
   const view = new vega.View(vega.parse(compiled), { renderer: "none", logger });
   try {
     const svg = await view.toSVG();

@@ -6,7 +6,7 @@
  */
 import type { CampaignResult } from "../result/mod.ts";
 import { renderCsv } from "./csv.ts";
-import { renderHtml } from "./html.ts";
+import { renderHtml } from "./html_on_demand.ts";
 import { renderJunit } from "./junit.ts";
 import { renderMarkdown } from "./markdown.ts";
 import { renderText } from "./text.ts";

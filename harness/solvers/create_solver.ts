@@ -12,7 +12,8 @@ import type { ExternalSolverSpec, Solver } from "./types.ts";
  * Makes the solver of one solver-file entry.
  *
  * @param spec the entry, defaults filled in (see `loadSolverFile`)
- * @param options the solver file's folder, where relative paths start
+ * @param options the solver file's folder, where relative paths start; `sessions`: session
+ *   processes that may run at once (default 1, see `ExternalSolverOptions`)
  * @returns the solver; call `close()` when done
  *
  * @example
@@ -22,8 +23,13 @@ import type { ExternalSolverSpec, Solver } from "./types.ts";
  *   .map((s) => createSolver(s, { solverFileDir: s.solverFileDir }));
  * ```
  */
-export function createSolver(spec: ExternalSolverSpec, options: { solverFileDir: string }): Solver {
-  return spec.batch ? createBatchSolver(spec, options) : createExternalSolver(spec, options);
+export function createSolver(
+  spec: ExternalSolverSpec,
+  options: { solverFileDir: string; sessions?: number },
+): Solver {
+  return spec.batch
+    ? createBatchSolver(spec, { solverFileDir: options.solverFileDir })
+    : createExternalSolver(spec, options);
 }
 
 /**

@@ -31,6 +31,11 @@ const GOODBYE_GRACE_MS = 2000;
 export interface ExternalSolverOptions {
   /** Folder of the solver file: relative command paths and `cwd` are taken from it. */
   solverFileDir: string;
+  /**
+   * Session processes that may run at once (`session` mode): each answers one request at a time;
+   * a second is started only when solves overlap (a campaign with `jobs` > 1). Default: 1.
+   */
+  sessions?: number;
 }
 
 /**
@@ -54,8 +59,9 @@ export function createExternalSolver(
 ): Solver {
   const baseDir = resolve(options.solverFileDir);
   const runner = new Runner(spec, baseDir);
-  const session = spec.mode === "session" ? new Session(runner) : undefined;
-  let queue: Promise<unknown> = Promise.resolve();
+  const sessions = spec.mode === "session"
+    ? new SessionPool(runner, Math.max(1, Math.floor(options.sessions ?? 1)))
+    : undefined;
   let counter = 0;
   return {
     info: {
@@ -74,7 +80,7 @@ export function createExternalSolver(
     solve(task: SolveTask): Promise<SolveOutcome> {
       counter++;
       const id = `${task.case.id}/${task.nx}x${task.ny}/${counter}`;
-      const work = async (): Promise<SolveOutcome> => {
+      const work = async (session?: Session): Promise<SolveOutcome> => {
         if (session) {
           // the request's form depends on what the session declared, so start it first
           const refusal = runner.applicability(task, session.capabilities);
@@ -86,15 +92,12 @@ export function createExternalSolver(
         if ("status" in prepared) return prepared;
         return session ? await session.solve(prepared) : await runner.runOnce(prepared);
       };
-      if (!session) return guard(work, task, spec);
-      // a session answers one request at a time
-      const result = queue.then(() => guard(work, task, spec));
-      queue = result;
-      return result;
+      if (!sessions) return guard(() => work(), task, spec);
+      // a session answers one request at a time: the solve waits for an idle one
+      return sessions.use((session) => guard(() => work(session), task, spec));
     },
     async close(): Promise<void> {
-      await queue;
-      await session?.close();
+      await sessions?.close();
     },
     stop(): Promise<void> {
       return runner.endAll();
@@ -322,6 +325,53 @@ class Runner {
     description: Record<string, unknown>,
   ): SolveOutcome {
     return judgeReply(this.spec, text, p, extra, description);
+  }
+}
+
+/**
+ * Up to `most` sessions of one solver, each answering one request at a time. A request takes an
+ * idle session that already runs, else starts one while fewer than `most` exist, else waits in
+ * arrival order. With `most` = 1 this is the single session of a solver, requests in turn.
+ */
+class SessionPool {
+  readonly #idle: Session[] = [];
+  readonly #all: Session[] = [];
+  readonly #waiting: ((s: Session) => void)[] = [];
+  /** Requests taken and not yet answered (running or waiting), and who waits for none. */
+  #open = 0;
+  #drained: (() => void)[] = [];
+
+  constructor(readonly runner: Runner, readonly most: number) {}
+
+  /** Runs `work` on a session of its own for as long as it takes. */
+  async use<T>(work: (session: Session) => Promise<T>): Promise<T> {
+    this.#open++;
+    try {
+      const session = this.#idle.pop() ?? this.#fresh() ??
+        await new Promise<Session>((resolve) => this.#waiting.push(resolve));
+      try {
+        return await work(session);
+      } finally {
+        const next = this.#waiting.shift();
+        if (next) next(session);
+        else this.#idle.push(session);
+      }
+    } finally {
+      if (--this.#open === 0) { for (const wake of this.#drained.splice(0)) wake(); }
+    }
+  }
+
+  #fresh(): Session | undefined {
+    if (this.#all.length >= this.most) return undefined;
+    const session = new Session(this.runner);
+    this.#all.push(session);
+    return session;
+  }
+
+  /** Waits for the requests taken so far, then ends every session. */
+  async close(): Promise<void> {
+    if (this.#open > 0) await new Promise<void>((resolve) => this.#drained.push(resolve));
+    await Promise.all(this.#all.map((s) => s.close()));
   }
 }
 

@@ -171,3 +171,28 @@ Deno.test("constant coefficients go as one number only to solvers that read that
     assert.equal(await constantsIn(solver), "c,d,e");
   });
 });
+
+Deno.test("with sessions: 2, overlapping solves run in two processes and later ones reuse them", async () => {
+  const solver = createExternalSolver(
+    misbehaveSpec(["session"], { name: "misbehave-sessions", mode: "session", encoding: "base64" }),
+    { solverFileDir: MISBEHAVE_DIR, sessions: 2 },
+  );
+  try {
+    const [a, b] = await Promise.all([solver.solve(task(4)), solver.solve(task(8))]);
+    assert.equal(a.status, "ok", a.reason);
+    assert.equal(b.status, "ok", b.reason);
+    // the exact answer of misbehave.py: the sampled source, whichever process answered
+    assert.deepEqual(a.values, sampleCase(testCase(), 4, 8, "vertex").source);
+    assert.deepEqual(b.values, sampleCase(testCase(), 8, 16, "vertex").source);
+    assert.notEqual(sessionPid(a), sessionPid(b), "two processes answered");
+    assert.equal(a.iterations, 1, "each was its process's first request");
+    assert.equal(b.iterations, 1);
+    const [c, d, e] = await Promise.all([2, 4, 2].map((n) => solver.solve(task(n))));
+    const pids = new Set([a, b, c, d, e].map(sessionPid));
+    assert.equal(pids.size, 2, "no third process was started");
+    // three requests on two processes: the counts of the second round are 2, 2 and 3
+    assert.deepEqual([c, d, e].map((o) => o.iterations).sort(), [2, 2, 3]);
+  } finally {
+    await solver.close();
+  }
+});
