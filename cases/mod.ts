@@ -8,7 +8,7 @@
  * import { loadCase } from "./mod.ts";
  * const c = await loadCase("smooth-baseline");
  * const { nx, ny } = c.gridFor(32);
- * const problem = c.sample(nx, ny); // a Problem for the reference solver
+ * const problem = c.sample(nx, ny); // a SampledProblem (problem/) for the reference solver
  * const exact = c.sampleExact(nx, ny);
  * ```
  *

@@ -5,7 +5,8 @@
  *
  * @module
  */
-import type { BoundaryKind, Domain, Problem, Side } from "../reference-solver/mod.ts";
+import type { BoundaryKind, Domain, Side } from "../reference-solver/mod.ts";
+import type { SampledProblem } from "../problem/mod.ts";
 import type { CaseFile } from "./case_file.ts";
 import type { OperatorForm } from "./operator.ts";
 import type { Expr } from "./expression.ts";
@@ -219,7 +220,7 @@ export interface CompiledCase {
    * finiteness. For the conservative form the problem carries `conductivity` (K at the edge
    * midpoints), b, d, e are β and σ, and a, c, m are k11, k22, 2k12 at the nodes.
    */
-  sample(nx: number, ny: number): Problem;
+  sample(nx: number, ny: number): SampledProblem;
   /** How the case follows the manufactured-solution guidance (the case file's `manufactured`). */
   manufactured: string;
   /**
@@ -252,5 +253,5 @@ export interface CompiledCase {
     nx: number,
     ny: number,
     options?: { threads?: number; minNodes?: number },
-  ): Promise<Problem>;
+  ): Promise<SampledProblem>;
 }

@@ -26,7 +26,6 @@ import {
   PROTOCOL_VERSIONS,
   type ProtocolVersion,
   readSolveRequest,
-  type SampledProblem,
   solutionReplyBytes,
 } from "../harness/protocol/mod.ts";
 import { type Problem, solve } from "./mod.ts";
@@ -76,44 +75,6 @@ async function send(line: MessageBytes): Promise<void> {
     previous = current;
   }
   await previous;
-}
-
-/** The reference Problem of a vertex-layout request: u_xy and K at the edge midpoints included. */
-function toProblem(p: SampledProblem): Problem {
-  const c = p.coefficients;
-  const problem: Problem = {
-    domain: p.domain,
-    nx: p.nx,
-    ny: p.ny,
-    a: c.a,
-    b: c.b,
-    c: c.c,
-    d: c.d,
-    e: c.e,
-    f: p.source,
-    boundary: {
-      west: { ...p.boundary.west } as Problem["boundary"]["west"],
-      east: { ...p.boundary.east } as Problem["boundary"]["east"],
-      south: { ...p.boundary.south } as Problem["boundary"]["south"],
-      north: { ...p.boundary.north } as Problem["boundary"]["north"],
-    },
-  };
-  const k = p.conservative;
-  if (p.form === "conservative" && k) {
-    const tensor = k.k12.some((v) => v !== 0) || k.faces.x.k12.some((v) => v !== 0) ||
-      k.faces.y.k12.some((v) => v !== 0);
-    problem.conductivity = {
-      alongX: { k11: k.faces.x.k11, ...(tensor ? { k12: k.faces.x.k12 } : {}) },
-      alongY: { k22: k.faces.y.k22, ...(tensor ? { k12: k.faces.y.k12 } : {}) },
-    };
-    // as the case's own sample: m = 2·k12 at the nodes (the conservative rows do not use it)
-    if (tensor) problem.m = k.k12.map((v) => 2 * v);
-  } else if (p.m && p.m.some((v) => v !== 0)) {
-    problem.m = p.m;
-  }
-  // a stretched grid: the request's node coordinates (protocol 2, grid.x and grid.y)
-  if (p.lines) problem.coordinates = { x: p.lines.x, y: p.lines.y };
-  return problem;
 }
 
 /** The version of a line's message when it is one this program speaks, else version 1. */
@@ -217,11 +178,11 @@ function answer(text: Line, forced: ArrayEncoding | undefined): MessageBytes {
     });
   }
   try {
-    const discrete = toProblem(problem);
+    // the read request is the solver's problem as it stands (one type, problem/)
     const c = message.coefficients;
     const uniform = c !== undefined && isConstantForm(c.a) && isConstantForm(c.c);
-    const result = solve(discrete, {
-      smoother: { name: smootherFor(discrete, { uniform }) },
+    const result = solve(problem, {
+      smoother: { name: smootherFor(problem, { uniform }) },
       scheme: { upwind: message.scheme === "upwind" },
       stop: { tolerance: message.tolerance },
       // the request says the solution is fixed up to a constant: fix it by a zero mean

@@ -3,6 +3,7 @@
  *
  * @module
  */
+import { formOf } from "../problem/mod.ts";
 import { type BoundaryCondition, type Problem, type Side, SIDES } from "./problem.ts";
 import { validateForms } from "./validate_forms.ts";
 import { validatePeriodic } from "./validate_stretched.ts";
@@ -96,7 +97,8 @@ function where(problem: Problem, i: number, j: number): string {
 }
 
 /**
- * Validates a problem: grid counts, domain, array types and lengths, finite values, ellipticity
+ * Validates a problem: the layout (vertex only) and a stated form (agreeing with the
+ * conductivity), grid counts, domain, array types and lengths, finite values, ellipticity
  * (a·c > 0 at every node, unless a conductivity replaces a and c), boundary conditions, the mixed
  * coefficient m and the conductivity (see `validate_forms.ts`: 4ac − m² > 0, K positive
  * definite, m = 0 at corners between two Neumann/Robin sides), and singularity.
@@ -122,6 +124,14 @@ export function validateProblem(
   options: { singular?: "refuse" | "mean-zero" } = {},
 ): boolean {
   const { nx, ny, domain } = problem;
+  if (problem.layout !== undefined && problem.layout !== "vertex") {
+    throw new RangeError(
+      `Invalid problem.layout: the reference solver is vertex-centred and solves the "vertex" ` +
+        `layout only, got ${JSON.stringify(problem.layout)}; sample the problem at the nodes ` +
+        `(layout "vertex") or use a cell-centred solver`,
+    );
+  }
+  formOf(problem);
   for (const [name, n] of [["nx", nx], ["ny", ny]] as const) {
     if (!Number.isInteger(n) || n < 2) {
       throw new RangeError(

@@ -16,6 +16,16 @@ function refuses(problem: Problem, pattern: RegExp, options: { singular?: "refus
 Deno.test("validateProblem() names the field, node, coordinates and value of bad input", async (t) => {
   await t.step("too few intervals", () => refuses({ ...base(), nx: 1 }, /problem\.nx.*got 1/));
   await t.step(
+    "a cell-layout problem (the one sampled-problem type carries both layouts)",
+    () =>
+      refuses({ ...base(), layout: "cell" }, /problem\.layout: .*"vertex" layout only, got "cell"/),
+  );
+  await t.step(
+    "a stated conservative form without its conductivity",
+    () =>
+      refuses({ ...base(), form: "conservative" }, /problem\.form: .*needs problem\.conductivity/),
+  );
+  await t.step(
     "wrong array length",
     () =>
       refuses(

@@ -1,12 +1,7 @@
 import assert from "node:assert/strict";
 import { findScipyPython } from "../../testing/mod.ts";
-import {
-  type BoundaryCondition,
-  type Problem,
-  robinCondition,
-  type Side,
-  solve,
-} from "../../reference-solver/mod.ts";
+import { solve } from "../../reference-solver/mod.ts";
+import { readSolveRequest } from "../../harness/protocol/mod.ts";
 import {
   buildRequest,
   decodeValues,
@@ -22,33 +17,6 @@ const SKIP = PYTHON === undefined
   ? " — SKIPPED: no python3 with NumPy and SciPy (install python3-scipy)"
   : "";
 
-/** The request's sampled data (numbers encoding) as the reference solver's Problem. */
-function toProblem(req: Record<string, unknown>): Problem {
-  // deno-lint-ignore no-explicit-any
-  const r = req as any;
-  const arr = (v: number[]) => Float64Array.from(v);
-  const boundary = {} as Record<Side, BoundaryCondition>;
-  for (const side of ["west", "east", "south", "north"] as const) {
-    const s = r.boundary[side];
-    boundary[side] = s.kind === "robin"
-      ? robinCondition(s.alpha, s.beta, arr(s.values))
-      : { kind: s.kind, values: arr(s.values) };
-  }
-  const c = r.coefficients;
-  return {
-    domain: r.domain,
-    nx: r.grid.nx,
-    ny: r.grid.ny,
-    a: arr(c.a),
-    b: arr(c.b),
-    c: arr(c.c),
-    d: arr(c.d),
-    e: arr(c.e),
-    f: arr(r.source),
-    boundary,
-  };
-}
-
 Deno.test({
   name: `python-scipy (vertex) equals the reference multigrid solution to 1e-9 relative${SKIP}`,
   ignore: PYTHON === undefined,
@@ -59,7 +27,8 @@ Deno.test({
       for (const [mix, sides] of Object.entries(MIXES)) {
         await t.step(`${scheme}, ${mix}, 32×24`, async () => {
           const req = buildRequest(SMOOTH, sides, { nx: 32, ny: 24 }, { scheme });
-          const ref = solve(toProblem(req), {
+          // the request as the protocol reader reads it is the reference solver's problem
+          const ref = solve(readSolveRequest(JSON.stringify(req)).problem, {
             scheme: { upwind: scheme === "upwind" },
             stop: { tolerance: 1e-13, maxCycles: 200 },
           });

@@ -4,7 +4,9 @@
  * little-endian float64), building requests and reading replies with every violation reported
  * with its JSON path. Large messages are written as bytes in pieces ({@link solveRequestBytes},
  * {@link solutionReplyBytes}) and read with base64 decoded straight from the text
- * ({@link parseMessage}). A leaf module: it imports no other part of gridproof and no Deno API.
+ * ({@link parseMessage}). The decoded request is gridproof's one sampled-problem type
+ * (`problem/`); `request.ts` maps it to and from the wire. It imports no other part of gridproof
+ * than the leaf `problem/`, and no Deno API.
  *
  * @example
  * ```ts

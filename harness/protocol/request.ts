@@ -3,6 +3,20 @@
  * {@link buildSolveRequest}; a solver written in TypeScript reads them with
  * {@link readSolveRequest} and answers with {@link buildSolutionReply}.
  *
+ * The one mapping between gridproof's sampled-problem type (`problem/`) and the wire
+ * (docs/protocol.md) lives here, both ways:
+ *
+ * - `a`–`e` are `coefficients.a`–`e` (non-conservative form), `m` is `coefficients.m`
+ *   (version 2; an absent `m` goes as zeros), `f` is `source`;
+ * - the conservative form: `a`, `c` go as `conservative.k11`, `k22`, `m` as `conservative.k12`
+ *   (m = 2·k12, halved and doubled exactly; absent: zeros), `b`, `d`, `e` as `bx`, `by`, `sigma`,
+ *   `conductivity.alongX` as `conservative.faces.x`, `alongY` as `faces.y` (an absent k12 goes
+ *   as zeros);
+ * - `coordinates` are `grid.x` and `grid.y`; a periodic side carries no values.
+ *
+ * The reader leaves out an optional array that arrives as zeros everywhere (`m`; k12 at the
+ * points and faces, which go or stay together), since an absent one means zero.
+ *
  * @module
  */
 import { constantForm, decodeArray, encodeArray } from "./encoding.ts";
@@ -11,15 +25,20 @@ import { type ParsedMessage, parseMessage } from "./parse_message.ts";
 import { firstBytes, layoutPointCount } from "./reply.ts";
 import { validateMessage } from "./schemas.ts";
 import {
-  type ArrayEncoding,
-  type ExpressionTexts,
+  allZero,
+  type BoundaryCondition,
   faceCounts,
+  formOf,
+  type SampledProblem,
+} from "../../problem/mod.ts";
+import {
+  type ArrayEncoding,
+  type BoundaryKindName,
+  type ExpressionTexts,
   PROTOCOL_VERSION,
   PROTOCOL_VERSION_2,
   PROTOCOL_VERSIONS,
   type ProtocolVersion,
-  type SampledProblem,
-  type SampledSide,
   type SchemeHint,
   SIDE_NAMES,
   type SideName,
@@ -67,7 +86,7 @@ export interface RequestDetails {
  * const message = buildSolveRequest(
  *   {
  *     domain: { x0: 0, x1: 1, y0: 0, y1: 1 }, nx: 2, ny: 2, layout: "vertex",
- *     coefficients: { a: z, b: z, c: z, d: z, e: z }, source: z,
+ *     a: z, b: z, c: z, d: z, e: z, f: z,
  *     boundary: { west: side, east: side, south: side, north: side },
  *   },
  *   {
@@ -109,7 +128,7 @@ export function buildSolveRequest(
  * const line = solveRequestBytes(
  *   {
  *     domain: { x0: 0, x1: 1, y0: 0, y1: 1 }, nx: 2, ny: 2, layout: "vertex",
- *     coefficients: { a: z, b: z, c: z, d: z, e: z }, source: z,
+ *     a: z, b: z, c: z, d: z, e: z, f: z,
  *     boundary: { west: side, east: side, south: side, north: side },
  *   },
  *   {
@@ -143,21 +162,15 @@ function knownConstants(
   problem: SampledProblem,
 ): Map<Float64Array, { constant: number; length: number }> {
   const known = new Map<Float64Array, { constant: number; length: number }>();
+  if (formOf(problem) === "conservative") return known;
   for (const [name, value] of Object.entries(problem.constantCoefficients ?? {})) {
-    const v = name === "m"
-      ? problem.m
-      : problem.coefficients[name as keyof SampledProblem["coefficients"]];
-    if (v === undefined || problem.form === "conservative") continue;
+    const v = problem[name as "a" | "b" | "c" | "d" | "e" | "m"];
+    if (v === undefined) continue;
     if (v.length > 0 && v[0] === value && v[v.length - 1] === value && Number.isFinite(value)) {
       known.set(v, { constant: value, length: v.length });
     }
   }
   return known;
-}
-
-/** true when some entry of `m` is not 0 (an absent `m` is 0). */
-function hasMixedTerm(m: Float64Array | undefined): boolean {
-  return m !== undefined && m.some((v) => v !== 0);
 }
 
 /**
@@ -168,9 +181,9 @@ function hasMixedTerm(m: Float64Array | undefined): boolean {
  * @returns the reason, for a not-applicable outcome or an error
  */
 export function version1Misses(problem: SampledProblem): string | undefined {
-  if (problem.form === "conservative") return "protocol 1 has no conservative form";
-  if (problem.lines) return "protocol 1 has no stretched grids (grid coordinates)";
-  if (hasMixedTerm(problem.m)) return "protocol 1 has no mixed term (u_xy)";
+  if (formOf(problem) === "conservative") return "protocol 1 has no conservative form";
+  if (problem.coordinates) return "protocol 1 has no stretched grids (grid coordinates)";
+  if (!allZero(problem.m)) return "protocol 1 has no mixed term (u_xy)";
   for (const side of SIDE_NAMES) {
     if (problem.boundary[side].kind === "periodic") {
       return `protocol 1 has no periodic sides (${side})`;
@@ -179,7 +192,7 @@ export function version1Misses(problem: SampledProblem): string | undefined {
   for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];
     if (b.kind !== "robin") continue;
-    if (uniformWeight(b.alpha!) === undefined || uniformWeight(b.beta!) === undefined) {
+    if (uniformWeight(b.alpha) === undefined || uniformWeight(b.beta) === undefined) {
       return `protocol 1 has no Robin weights that vary along a side (${side})`;
     }
   }
@@ -205,23 +218,23 @@ function assembleRequest<A>(
   }
   const boundary = {} as Record<
     SideName,
-    { kind: SampledSide["kind"]; alpha?: number | A; beta?: number | A; values?: A }
+    { kind: BoundaryKindName; alpha?: number | A; beta?: number | A; values?: A }
   >;
   // a Robin weight that is one value along the side goes as a number (the only shape of version 1)
   const weight = (w: Float64Array) => uniformWeight(w) ?? enc(w);
   for (const side of SIDE_NAMES) {
     const b = problem.boundary[side];
     boundary[side] = b.kind === "robin"
-      ? { kind: b.kind, alpha: weight(b.alpha!), beta: weight(b.beta!), values: enc(b.values) }
+      ? { kind: b.kind, alpha: weight(b.alpha), beta: weight(b.beta), values: enc(b.values) }
       : b.kind === "periodic"
       ? { kind: b.kind }
       : { kind: b.kind, values: enc(b.values) };
   }
-  const c = problem.coefficients;
   const caseInfo: SolveRequestMessage["case"] = { id: details.caseId };
   if (details.caseTitle !== undefined) caseInfo.title = details.caseTitle;
-  const count = layoutPointCount(problem.layout, problem.nx, problem.ny);
-  const form = problem.form ?? "non-conservative";
+  const layout = problem.layout ?? "vertex";
+  const count = layoutPointCount(layout, problem.nx, problem.ny);
+  const form = formOf(problem);
   const operator: Record<string, unknown> = {};
   if (protocol === PROTOCOL_VERSION_2) {
     if (problem.singular) operator.singular = true;
@@ -231,30 +244,36 @@ function assembleRequest<A>(
       y: [...(problem.interfaces?.y ?? [])],
     };
   }
-  if (form === "conservative") {
-    const k = problem.conservative;
-    if (!k) {
-      throw new TypeError(`request ${details.id}: a conservative problem needs its conductivity`);
-    }
+  const k = problem.conductivity;
+  if (form === "conservative" && k) {
+    const faces = faceCounts(layout, problem.nx, problem.ny);
+    // m = 2·k12 at the points: halving a double is exact, so the wire's k12 is the case's own
+    const k12 = problem.m ? problem.m.map((v) => v / 2) : new Float64Array(count);
     operator.conservative = {
-      k11: enc(k.k11),
-      k12: enc(k.k12),
-      k22: enc(k.k22),
-      bx: enc(c.b),
-      by: enc(c.d),
-      sigma: enc(c.e),
+      k11: enc(problem.a),
+      k12: enc(k12),
+      k22: enc(problem.c),
+      bx: enc(problem.b),
+      by: enc(problem.d),
+      sigma: enc(problem.e),
       faces: {
-        x: { k11: enc(k.faces.x.k11), k12: enc(k.faces.x.k12) },
-        y: { k12: enc(k.faces.y.k12), k22: enc(k.faces.y.k22) },
+        x: {
+          k11: enc(k.alongX.k11),
+          k12: enc(k.alongX.k12 ?? new Float64Array(faces.x)),
+        },
+        y: {
+          k12: enc(k.alongY.k12 ?? new Float64Array(faces.y)),
+          k22: enc(k.alongY.k22),
+        },
       },
     };
   } else {
     const coefficients: Record<string, A> = {
-      a: enc(c.a),
-      b: enc(c.b),
-      c: enc(c.c),
-      d: enc(c.d),
-      e: enc(c.e),
+      a: enc(problem.a),
+      b: enc(problem.b),
+      c: enc(problem.c),
+      d: enc(problem.d),
+      e: enc(problem.e),
     };
     if (protocol === PROTOCOL_VERSION_2) coefficients.m = enc(problem.m ?? new Float64Array(count));
     operator.coefficients = coefficients;
@@ -268,16 +287,16 @@ function assembleRequest<A>(
     grid: {
       nx: problem.nx,
       ny: problem.ny,
-      layout: problem.layout,
+      layout,
       order: "x-fastest" as const,
       points: count,
-      ...(protocol === PROTOCOL_VERSION_2 && problem.lines
-        ? { x: enc(problem.lines.x), y: enc(problem.lines.y) }
+      ...(protocol === PROTOCOL_VERSION_2 && problem.coordinates
+        ? { x: enc(problem.coordinates.x), y: enc(problem.coordinates.y) }
         : {}),
     },
     encoding: details.encoding,
     ...operator,
-    source: enc(problem.source),
+    source: enc(problem.f),
     boundary,
     expressions: details.expressions,
     scheme: details.scheme,
@@ -355,11 +374,11 @@ export function readSolveRequest(
     }
     return v;
   };
-  const boundary = {} as Record<SideName, SampledSide>;
+  const boundary = {} as Record<SideName, BoundaryCondition>;
   for (const side of SIDE_NAMES) {
     const b = message.boundary[side];
     if (b.kind === "periodic") {
-      boundary[side] = { kind: "periodic", values: new Float64Array(0) };
+      boundary[side] = { kind: "periodic" };
       continue;
     }
     const along = side === "west" || side === "east" ? ny : nx;
@@ -373,20 +392,32 @@ export function readSolveRequest(
       ? { kind: "robin", alpha: weight(b.alpha, "alpha"), beta: weight(b.beta, "beta"), values }
       : { kind: b.kind, values };
   }
+  const k = message.conservative;
+  const conservative = message.form === "conservative" && k !== undefined;
+  const c = message.coefficients;
   const problem: SampledProblem = {
     domain: message.domain,
     nx,
     ny,
     layout,
-    // filled below from `coefficients` or `conservative`
-    coefficients: undefined as unknown as SampledProblem["coefficients"],
-    source: read(message.source, "/source", count),
+    a: conservative
+      ? read(k.k11, "/conservative/k11", count)
+      : read(c!.a, "/coefficients/a", count),
+    b: conservative ? read(k.bx, "/conservative/bx", count) : read(c!.b, "/coefficients/b", count),
+    c: conservative
+      ? read(k.k22, "/conservative/k22", count)
+      : read(c!.c, "/coefficients/c", count),
+    d: conservative ? read(k.by, "/conservative/by", count) : read(c!.d, "/coefficients/d", count),
+    e: conservative
+      ? read(k.sigma, "/conservative/sigma", count)
+      : read(c!.e, "/coefficients/e", count),
+    f: read(message.source, "/source", count),
     boundary,
   };
   if (message.singular === true) problem.singular = true;
   if (message.protocol === PROTOCOL_VERSION_2) {
     if (message.grid.x !== undefined && message.grid.y !== undefined) {
-      problem.lines = {
+      problem.coordinates = {
         x: read(message.grid.x, "/grid/x", nx + 1),
         y: read(message.grid.y, "/grid/y", ny + 1),
       };
@@ -394,45 +425,28 @@ export function readSolveRequest(
     problem.form = message.form;
     problem.interfaces = { x: [...message.interfaces!.x], y: [...message.interfaces!.y] };
   }
-  const k = message.conservative;
-  if (message.form === "conservative" && k) {
+  if (conservative) {
     const faces = faceCounts(layout, nx, ny);
-    const k11 = read(k.k11, "/conservative/k11", count);
-    const k22 = read(k.k22, "/conservative/k22", count);
-    problem.coefficients = {
-      a: k11,
-      b: read(k.bx, "/conservative/bx", count),
-      c: k22,
-      d: read(k.by, "/conservative/by", count),
-      e: read(k.sigma, "/conservative/sigma", count),
-    };
-    problem.conservative = {
-      k11,
-      k12: read(k.k12, "/conservative/k12", count),
-      k22,
-      faces: {
-        x: {
-          k11: read(k.faces.x.k11, "/conservative/faces/x/k11", faces.x),
-          k12: read(k.faces.x.k12, "/conservative/faces/x/k12", faces.x),
-        },
-        y: {
-          k12: read(k.faces.y.k12, "/conservative/faces/y/k12", faces.y),
-          k22: read(k.faces.y.k22, "/conservative/faces/y/k22", faces.y),
-        },
+    const k12 = read(k.k12, "/conservative/k12", count);
+    const x12 = read(k.faces.x.k12, "/conservative/faces/x/k12", faces.x);
+    const y12 = read(k.faces.y.k12, "/conservative/faces/y/k12", faces.y);
+    // k12 ≡ 0 everywhere: a diagonal K, sent as zeros, read back as absent
+    const tensor = !(allZero(k12) && allZero(x12) && allZero(y12));
+    problem.conductivity = {
+      alongX: {
+        k11: read(k.faces.x.k11, "/conservative/faces/x/k11", faces.x),
+        ...(tensor ? { k12: x12 } : {}),
+      },
+      alongY: {
+        ...(tensor ? { k12: y12 } : {}),
+        k22: read(k.faces.y.k22, "/conservative/faces/y/k22", faces.y),
       },
     };
-  } else {
-    const c = message.coefficients!;
-    problem.coefficients = {
-      a: read(c.a, "/coefficients/a", count),
-      b: read(c.b, "/coefficients/b", count),
-      c: read(c.c, "/coefficients/c", count),
-      d: read(c.d, "/coefficients/d", count),
-      e: read(c.e, "/coefficients/e", count),
-    };
-    if (message.protocol === PROTOCOL_VERSION_2 && c.m !== undefined) {
-      problem.m = read(c.m, "/coefficients/m", count);
-    }
+    // m = 2·k12 at the points (doubling a double is exact)
+    if (tensor) problem.m = k12.map((v) => 2 * v);
+  } else if (message.protocol === PROTOCOL_VERSION_2 && c!.m !== undefined) {
+    const m = read(c!.m, "/coefficients/m", count);
+    if (!allZero(m)) problem.m = m;
   }
   return { message, problem };
 }

@@ -71,20 +71,6 @@ export interface Rectangle {
   y1: number;
 }
 
-/** One side's boundary data, sampled at the side's points of the layout. */
-export interface SampledSide {
-  kind: BoundaryKindName;
-  /**
-   * Robin α at the same points as `values` (robin only). On the wire a number when it is one value
-   * along the whole side (always, in version 1), an array when it varies (version 2).
-   */
-  alpha?: Float64Array;
-  /** Robin β at the same points as `values` (robin only); on the wire like `alpha`. */
-  beta?: Float64Array;
-  /** The side's data at its points; empty for a periodic side (none goes on the wire). */
-  values: Float64Array;
-}
-
 /** The one value of a side's Robin weight, or undefined when it varies along the side. */
 export function uniformWeight(w: Float64Array): number | undefined {
   const first = w[0];
@@ -93,85 +79,13 @@ export function uniformWeight(w: Float64Array): number | undefined {
 }
 
 /**
- * A problem sampled at the points of one layout: everything a solve request carries apart from
- * the case's identity, expressions and hints. Arrays are x-fastest.
+ * The problem a request carries, decoded: gridproof's one sampled-problem type (`problem/`). The
+ * request writer and reader map it to and from the wire (`request.ts`).
  */
-export interface SampledProblem {
-  domain: Rectangle;
-  nx: number;
-  ny: number;
-  layout: GridLayout;
-  coefficients: {
-    a: Float64Array;
-    b: Float64Array;
-    c: Float64Array;
-    d: Float64Array;
-    e: Float64Array;
-  };
-  source: Float64Array;
-  boundary: Record<SideName, SampledSide>;
-  /**
-   * Coefficients known to hold one value at every point (from the case's expressions), with
-   * that value: a request in the constant form sends them without looking at their arrays.
-   * Optional; arrays not named here are looked at.
-   */
-  constantCoefficients?: Partial<Record<"a" | "b" | "c" | "d" | "e" | "m", number>>;
-  /** The operator's form; absent: non-conservative. Version 2 only when not the default. */
-  form?: OperatorFormName;
-  /** Coefficient of u_xy at the points (non-conservative form, version 2); absent: 0. */
-  m?: Float64Array;
-  /**
-   * The conservative form's K (form "conservative" only). Then `coefficients.a` and `.c` hold
-   * k11 and k22 at the points, and `b`, `d`, `e` hold βx, βy and σ.
-   */
-  conservative?: SampledConductivity;
-  /** Material interfaces (lines x = const and y = const); absent: none. */
-  interfaces?: { x: number[]; y: number[] };
-  /**
-   * Version 2: the grid lines of a stretched grid (nx + 1 and ny + 1 values, strictly increasing
-   * from the domain's edges): node coordinates for the vertex layout, face coordinates for the
-   * cell layout (centres are midpoints of faces). Absent: uniform.
-   */
-  lines?: { x: Float64Array; y: Float64Array };
-  /**
-   * true when the solution is fixed only up to a constant (no side fixes u, no reaction term).
-   * Version 2 sends it as `singular`; absent: false.
-   */
-  singular?: boolean;
-}
+export type { SampledProblem } from "../../problem/mod.ts";
 
-/**
- * K = [[k11, k12], [k12, k22]] at the points of a layout and at its faces. A face value on an
- * interface is the effective one (harmonic mean across it, arithmetic along it); solvers never
- * average. Face arrays, x fastest:
- *
- * - `faces.x`, faces whose flux runs along x: cell layout the x-faces at (x0 + i·hx,
- *   y0 + (j + ½)·hy), (nx + 1)·ny values, index j·(nx + 1) + i; vertex layout the midpoints of
- *   the edges along x at (x0 + (i + ½)·hx, y0 + j·hy), nx·(ny + 1) values, index j·nx + i.
- * - `faces.y`, flux along y: cell layout the y-faces at (x0 + (i + ½)·hx, y0 + j·hy),
- *   nx·(ny + 1) values, index j·nx + i; vertex layout the midpoints of the edges along y at
- *   (x0 + i·hx, y0 + (j + ½)·hy), (nx + 1)·ny values, index j·(nx + 1) + i.
- */
-export interface SampledConductivity {
-  k11: Float64Array;
-  k12: Float64Array;
-  k22: Float64Array;
-  faces: {
-    x: { k11: Float64Array; k12: Float64Array };
-    y: { k12: Float64Array; k22: Float64Array };
-  };
-}
-
-/** Number of values of each face array of a layout (see {@link SampledConductivity}). */
-export function faceCounts(
-  layout: GridLayout,
-  nx: number,
-  ny: number,
-): { x: number; y: number } {
-  return layout === "cell"
-    ? { x: (nx + 1) * ny, y: nx * (ny + 1) }
-    : { x: nx * (ny + 1), y: (nx + 1) * ny };
-}
+/** Number of values of each face array of a layout (the conductivity's counts). */
+export { faceCounts } from "../../problem/mod.ts";
 
 /** The expressions of a case as text (mathjs syntax), for solvers that evaluate them. */
 export interface ExpressionTexts {

@@ -1,21 +1,23 @@
 /**
- * Samples a compiled case at the points a layout needs for a solve request: grid nodes (vertex
- * layout, through the case's own `sample`) or cell centres with boundary data at the centres of
- * the boundary faces (cell layout). The mixed term u_xy and the conservative form's K (at the
- * points and at the faces, from the case's own face values) come along for protocol version 2.
+ * Samples a compiled case at the points a layout needs for a solve request, into gridproof's one
+ * sampled-problem type (`problem/`): grid nodes (vertex layout: the case's own `sample`, as it
+ * is) or cell centres with boundary data at the centres of the boundary faces (cell layout, built
+ * here in the same shape). The mixed term u_xy and the conservative form's K at the flux faces
+ * (from the case's own face values) come along for protocol version 2; the request writer maps
+ * the problem to the wire.
  *
  * @module
  */
 import type { CompiledCase, ConservativeTerms, PointFn } from "../../cases/types.ts";
 import { caseGrid, isStretchedCase } from "../../cases/mod.ts";
-import { SIDES } from "../../reference-solver/mod.ts";
-import type {
-  ExpressionTexts,
-  SampledConductivity,
-  SampledProblem,
-  SampledSide,
-  SideName,
-} from "../protocol/mod.ts";
+import {
+  type BoundaryCondition,
+  type Conductivity,
+  type SampledProblem,
+  type Side,
+  SIDES,
+} from "../../problem/mod.ts";
+import type { ExpressionTexts } from "../protocol/mod.ts";
 
 /**
  * Samples a case for a request on the given layout.
@@ -32,7 +34,7 @@ import type {
  * ```ts ignore
  * import { sampleCase } from "./sample.ts";
  * const p = sampleCase(myCase, 8, 8, "cell");
- * p.source.length; // 64
+ * p.f.length; // 64
  * ```
  */
 export function sampleCase(
@@ -48,8 +50,9 @@ export function sampleCase(
         `choose grids that put every interface on a grid line`,
     );
   }
-  const problem = layout === "vertex"
-    ? sampleVertex(compiled, nx, ny)
+  // the vertex layout: the case's own sample as it is, stated as such
+  const problem: SampledProblem = layout === "vertex"
+    ? { ...compiled.sample(nx, ny), layout: "vertex" }
     : sampleCells(compiled, nx, ny);
   if (compiled.form === "conservative") {
     problem.form = "conservative";
@@ -58,6 +61,7 @@ export function sampleCase(
     problem.constantCoefficients = {};
   } else {
     problem.form = "non-conservative";
+    problem.constantCoefficients = { ...compiled.constantCoefficients };
   }
   if (compiled.singular) problem.singular = true;
   return problem;
@@ -93,50 +97,6 @@ export function version1Refusal(compiled: CompiledCase): string | undefined {
 function noMixedTerm(compiled: CompiledCase): boolean {
   return compiled.constantCoefficients.m === 0 ||
     (compiled.formulas.m === undefined && compiled.constantCoefficients.m === undefined);
-}
-
-/** The vertex layout: the case's own node sample, its u_xy and K at the edge midpoints. */
-function sampleVertex(compiled: CompiledCase, nx: number, ny: number): SampledProblem {
-  const p = compiled.sample(nx, ny);
-  const boundary = {} as Record<SideName, SampledSide>;
-  for (const side of SIDES) {
-    const bc = p.boundary[side];
-    boundary[side] = bc.kind === "periodic"
-      ? { kind: "periodic", values: new Float64Array(0) }
-      : { ...bc } as SampledSide;
-  }
-  const problem: SampledProblem = {
-    domain: { ...p.domain },
-    nx: p.nx,
-    ny: p.ny,
-    layout: "vertex",
-    coefficients: { a: p.a, b: p.b, c: p.c, d: p.d, e: p.e },
-    source: p.f,
-    boundary,
-    constantCoefficients: { ...compiled.constantCoefficients },
-  };
-  if (p.coordinates) problem.lines = { x: p.coordinates.x, y: p.coordinates.y };
-  const terms = compiled.conservative;
-  if (compiled.form === "conservative" && terms) {
-    const cond = p.conductivity;
-    if (!cond) {
-      throw new TypeError(`case ${compiled.id}: the conservative sample has no conductivity`);
-    }
-    const xs = cond.alongX.k11.length;
-    const ys = cond.alongY.k22.length;
-    problem.conservative = {
-      k11: p.a,
-      k12: atPoints(terms.k12, compiled, nx, ny, "vertex"),
-      k22: p.c,
-      faces: {
-        x: { k11: cond.alongX.k11, k12: cond.alongX.k12 ?? new Float64Array(xs) },
-        y: { k12: cond.alongY.k12 ?? new Float64Array(ys), k22: cond.alongY.k22 },
-      },
-    };
-  } else if (p.m && !noMixedTerm(compiled)) {
-    problem.m = p.m;
-  }
-  return problem;
 }
 
 /** Values of `fn` at the points of a layout, x fastest. */
@@ -208,28 +168,37 @@ function lattice(
 }
 
 /**
- * The conservative form on the cell layout: K, β and σ at the cell centres, K at the x-faces
- * ((nx + 1) × ny, at x_i, y_{j+½}) and the y-faces (nx × (ny + 1), at x_{i+½}, y_j), taken from
- * the case's face values (the effective value on an interface). Checks that K is positive
- * definite at every centre and face.
+ * The conservative form on the cell layout: K at the cell centres (k11, k22 and m = 2·k12), K at
+ * the x-faces ((nx + 1) × ny, at x_i, y_{j+½}: `alongX`) and the y-faces (nx × (ny + 1), at
+ * x_{i+½}, y_j: `alongY`), taken from the case's face values (the effective value on an
+ * interface). Checks that K is positive definite at every centre.
  */
 function cellConductivity(
   compiled: CompiledCase,
   terms: ConservativeTerms,
   nx: number,
   ny: number,
-): { points: SampledConductivity; bx: Float64Array; by: Float64Array; sigma: Float64Array } {
+): { k11: Float64Array; k22: Float64Array; m?: Float64Array; conductivity: Conductivity } {
   const centres = (fn: PointFn) => atPoints(fn, compiled, nx, ny, "cell");
   const at = axesOf(compiled, nx, ny);
   const xFaces = (fn: PointFn) => lattice(fn, compiled, at.fx, at.cy, "x-face");
   const yFaces = (fn: PointFn) => lattice(fn, compiled, at.cx, at.fy, "y-face");
-  const points: SampledConductivity = {
+  // k12 ≡ 0 (found symbolically): a diagonal K, no k12 arrays (absent means zero), as the vertex
+  // sample does
+  const tensor = terms.constant.k12 !== 0;
+  const points = {
     k11: centres(terms.k11),
-    k12: centres(terms.k12),
+    k12: tensor ? centres(terms.k12) : new Float64Array(nx * ny),
     k22: centres(terms.k22),
-    faces: {
-      x: { k11: xFaces(terms.faceX.k11), k12: xFaces(terms.faceX.k12) },
-      y: { k12: yFaces(terms.faceY.k12), k22: yFaces(terms.faceY.k22) },
+  };
+  const conductivity: Conductivity = {
+    alongX: {
+      k11: xFaces(terms.faceX.k11),
+      ...(tensor ? { k12: xFaces(terms.faceX.k12) } : {}),
+    },
+    alongY: {
+      ...(tensor ? { k12: yFaces(terms.faceY.k12) } : {}),
+      k22: yFaces(terms.faceY.k22),
     },
   };
   for (let k = 0; k < points.k11.length; k++) {
@@ -244,10 +213,11 @@ function cellConductivity(
     }
   }
   return {
-    points,
-    bx: centres(terms.bx),
-    by: centres(terms.by),
-    sigma: centres(terms.sigma),
+    k11: points.k11,
+    k22: points.k22,
+    // m = 2·k12 at the centres, as the case's own vertex sample (halved exactly on the wire)
+    ...(tensor ? { m: points.k12.map((v) => 2 * v) } : {}),
+    conductivity,
   };
 }
 
@@ -258,16 +228,22 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
   const terms = compiled.conservative;
   if (compiled.form === "conservative" && terms) {
     const k = cellConductivity(compiled, terms, nx, ny);
+    const centres = (fn: PointFn) => atPoints(fn, compiled, nx, ny, "cell");
     return {
       domain: { ...compiled.domain },
       nx,
       ny,
       layout: "cell",
-      coefficients: { a: k.points.k11, b: k.bx, c: k.points.k22, d: k.by, e: k.sigma },
-      source: atPoints(compiled.source, compiled, nx, ny, "cell"),
+      a: k.k11,
+      b: centres(terms.bx),
+      c: k.k22,
+      d: centres(terms.by),
+      e: centres(terms.sigma),
+      f: centres(compiled.source),
+      ...(k.m ? { m: k.m } : {}),
       boundary: cellBoundary(compiled, nx, ny),
-      conservative: k.points,
-      ...(isStretchedCase(compiled) ? { lines: { ...linesOf(compiled, nx, ny) } } : {}),
+      conductivity: k.conductivity,
+      ...(isStretchedCase(compiled) ? { coordinates: { ...linesOf(compiled, nx, ny) } } : {}),
     };
   }
   const { x0, x1, y0, y1 } = compiled.domain;
@@ -322,12 +298,15 @@ function sampleCells(compiled: CompiledCase, nx: number, ny: number): SampledPro
     nx,
     ny,
     layout: "cell",
-    coefficients: { a, b, c, d, e },
-    source: f,
+    a,
+    b,
+    c,
+    d,
+    e,
+    f,
     boundary: cellBoundary(compiled, nx, ny),
-    constantCoefficients: { ...compiled.constantCoefficients },
     ...(m ? { m } : {}),
-    ...(isStretchedCase(compiled) ? { lines: { x: at.fx, y: at.fy } } : {}),
+    ...(isStretchedCase(compiled) ? { coordinates: { x: at.fx, y: at.fy } } : {}),
   };
 }
 
@@ -342,14 +321,14 @@ function cellBoundary(
   compiled: CompiledCase,
   nx: number,
   ny: number,
-): Record<SideName, SampledSide> {
+): Record<Side, BoundaryCondition> {
   const { x0, x1, y0, y1 } = compiled.domain;
   const at = axesOf(compiled, nx, ny);
-  const boundary = {} as Record<SideName, SampledSide>;
+  const boundary = {} as Record<Side, BoundaryCondition>;
   for (const side of SIDES) {
     const bc = compiled.boundary[side];
     if (bc.kind === "periodic") {
-      boundary[side] = { kind: "periodic", values: new Float64Array(0) };
+      boundary[side] = { kind: "periodic" };
       continue;
     }
     const vertical = side === "west" || side === "east";
@@ -371,7 +350,7 @@ function cellBoundary(
     }
     boundary[side] = robin
       ? { kind: "robin", alpha, beta, values }
-      : { kind: bc.kind as SampledSide["kind"], values };
+      : { kind: bc.kind as "dirichlet" | "neumann", values };
   }
   return boundary;
 }

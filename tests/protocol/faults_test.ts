@@ -38,7 +38,7 @@ function failsWith(outcome: SolveOutcome, pattern: RegExp): void {
 
 Deno.test("a well-behaved once solver's reply is decoded: values, points, weights and extras", async (t) => {
   const c = testCase();
-  const source = sampleCase(c, 4, 8, "vertex").source;
+  const source = sampleCase(c, 4, 8, "vertex").f;
   for (const encoding of ["numbers", "base64"] as const) {
     await t.step(
       `request and reply in ${encoding} (Python decodes and re-encodes with struct)`,

@@ -52,7 +52,7 @@ Deno.test("an external solver runs under the address-space limit its solver file
       assert.equal(o.status, "ok", o.reason);
       assert.equal(notes(o), `address-space limit ${LIMIT_BYTES}; held ${16 * 1024 * 1024} bytes`);
       // the solve itself is intact: the solver echoes the source it was sent
-      assert.deepEqual(o.values, sampleCase(testCase(), 4, 8, "vertex").source);
+      assert.deepEqual(o.values, sampleCase(testCase(), 4, 8, "vertex").f);
     },
   );
   await t.step("without memoryLimitMiB the harness sets no 256 MiB limit", async () => {

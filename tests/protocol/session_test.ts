@@ -39,7 +39,7 @@ Deno.test("a session answers several requests from one process, in order", async
   try {
     const first = await solver.solve(task(4));
     assert.equal(first.status, "ok", first.reason);
-    assert.deepEqual(first.values, sampleCase(testCase(), 4, 8, "vertex").source);
+    assert.deepEqual(first.values, sampleCase(testCase(), 4, 8, "vertex").f);
     const pid = sessionPid(first);
     assert.ok(pid);
     const [second, third] = await Promise.all([solver.solve(task(8)), solver.solve(task(2))]);
@@ -150,7 +150,7 @@ Deno.test("constant coefficients go as one number only to solvers that read that
       const o = await solver.solve(task(4));
       assert.equal(o.status, "ok", o.reason);
       // the source, which varies, arrives in full and is echoed back intact
-      assert.deepEqual(o.values, sampleCase(testCase(), 4, 8, "vertex").source);
+      assert.deepEqual(o.values, sampleCase(testCase(), 4, 8, "vertex").f);
       return /constant arrays: ([a-z,]+)/.exec(String(o.description?.notes))?.[1];
     } finally {
       await solver.close();

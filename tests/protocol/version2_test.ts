@@ -63,7 +63,8 @@ function arraysOf(p: SampledProblem): Map<string, Float64Array> {
       for (const [k, v] of Object.entries(value)) walk(v, `${path}/${k}`);
     }
   };
-  walk({ c: p.coefficients, s: p.source, b: p.boundary, m: p.m, k: p.conservative }, "");
+  const { a, b, c, d, e, f } = p;
+  walk({ a, b, c, d, e, f, s: p.boundary, m: p.m, k: p.conductivity, x: p.coordinates }, "");
   return out;
 }
 
@@ -99,12 +100,12 @@ Deno.test("a version 2 request carries the new fields through encode and decode 
           }
         }
         if (compiled.form === "conservative") {
-          const faces = got.conservative!.faces;
+          const faces = got.conductivity!;
           const [xs, ys] = layout === "cell"
             ? [(n + 1) * n, n * (n + 1)]
             : [n * (n + 1), (n + 1) * n];
-          assert.equal(faces.x.k11.length, xs);
-          assert.equal(faces.y.k22.length, ys);
+          assert.equal(faces.alongX.k11.length, xs);
+          assert.equal(faces.alongY.k22.length, ys);
         } else {
           assert.ok(got.m!.some((v) => v !== 0), "the mixed term arrives");
         }
@@ -123,15 +124,15 @@ Deno.test("the faces on an interface carry the harmonic mean across it, computed
   const harmonic = (2 * 1 * 100) / 101;
   // y-faces: nx·(ny + 1), index j·nx + i; row j = 4 is y = 0.5
   for (let i = 0; i < n; i++) {
-    assert.ok(Math.abs(cell.conservative!.faces.y.k22[4 * n + i] - harmonic) < 1e-12);
-    assert.equal(cell.conservative!.faces.y.k22[3 * n + i], 1);
-    assert.equal(cell.conservative!.faces.y.k22[5 * n + i], 100);
+    assert.ok(Math.abs(cell.conductivity!.alongY.k22[4 * n + i] - harmonic) < 1e-12);
+    assert.equal(cell.conductivity!.alongY.k22[3 * n + i], 1);
+    assert.equal(cell.conductivity!.alongY.k22[5 * n + i], 100);
   }
   // vertex layout: edges along x on the node line y = 0.5 (row j = 4, nx per row) carry flux along
   // the interface: the arithmetic mean
   const vertex = sampleCase(compiled, n, n, "vertex");
   for (let i = 0; i < n; i++) {
-    assert.ok(Math.abs(vertex.conservative!.faces.x.k11[4 * n + i] - 50.5) < 1e-12);
+    assert.ok(Math.abs(vertex.conductivity!.alongX.k11[4 * n + i] - 50.5) < 1e-12);
   }
 });
 
