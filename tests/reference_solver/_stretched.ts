@@ -139,3 +139,31 @@ export function sampleAt(field: Field, x: Float64Array, y: Float64Array): Float6
   }
   return out;
 }
+
+/** The boundary of a problem as the SciPy scripts read it (JSON: arrays as lists). */
+export function boundaryJson(boundary: Record<Side, BoundaryCondition>): Record<string, unknown> {
+  const arr = (v: Float64Array) => Array.from(v);
+  return Object.fromEntries(
+    Object.entries(boundary).map(([side, bc]) => [
+      side,
+      bc.kind === "periodic"
+        ? { kind: "periodic" }
+        : bc.kind === "robin"
+        ? { kind: "robin", alpha: arr(bc.alpha), beta: arr(bc.beta), values: arr(bc.values) }
+        : { kind: bc.kind, values: arr(bc.values) },
+    ]),
+  );
+}
+
+/** Largest difference between two solutions, and the larger magnitude of the second. */
+export function largestDifference(
+  mine: ArrayLike<number>,
+  theirs: ArrayLike<number>,
+): { diff: number; scale: number } {
+  let diff = 0, scale = 0;
+  for (let k = 0; k < theirs.length; k++) {
+    diff = Math.max(diff, Math.abs(mine[k] - theirs[k]));
+    scale = Math.max(scale, Math.abs(theirs[k]));
+  }
+  return { diff, scale };
+}

@@ -25,22 +25,7 @@ import scipy
 from scipy import sparse
 from scipy.sparse import linalg
 
-
-def weight(s, name, pos):
-    """A Robin weight at a position along its side: one number or one value per node."""
-    w = s[name]
-    return float(w[pos]) if isinstance(w, list) else float(w)
-
-
-def fixes_u(s):
-    if s["kind"] == "dirichlet":
-        return True
-    return s["kind"] == "robin" and all(weight(s, "beta", k) == 0 for k in range(len(s["values"])))
-
-
-def fixed_value(s, pos):
-    g = s["values"][pos]
-    return g / weight(s, "alpha", pos) if s["kind"] == "robin" else g
+from _scipy_sides import fixed_value, fixes_u, weight
 
 
 def assemble(p):

@@ -20,7 +20,14 @@ import {
   solve,
 } from "../../reference-solver/mod.ts";
 import { findScipyPython, runWithInput } from "../../testing/mod.ts";
-import { geometric, stretchRatio, tanhBetaFor, tanhBoth } from "./_stretched.ts";
+import {
+  boundaryJson,
+  geometric,
+  largestDifference,
+  stretchRatio,
+  tanhBetaFor,
+  tanhBoth,
+} from "./_stretched.ts";
 
 const SCRIPT = fileURLToPath(new URL("./scipy_stretched_conservative.py", import.meta.url));
 const python = await findScipyPython();
@@ -98,16 +105,7 @@ async function scipySolve(p: Problem): Promise<Float64Array> {
     d: arr(p.d),
     e: arr(p.e),
     f: arr(p.f),
-    boundary: Object.fromEntries(
-      Object.entries(p.boundary).map(([side, bc]) => [
-        side,
-        bc.kind === "periodic"
-          ? { kind: "periodic" }
-          : bc.kind === "robin"
-          ? { kind: "robin", alpha: arr(bc.alpha), beta: arr(bc.beta), values: arr(bc.values) }
-          : { kind: bc.kind, values: arr(bc.values) },
-      ]),
-    ),
+    boundary: boundaryJson(p.boundary),
   });
   const out = await runWithInput([python!, SCRIPT], input);
   if (!out.success) {
@@ -163,11 +161,7 @@ Deno.test({
         const mine = solve(p, { stop: { tolerance: 1e-13, maxCycles: 100 } });
         assert.ok(mine.converged, `not converged: ${mine.reason}`);
         const theirs = await scipySolve(p);
-        let diff = 0, scale = 0;
-        for (let k = 0; k < theirs.length; k++) {
-          diff = Math.max(diff, Math.abs(mine.solution[k] - theirs[k]));
-          scale = Math.max(scale, Math.abs(theirs[k]));
-        }
+        const { diff, scale } = largestDifference(mine.solution, theirs);
         assert.ok(diff <= TOLERANCE * scale, `max difference ${diff} (scale ${scale})`);
       });
     }
