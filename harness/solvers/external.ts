@@ -62,7 +62,9 @@ export function createExternalSolver(
   const sessions = spec.mode === "session"
     ? new SessionPool(runner, Math.max(1, Math.floor(options.sessions ?? 1)))
     : undefined;
-  let counter = 0;
+  // an id names the case, the grid and the number of requests so far for that pair, so it does
+  // not depend on the order in which parallel solves start (--jobs)
+  const counters = new Map<string, number>();
   return {
     info: {
       name: spec.name,
@@ -78,8 +80,10 @@ export function createExternalSolver(
       },
     },
     solve(task: SolveTask): Promise<SolveOutcome> {
-      counter++;
-      const id = `${task.case.id}/${task.nx}x${task.ny}/${counter}`;
+      const key = `${task.case.id}/${task.nx}x${task.ny}`;
+      const count = (counters.get(key) ?? 0) + 1;
+      counters.set(key, count);
+      const id = `${key}/${count}`;
       const work = async (session?: Session): Promise<SolveOutcome> => {
         if (session) {
           // the request's form depends on what the session declared, so start it first

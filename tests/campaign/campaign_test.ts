@@ -81,7 +81,7 @@ Deno.test("check: results do not depend on the number of parallel jobs", async (
   const cases = [await loadCase("variable-all"), await loadCase("robin-all")];
   const grids = [8, 16, 32];
   const serial = await runCampaign(cases, [createReferenceSolver()], { grids, jobs: 1 });
-  const pooled = createPooledReferenceSolver({ workers: 2 });
+  const pooled = createPooledReferenceSolver({ workers: 2, inProcessBelow: 0 });
   const parallel = await runCampaign(cases, [pooled], { grids, jobs: 2 });
   await pooled.close();
   // identical arithmetic in every worker: bit-for-bit equal errors (exact identity)
